@@ -1,0 +1,5 @@
+// The list of subcommands. Each module exports a factory returning its commander Command;
+// add one import and one entry here to register a new command.
+import type { Command } from 'commander';
+
+export const commandFactories: Array<() => Command> = [];
