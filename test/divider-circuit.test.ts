@@ -19,6 +19,6 @@ describe('feedback divider (Kirchhoff current law at the feedback node)', () => 
     }
   });
   it('divider current is Vref/Rbottom: 1.25 V / 3.3 kΩ = 378.8 µA', () => {
-    expect(dividerCurrent(1.25, 3.3e3)).toBeCloseTo(378.79e-6, 9);
+    expect(dividerCurrent(1.25, 3.3e3)).toBeCloseTo(378.7879e-6, 9);
   });
 });
