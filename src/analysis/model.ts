@@ -1,0 +1,47 @@
+// A circuit as the engine sees it: uncertain parts in, named outputs out, evaluated a block of trials at a time.
+// Monte Carlo, worst case, RSS and sensitivities all work on any Model.
+import type { Part } from '../tolerance/part.js';
+
+export interface ModelOutput {
+  /** Short name: 'vout', 'ilimit', 'shuntLoss', 'ampOutput', 'dividerCurrent', or a picker's own. */
+  name: string;
+  /** SI unit symbol: 'V', 'A', 'W'. */
+  unit: string;
+  /** Acceptance window [lo, hi] for yield, ppm out, Cp and Cpk. */
+  spec?: [number, number];
+  /**
+   * Fills out[j] for j < n from the part values p[i][j] (p has one Float64Array per part, in `Model.parts` order).
+   * Must be a plain loop: no allocation per trial, no randomness, no I/O.
+   */
+  evaluate(p: Float64Array[], out: Float64Array, n: number): void;
+}
+
+export interface Model {
+  parts: Part[];
+  outputs: ModelOutput[];
+  /** Notes on how the model treats its parts (e.g. 'Monte Carlo at a fixed 25 °C'); reports show them. */
+  notes?: string[];
+}
+
+/** Evaluates one output at a single point (one value per part): for nominal values and checks, not hot loops. */
+export function evaluateAt(output: ModelOutput, values: ArrayLike<number>): number {
+  const p = Array.from(values, (v) => Float64Array.of(v));
+  const out = new Float64Array(1);
+  output.evaluate(p, out, 1);
+  return out[0]!;
+}
+
+/** The output values with every part at its nominal value. */
+export function nominalOutputs(model: Model): Record<string, number> {
+  const values = model.parts.map((part) => part.nominal);
+  const result: Record<string, number> = {};
+  for (const output of model.outputs) result[output.name] = evaluateAt(output, values);
+  return result;
+}
+
+/** Looks up an output by name; throws if the model has none of that name. */
+export function findOutput(model: Model, name: string): ModelOutput {
+  const output = model.outputs.find((o) => o.name === name);
+  if (!output) throw new Error(`model has no output named ${name} (has ${model.outputs.map((o) => o.name).join(', ')})`);
+  return output;
+}

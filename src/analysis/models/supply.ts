@@ -1,0 +1,526 @@
+// The CV/CC supply as a Model: the feedback divider that sets Vout, and the current-sense path that sets the limit.
+// SupplySpec is plain JSON in SI base units with every value resolved (the design layer fills "auto" values first),
+// so it crosses to worker threads as is; each worker rebuilds the same Model from it.
+//
+// How the parts enter (each uncertain quantity is its own Part, so worst case, RSS and the contributions name it):
+//   resistor value at temperature   R·(1 + drift)·(1 + α·(T − 25 °C))     α: the unit's TCR, unknown within ±TCR
+//   reference                        Vref·(1 + drift)·(1 + tc·(T − 25 °C))
+//   amplifier offset                 Vos + (dVos/dT)·(T − 25 °C)
+//   shunt self-heating               T_shunt = T + θ·I²·R_shunt at the limit (fixed-point iteration, see below)
+// Bias currents are held constant over temperature (their temperature dependence is left to the ± bound given).
+// The physics lives in src/circuits/ (divider, combine, temperature, sense/*); this file only wires parts to it.
+import { parallelResistance, seriesResistance } from '../../circuits/combine.js';
+import { dividerVout } from '../../circuits/divider.js';
+import { diffLimit, diffOutput } from '../../circuits/sense/diff.js';
+import { directLimit, directSignal } from '../../circuits/sense/direct.js';
+import { noninvLimit, noninvOutput } from '../../circuits/sense/noninv.js';
+import { REFERENCE_TEMPERATURE_C } from '../../circuits/temperature.js';
+import { InputError } from '../../errors.js';
+import type { DistributionSpec, Part } from '../../tolerance/part.js';
+import { partFromBound, partFromTolerance } from '../../tolerance/part.js';
+import type { Model, ModelOutput } from '../model.js';
+
+/** One resistor: value, tolerance (fraction), TCR bound (1/K), drift allowance (fraction), distribution. */
+export interface ResistorSpec {
+  /** Designator shown in reports, e.g. 'R1'. */
+  name: string;
+  nominal: number;
+  tolerance: number;
+  tcrPerK?: number;
+  drift?: number;
+  /** Default uniform. */
+  distribution?: DistributionSpec;
+}
+
+/** A potentiometer used as a variable resistor in a leg: `wiper` (0..1) of its track is in circuit. */
+export interface PotentiometerSpec extends ResistorSpec {
+  wiper: number;
+}
+
+/** One divider leg: one resistor, or two in series or in parallel, plus an optional potentiometer in series. */
+export interface LegSpec {
+  resistors: [ResistorSpec] | [ResistorSpec, ResistorSpec];
+  /** How two resistors combine; required when there are two. */
+  arrangement?: 'series' | 'parallel';
+  potentiometer?: PotentiometerSpec;
+}
+
+/** A quantity known as nominal ± bound (offsets, bias currents). */
+export interface BoundSpec {
+  nominal: number;
+  plusMinus: number;
+  /** Default uniform; for a datasheet maximum given as kσ use { kind: 'normal', k }. */
+  distribution?: DistributionSpec;
+}
+
+export interface ReferenceSpec {
+  /** Default 'Vref'. */
+  name?: string;
+  nominal: number;
+  /** Initial accuracy, fraction. */
+  tolerance: number;
+  /** Temperature coefficient bound, 1/K (e.g. 50e-6 for 50 ppm/K). */
+  tempcoPerK?: number;
+  /** Long-term drift allowance, fraction. */
+  drift?: number;
+  distribution?: DistributionSpec;
+}
+
+export interface TemperatureSpec {
+  /** Operating ambient range, °C; worst case takes both ends. */
+  minC: number;
+  maxC: number;
+  /** Monte Carlo draws the ambient uniformly over the range, or holds it at one temperature. */
+  monteCarlo: 'uniform' | { fixedC: number };
+}
+
+export interface ShuntSpec extends ResistorSpec {
+  /** Power rating, W: shuntLoss gets the spec window [0, rating]. */
+  powerRatingW?: number;
+  /** Thermal resistance to ambient θ, K/W: enables self-heating θ·I²R at the limit. */
+  thermalResistanceKPerW?: number;
+}
+
+export interface AmplifierSpec {
+  /** Input offset voltage maximum, V (about 0 V). */
+  offsetMax: number;
+  /** Default uniform over ±offsetMax. */
+  offsetDistribution?: DistributionSpec;
+  /** Offset drift bound, V/K. */
+  offsetDriftPerK?: number;
+  /** Input bias current, A. */
+  biasCurrent?: BoundSpec;
+  /** Output swing limit, V: ampOutput gets the spec window [0, rail]. */
+  railV?: number;
+}
+
+export type ThresholdSpec =
+  | { kind: 'fixed'; nominal: number; tolerance: number; tempcoPerK?: number; distribution?: DistributionSpec }
+  /** Threshold = source·bottom/(top + bottom); the source is the regulator's own reference or a separate one. */
+  | { kind: 'divided'; source: 'regulator-reference' | ReferenceSpec; top: ResistorSpec; bottom: ResistorSpec };
+
+interface SenseCommon {
+  shunt: ShuntSpec;
+  threshold: ThresholdSpec;
+  /** Offset of the stage that compares with the threshold, referred to its input. */
+  compareOffset?: BoundSpec;
+  /** The current limit the design aims at, A (for reports; the model computes the actual limit). */
+  limitTarget: number;
+}
+
+export type SenseSpec =
+  | (SenseCommon & { topology: 'direct' })
+  | (SenseCommon & { topology: 'noninv'; rf: ResistorSpec; rg: ResistorSpec; amplifier: AmplifierSpec })
+  | (SenseCommon & {
+      topology: 'diff';
+      r1: ResistorSpec;
+      r2: ResistorSpec;
+      r3: ResistorSpec;
+      r4: ResistorSpec;
+      /** Voltage of the shunt's load-side node: 0 V low-side, the rail high-side. */
+      commonModeV: number;
+      amplifier: AmplifierSpec;
+    });
+
+export interface SupplySpec {
+  reference: ReferenceSpec;
+  divider: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
+  temperature: TemperatureSpec;
+  sense?: SenseSpec;
+  /** Acceptance windows [lo, hi]: output voltage (V) and current limit (A). */
+  windows?: { vout?: [number, number]; ilimit?: [number, number] };
+  /** The output voltage the design aims at, V (for reports). */
+  voutTarget?: number;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Wiring parts to parameter indices.
+
+const NONE = -1;
+
+/** Indices (into the parts list) of what makes up one resistor's value at temperature. */
+interface ResistorSlot {
+  value: number;
+  tcr: number;
+  drift: number;
+}
+
+interface LegSlots {
+  a: ResistorSlot;
+  b: ResistorSlot | null;
+  parallel: boolean;
+  pot: ResistorSlot | null;
+  wiper: number;
+}
+
+class PartList {
+  readonly parts: Part[] = [];
+  add(part: Part): number {
+    if (this.parts.some((p) => p.name === part.name)) {
+      throw new InputError(`part ${part.name}`, 'two parts share this name', 'a unique designator for each part');
+    }
+    this.parts.push(part);
+    return this.parts.length - 1;
+  }
+}
+
+function checkFinite(value: number | undefined, where: string, accepted: string, positive = false): void {
+  if (value === undefined) return;
+  if (!Number.isFinite(value) || (positive ? value <= 0 : value < 0)) {
+    throw new InputError(where, `${value} is not allowed`, accepted);
+  }
+}
+
+function addResistor(list: PartList, r: ResistorSpec, where: string, kind: 'resistor' | 'shunt' | 'potentiometer' = 'resistor'): ResistorSlot {
+  checkFinite(r.nominal, `${where}.nominal`, 'a resistance above 0 Ω', true);
+  checkFinite(r.tolerance, `${where}.tolerance`, 'a tolerance fraction ≥ 0 (0.01 for 1 %)');
+  checkFinite(r.tcrPerK, `${where}.tcrPerK`, 'a TCR bound ≥ 0 per kelvin (1e-4 for 100 ppm/K)');
+  checkFinite(r.drift, `${where}.drift`, 'a drift fraction ≥ 0');
+  const input = { name: r.name, kind, nominal: r.nominal, tolerance: r.tolerance } as Parameters<typeof partFromTolerance>[0];
+  if (r.distribution) input.distribution = r.distribution;
+  if (r.tcrPerK !== undefined) input.tcrPerK = r.tcrPerK;
+  const value = list.add(partFromTolerance(input));
+  const tcr = r.tcrPerK ? list.add(partFromBound({ name: `${r.name} TCR`, kind: 'temperature coefficient', nominal: 0, plusMinus: r.tcrPerK })) : NONE;
+  const drift = r.drift ? list.add(partFromBound({ name: `${r.name} drift`, kind: 'drift', nominal: 0, plusMinus: r.drift })) : NONE;
+  return { value, tcr, drift };
+}
+
+function addLeg(list: PartList, leg: LegSpec, where: string): LegSlots {
+  if (!Array.isArray(leg.resistors) || leg.resistors.length < 1 || leg.resistors.length > 2) {
+    throw new InputError(`${where}.resistors`, 'a leg needs one or two resistors', 'one resistor, or two with arrangement series|parallel');
+  }
+  if (leg.resistors.length === 2 && leg.arrangement !== 'series' && leg.arrangement !== 'parallel') {
+    throw new InputError(`${where}.arrangement`, `"${String(leg.arrangement)}" for two resistors`, 'series or parallel');
+  }
+  const a = addResistor(list, leg.resistors[0], `${where}.resistors[0]`);
+  const b = leg.resistors.length === 2 ? addResistor(list, leg.resistors[1], `${where}.resistors[1]`) : null;
+  let pot: ResistorSlot | null = null;
+  let wiper = 0;
+  if (leg.potentiometer) {
+    const w = leg.potentiometer.wiper;
+    if (!Number.isFinite(w) || w < 0 || w > 1) {
+      throw new InputError(`${where}.potentiometer.wiper`, `${w} is outside the track`, 'a fraction from 0 to 1 of the track in circuit');
+    }
+    pot = addResistor(list, leg.potentiometer, `${where}.potentiometer`, 'potentiometer');
+    wiper = w;
+  }
+  return { a, b, parallel: leg.arrangement === 'parallel', pot, wiper };
+}
+
+function addBound(list: PartList, name: string, kind: Part['kind'], bound: BoundSpec | undefined, where: string): number {
+  if (!bound) return NONE;
+  checkFinite(bound.plusMinus, `${where}.plusMinus`, 'a bound ≥ 0');
+  if (!Number.isFinite(bound.nominal)) throw new InputError(`${where}.nominal`, `${bound.nominal} is not a number`, 'a finite value');
+  const input: Parameters<typeof partFromBound>[0] = { name, kind, nominal: bound.nominal, plusMinus: bound.plusMinus };
+  if (bound.distribution) input.distribution = bound.distribution;
+  return list.add(partFromBound(input));
+}
+
+interface ReferenceSlot {
+  value: number;
+  tempco: number;
+  drift: number;
+}
+
+function addReference(list: PartList, ref: ReferenceSpec, defaultName: string, where: string): ReferenceSlot {
+  checkFinite(ref.nominal, `${where}.nominal`, 'a reference voltage above 0 V', true);
+  checkFinite(ref.tolerance, `${where}.tolerance`, 'a tolerance fraction ≥ 0');
+  checkFinite(ref.tempcoPerK, `${where}.tempcoPerK`, 'a temperature coefficient bound ≥ 0 per kelvin');
+  checkFinite(ref.drift, `${where}.drift`, 'a drift fraction ≥ 0');
+  const name = ref.name ?? defaultName;
+  const input: Parameters<typeof partFromTolerance>[0] = { name, kind: 'reference', nominal: ref.nominal, tolerance: ref.tolerance };
+  if (ref.distribution) input.distribution = ref.distribution;
+  const value = list.add(partFromTolerance(input));
+  const tempco = ref.tempcoPerK ? list.add(partFromBound({ name: `${name} tempco`, kind: 'temperature coefficient', nominal: 0, plusMinus: ref.tempcoPerK })) : NONE;
+  const drift = ref.drift ? list.add(partFromBound({ name: `${name} drift`, kind: 'drift', nominal: 0, plusMinus: ref.drift })) : NONE;
+  return { value, tempco, drift };
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Per-trial values (small functions; V8 inlines them into the loops below).
+
+function resistorAt(p: Float64Array[], s: ResistorSlot, j: number, dT: number): number {
+  let r = p[s.value]![j]!;
+  if (s.drift !== NONE) r *= 1 + p[s.drift]![j]!;
+  if (s.tcr !== NONE) r *= 1 + p[s.tcr]![j]! * dT;
+  return r;
+}
+
+function legAt(p: Float64Array[], leg: LegSlots, j: number, dT: number): number {
+  let r = resistorAt(p, leg.a, j, dT);
+  if (leg.b !== null) {
+    const rb = resistorAt(p, leg.b, j, dT);
+    r = leg.parallel ? parallelResistance(r, rb) : seriesResistance(r, rb);
+  }
+  if (leg.pot !== null) r += leg.wiper * resistorAt(p, leg.pot, j, dT);
+  return r;
+}
+
+function referenceAt(p: Float64Array[], s: ReferenceSlot, j: number, dT: number): number {
+  let v = p[s.value]![j]!;
+  if (s.drift !== NONE) v *= 1 + p[s.drift]![j]!;
+  if (s.tempco !== NONE) v *= 1 + p[s.tempco]![j]! * dT;
+  return v;
+}
+
+function valueOr(p: Float64Array[], index: number, j: number, otherwise: number): number {
+  return index === NONE ? otherwise : p[index]![j]!;
+}
+
+/** One parameter object shape for every topology, so the limit functions see a single (monomorphic) shape. */
+interface SenseParams {
+  shunt: number;
+  feedback: number;
+  ground: number;
+  r1: number;
+  r2: number;
+  r3: number;
+  r4: number;
+  commonMode: number;
+  threshold: number;
+  amplifierOffset: number;
+  biasCurrent: number;
+  compareOffset: number;
+}
+
+function newSenseParams(): SenseParams {
+  return { shunt: 0, feedback: 0, ground: 0, r1: 0, r2: 0, r3: 0, r4: 0, commonMode: 0, threshold: 0, amplifierOffset: 0, biasCurrent: 0, compareOffset: 0 };
+}
+
+/** Self-heating: fixed-point iterations of R_hot = R_amb·(1 + α·θ·I²·R_hot) with I = limit(R_hot). The loop gain is
+ *  about 2·α·θ·P (≈ 1e-2 for 100 ppm/K, 50 K/W, 2 W), so four iterations leave a relative error below 1e-8. */
+const SELF_HEATING_ITERATIONS = 4;
+
+// ---------------------------------------------------------------------------------------------------------------
+
+/** Builds the supply's Model. Throws InputError (with the field path under `supply`) for values it cannot use. */
+export function buildSupplyModel(spec: SupplySpec): Model {
+  const list = new PartList();
+  const notes: string[] = [];
+
+  const t = spec.temperature;
+  if (!t || !Number.isFinite(t.minC) || !Number.isFinite(t.maxC) || t.minC > t.maxC) {
+    throw new InputError('supply.temperature', 'the temperature range is missing or reversed', 'minC ≤ maxC in °C');
+  }
+  const tNominal = Math.min(Math.max(REFERENCE_TEMPERATURE_C, t.minC), t.maxC);
+  let tDistribution: DistributionSpec = { kind: 'uniform' };
+  if (t.monteCarlo === 'uniform') {
+    notes.push(`Monte Carlo draws the ambient temperature uniformly over ${t.minC}..${t.maxC} °C; worst case takes both ends.`);
+  } else {
+    const fixed = t.monteCarlo?.fixedC;
+    if (!Number.isFinite(fixed) || fixed < t.minC || fixed > t.maxC) {
+      throw new InputError('supply.temperature.monteCarlo.fixedC', `${fixed} °C is outside the range`, `a temperature within ${t.minC}..${t.maxC} °C`);
+    }
+    tDistribution = { kind: 'fixed', value: fixed };
+    notes.push(`Monte Carlo holds the ambient at ${fixed} °C; worst case takes both ends of ${t.minC}..${t.maxC} °C.`);
+  }
+  const temperature = list.add({
+    name: 'T ambient',
+    kind: 'temperature',
+    nominal: tNominal,
+    minus: tNominal - t.minC,
+    plus: t.maxC - tNominal,
+    distribution: tDistribution,
+    unit: '°C',
+  });
+
+  const vref = addReference(list, spec.reference, 'Vref', 'supply.reference');
+  const top = addLeg(list, spec.divider.top, 'supply.divider.top');
+  const bottom = addLeg(list, spec.divider.bottom, 'supply.divider.bottom');
+  const ifb = addBound(list, 'Ifb', 'bias current', spec.divider.feedbackBias, 'supply.divider.feedbackBias');
+  notes.push('Resistor TCRs, reference tempco and offset drift are unknown within their bounds for a given unit: drawn uniformly (common practice).');
+
+  const outputs: ModelOutput[] = [];
+  const vout: ModelOutput = {
+    name: 'vout',
+    unit: 'V',
+    evaluate(p, out, n) {
+      const tp = p[temperature]!;
+      for (let j = 0; j < n; j++) {
+        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
+        out[j] = dividerVout(referenceAt(p, vref, j, dT), legAt(p, top, j, dT), legAt(p, bottom, j, dT), valueOr(p, ifb, j, 0));
+      }
+    },
+  };
+  if (spec.windows?.vout) vout.spec = spec.windows.vout;
+  outputs.push(vout);
+  outputs.push({
+    name: 'dividerCurrent',
+    unit: 'A',
+    evaluate(p, out, n) {
+      const tp = p[temperature]!;
+      for (let j = 0; j < n; j++) {
+        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
+        out[j] = referenceAt(p, vref, j, dT) / legAt(p, bottom, j, dT);
+      }
+    },
+  });
+
+  if (spec.sense) addSenseOutputs(spec.sense, spec, list, temperature, vref, outputs, notes);
+  return { parts: list.parts, outputs, notes };
+}
+
+function addSenseOutputs(
+  sense: SenseSpec,
+  spec: SupplySpec,
+  list: PartList,
+  temperature: number,
+  regulatorReference: ReferenceSlot,
+  outputs: ModelOutput[],
+  notes: string[],
+): void {
+  const where = 'supply.sense';
+  checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
+  const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
+  const theta = sense.shunt.thermalResistanceKPerW ?? 0;
+  checkFinite(theta, `${where}.shunt.thermalResistanceKPerW`, 'a thermal resistance ≥ 0 K/W');
+  const alphaMax = sense.shunt.tcrPerK ?? 0;
+  if (theta > 0) notes.push(`Shunt self-heating θ·I²R at the limit with θ = ${theta} K/W.`);
+
+  // Threshold.
+  const th = sense.threshold;
+  let thFixed = NONE;
+  let thTempco = NONE;
+  let thSource: ReferenceSlot | null = null;
+  let thTop: ResistorSlot | null = null;
+  let thBottom: ResistorSlot | null = null;
+  if (th.kind === 'fixed') {
+    checkFinite(th.nominal, `${where}.threshold.nominal`, 'a threshold above 0 V', true);
+    checkFinite(th.tolerance, `${where}.threshold.tolerance`, 'a tolerance fraction ≥ 0');
+    const input: Parameters<typeof partFromTolerance>[0] = { name: 'Vth', kind: 'threshold', nominal: th.nominal, tolerance: th.tolerance };
+    if (th.distribution) input.distribution = th.distribution;
+    thFixed = list.add(partFromTolerance(input));
+    if (th.tempcoPerK) thTempco = list.add(partFromBound({ name: 'Vth tempco', kind: 'temperature coefficient', nominal: 0, plusMinus: th.tempcoPerK }));
+  } else if (th.kind === 'divided') {
+    thSource = th.source === 'regulator-reference' ? regulatorReference : addReference(list, th.source, 'Vref threshold', `${where}.threshold.source`);
+    thTop = addResistor(list, th.top, `${where}.threshold.top`);
+    thBottom = addResistor(list, th.bottom, `${where}.threshold.bottom`);
+  } else {
+    throw new InputError(`${where}.threshold.kind`, `"${String((th as { kind: unknown }).kind)}"`, 'fixed or divided');
+  }
+
+  const compareOffset = addBound(list, 'Vos cmp', 'offset', sense.compareOffset, `${where}.compareOffset`);
+
+  // Amplifier and gain resistors.
+  let ampOffset = NONE;
+  let ampDrift = NONE;
+  let ampBias = NONE;
+  let railV: number | undefined;
+  const gain: ResistorSlot[] = [];
+  let commonMode = 0;
+  if (sense.topology === 'noninv' || sense.topology === 'diff') {
+    const amp = sense.amplifier;
+    if (!amp) throw new InputError(`${where}.amplifier`, `the ${sense.topology} topology needs an amplifier`, 'offsetMax (V), optional offsetDriftPerK, biasCurrent, railV');
+    checkFinite(amp.offsetMax, `${where}.amplifier.offsetMax`, 'an offset maximum ≥ 0 V');
+    const offsetInput: Parameters<typeof partFromBound>[0] = { name: 'Vos amp', kind: 'offset', nominal: 0, plusMinus: amp.offsetMax };
+    if (amp.offsetDistribution) offsetInput.distribution = amp.offsetDistribution;
+    ampOffset = list.add(partFromBound(offsetInput));
+    if (amp.offsetDriftPerK) ampDrift = list.add(partFromBound({ name: 'Vos amp drift', kind: 'temperature coefficient', nominal: 0, plusMinus: amp.offsetDriftPerK, unit: 'V/K' }));
+    ampBias = addBound(list, 'Ib amp', 'bias current', amp.biasCurrent, `${where}.amplifier.biasCurrent`);
+    railV = amp.railV;
+    if (sense.topology === 'noninv') {
+      gain.push(addResistor(list, sense.rf, `${where}.rf`), addResistor(list, sense.rg, `${where}.rg`));
+    } else {
+      gain.push(
+        addResistor(list, sense.r1, `${where}.r1`),
+        addResistor(list, sense.r2, `${where}.r2`),
+        addResistor(list, sense.r3, `${where}.r3`),
+        addResistor(list, sense.r4, `${where}.r4`),
+      );
+      if (!Number.isFinite(sense.commonModeV)) throw new InputError(`${where}.commonModeV`, `${sense.commonModeV} is not a voltage`, 'the load-side node voltage in V (0 for low-side)');
+      commonMode = sense.commonModeV;
+    }
+  } else if (sense.topology !== 'direct') {
+    throw new InputError(`${where}.topology`, `"${String((sense as { topology: unknown }).topology)}"`, 'direct, noninv or diff');
+  }
+
+  const topology = sense.topology;
+  const limitOf: (q: SenseParams) => number = topology === 'direct' ? directLimit : topology === 'noninv' ? noninvLimit : diffLimit;
+  const signalOf: (q: SenseParams, current: number) => number =
+    topology === 'direct' ? directSignal : topology === 'noninv' ? noninvOutput : diffOutput;
+
+  /** Fills q for trial j (shunt at ambient) and returns the ambient temperature difference from 25 °C. */
+  function fill(p: Float64Array[], q: SenseParams, j: number): number {
+    const dT = p[temperature]![j]! - REFERENCE_TEMPERATURE_C;
+    if (thFixed !== NONE) {
+      let v = p[thFixed]![j]!;
+      if (thTempco !== NONE) v *= 1 + p[thTempco]![j]! * dT;
+      q.threshold = v;
+    } else {
+      const rt = resistorAt(p, thTop!, j, dT);
+      const rb = resistorAt(p, thBottom!, j, dT);
+      q.threshold = (referenceAt(p, thSource!, j, dT) * rb) / (rt + rb);
+    }
+    q.compareOffset = valueOr(p, compareOffset, j, 0);
+    if (ampOffset !== NONE) {
+      q.amplifierOffset = p[ampOffset]![j]! + (ampDrift !== NONE ? p[ampDrift]![j]! * dT : 0);
+      q.biasCurrent = valueOr(p, ampBias, j, 0);
+    }
+    if (topology === 'noninv') {
+      q.feedback = resistorAt(p, gain[0]!, j, dT);
+      q.ground = resistorAt(p, gain[1]!, j, dT);
+    } else if (topology === 'diff') {
+      q.r1 = resistorAt(p, gain[0]!, j, dT);
+      q.r2 = resistorAt(p, gain[1]!, j, dT);
+      q.r3 = resistorAt(p, gain[2]!, j, dT);
+      q.r4 = resistorAt(p, gain[3]!, j, dT);
+      q.commonMode = commonMode;
+    }
+    return dT;
+  }
+
+  /** Sets q.shunt to the shunt at its own temperature at the limit and returns the limit current. */
+  function solveLimit(p: Float64Array[], q: SenseParams, j: number, dT: number): number {
+    const rAmbient = resistorAt(p, shunt, j, dT);
+    q.shunt = rAmbient;
+    let current = limitOf(q);
+    if (theta > 0 && shunt.tcr !== NONE) {
+      // R_shunt(T_amb + θ·P) = R(T_amb)·(1 + α·θ·P) to first order in the self-heating rise (α·ΔT ≪ 1).
+      const alpha = p[shunt.tcr]![j]!;
+      for (let k = 0; k < SELF_HEATING_ITERATIONS; k++) {
+        q.shunt = rAmbient * (1 + alpha * theta * current * current * q.shunt);
+        current = limitOf(q);
+      }
+    }
+    return current;
+  }
+  if (theta > 0 && alphaMax === 0) notes.push('Shunt has a thermal resistance but no TCR: self-heating changes its loss, not its value.');
+
+  const ilimit: ModelOutput = {
+    name: 'ilimit',
+    unit: 'A',
+    evaluate(p, out, n) {
+      const q = newSenseParams();
+      for (let j = 0; j < n; j++) out[j] = solveLimit(p, q, j, fill(p, q, j));
+    },
+  };
+  if (spec.windows?.ilimit) ilimit.spec = spec.windows.ilimit;
+  const shuntLoss: ModelOutput = {
+    name: 'shuntLoss',
+    unit: 'W',
+    evaluate(p, out, n) {
+      const q = newSenseParams();
+      for (let j = 0; j < n; j++) {
+        const current = solveLimit(p, q, j, fill(p, q, j));
+        out[j] = current * current * q.shunt;
+      }
+    },
+  };
+  if (sense.shunt.powerRatingW !== undefined) {
+    checkFinite(sense.shunt.powerRatingW, `${where}.shunt.powerRatingW`, 'a power rating above 0 W', true);
+    shuntLoss.spec = [0, sense.shunt.powerRatingW];
+  }
+  const ampOutput: ModelOutput = {
+    name: 'ampOutput',
+    unit: 'V',
+    evaluate(p, out, n) {
+      const q = newSenseParams();
+      for (let j = 0; j < n; j++) out[j] = signalOf(q, solveLimit(p, q, j, fill(p, q, j)));
+    },
+  };
+  if (railV !== undefined) {
+    checkFinite(railV, `${where}.amplifier.railV`, 'a rail voltage above 0 V', true);
+    ampOutput.spec = [0, railV];
+  }
+  outputs.push(ilimit, shuntLoss, ampOutput);
+}

@@ -1,0 +1,100 @@
+// What an analysis returns: plain JSON, everything a report needs (a report never recomputes a statistic).
+
+export interface Interval {
+  low: number;
+  high: number;
+}
+
+export interface WorstCaseResult {
+  min: number;
+  max: number;
+  /** The vertex that gave `min`: part name → 'low' | 'high' band end (parts without spread are left out). */
+  minVertex: Record<string, 'low' | 'high'>;
+  maxVertex: Record<string, 'low' | 'high'>;
+  /** 'enumeration' (every vertex, exact for outputs monotonic in each part) or 'sensitivity-signs' (then checked). */
+  method: 'enumeration' | 'sensitivity-signs';
+  /** Vertices evaluated. */
+  evaluations: number;
+}
+
+export interface RssResult {
+  /** Combined standard uncertainty u(y) by the law of propagation (JCGM 100:2008, 5.1.2), first order. */
+  sigma: number;
+  /** Tolerance half-widths combined in quadrature, sqrt(Σ (c_i·half-width_i)²): common practice. */
+  halfWidth: number;
+  /** Output at the parts' means (the linearisation point's estimate). */
+  center: number;
+}
+
+export interface Contribution {
+  part: string;
+  /** Sensitivity coefficient ∂y/∂x_i (central difference), output unit per part unit. */
+  sensitivity: number;
+  /** The part's standard uncertainty u(x_i) (σ of its distribution as Monte Carlo draws it). */
+  standardUncertainty: number;
+  /** (c_i·u_i)² / u(y)²; shares add to 1; ranked largest first. */
+  varianceShare: number;
+}
+
+export interface YieldResult {
+  /** Percentage of Monte Carlo trials inside the spec window. */
+  pct: number;
+  /** 95 % Wilson score interval for the yield, in %. */
+  low: number;
+  high: number;
+}
+
+export interface Histogram {
+  /** Bin edges, length counts.length + 1, ascending (the first and last bins reach the observed min and max). */
+  edges: number[];
+  counts: number[];
+}
+
+export interface Percentile {
+  /** Percent, e.g. 2.5. */
+  pct: number;
+  value: number;
+}
+
+export interface OutputResult {
+  name: string;
+  unit: string;
+  nominal: number;
+  spec?: [number, number];
+  mean: number;
+  sigma: number;
+  min: number;
+  max: number;
+  percentiles: Percentile[];
+  /** Probabilistically symmetric coverage intervals (JCGM 101:2008, 7.7.1). */
+  interval95: Interval;
+  interval9973: Interval;
+  /** Shortest coverage intervals (JCGM 101:2008, 7.7.2). */
+  shortest95: Interval;
+  shortest9973: Interval;
+  /** 'exact' (from every sample, sorted) or 'histogram' (± quantileBound, one fine bin). */
+  quantileMethod: 'exact' | 'histogram';
+  /** Largest possible error of each quantile and interval end (0 when exact), output unit. */
+  quantileBound: number;
+  worstCase: WorstCaseResult;
+  rss: RssResult;
+  contributions: Contribution[];
+  /** Present when the output has a spec window. */
+  yield?: YieldResult;
+  ppmOut?: number;
+  /** Process capability (NIST/SEMATECH e-Handbook 6.1.6); present with a spec window and σ > 0. */
+  cp?: number;
+  cpk?: number;
+  histogram: Histogram;
+}
+
+export interface AnalysisResult {
+  seed: string;
+  trials: number;
+  workers: number;
+  /** Trials per chunk; chunk k draws from its own generator seeded `${seed}:${k}`. */
+  chunkSize: number;
+  /** How the numbers were obtained (distributions, temperature handling, quantile method, adaptive stop). */
+  notes: string[];
+  outputs: Record<string, OutputResult>;
+}
