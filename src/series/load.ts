@@ -12,6 +12,8 @@ export interface SeriesDecade {
   name: SeriesName;
   source: string;
   commonTolerances: string[];
+  /** Where the tolerance list comes from (common practice: the standard does not tie a series to a tolerance). */
+  commonTolerancesNote?: string;
   /** One decade of significands, 1.0 ≤ v < 10, as tabulated. */
   values: number[];
 }

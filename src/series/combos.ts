@@ -1,0 +1,88 @@
+// Two standard resistors in series or in parallel that come closest to a target.
+// Exhaustive over a pool of standard values (every value within POOL_DECADES decades of the target), but
+// efficient: for each first part a, the partner b is found by binary search, because a + b and a·b/(a + b)
+// both rise monotonically with b; the errors then grow monotonically walking outward from that point, so taking
+// `count` steps outward on each side gives every pair that can be among the `count` best for that a.
+// Cost O(n·(log n + count)) for a pool of n values, against O(n²) for the double loop (kept in the tests).
+import { InputError } from '../errors.js';
+import { seriesValuesBetween } from './enumerate.js';
+import type { SeriesName } from './load.js';
+import { relativeErrorPct } from './relative-error.js';
+
+export type ComboKind = 'series' | 'parallel';
+
+export interface Combination {
+  kind: ComboKind;
+  /** The two parts in ohms, larger first for series, smaller first for parallel. */
+  parts: [number, number];
+  /** The combined resistance in ohms. */
+  value: number;
+  errorPct: number;
+}
+
+/**
+ * Parts are drawn from within this many decades of the target. A part a thousand times smaller than its partner
+ * moves the sum by 0.1 %, below the tolerance of the partner itself: such pairs are not worth ordering
+ * (common practice).
+ */
+export const POOL_DECADES = 3;
+
+/** The standard values considered as parts for a target (ascending). */
+export function combinationPool(value: number, series: SeriesName | readonly number[]): number[] {
+  const lo = value / 10 ** POOL_DECADES;
+  const hi = value * 10 ** POOL_DECADES;
+  if (typeof series === 'string') return seriesValuesBetween(series, lo, hi);
+  return series.filter((v) => v >= lo && v <= hi);
+}
+
+export function combine(kind: ComboKind, a: number, b: number): number {
+  return kind === 'series' ? a + b : (a * b) / (a + b);
+}
+
+/** Smallest j in [from, to) with combine(kind, a, pool[j]) ≥ value (to when none). */
+function partnerIndex(kind: ComboKind, a: number, pool: readonly number[], from: number, to: number, value: number): number {
+  let lo = from;
+  let hi = to;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (combine(kind, a, pool[mid] as number) < value) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function compareCombos(x: Combination, y: Combination): number {
+  return Math.abs(x.errorPct) - Math.abs(y.errorPct) || x.parts[0] - y.parts[0] || x.parts[1] - y.parts[1];
+}
+
+/** The `count` best pairs of one kind. Unordered pairs: for series b ≤ a, for parallel b ≥ a. */
+export function bestPairs(value: number, pool: readonly number[], kind: ComboKind, count: number): Combination[] {
+  const found: Combination[] = [];
+  for (let i = 0; i < pool.length; i++) {
+    const a = pool[i] as number;
+    const from = kind === 'series' ? 0 : i;
+    const to = kind === 'series' ? i + 1 : pool.length;
+    const j = partnerIndex(kind, a, pool, from, to, value);
+    for (let k = j - count; k < j + count; k++) {
+      if (k < from || k >= to) continue;
+      const b = pool[k] as number;
+      const combined = combine(kind, a, b);
+      found.push({ kind, parts: [a, b], value: combined, errorPct: relativeErrorPct(combined, value) });
+    }
+  }
+  found.sort(compareCombos);
+  return found.slice(0, count);
+}
+
+/**
+ * The `count` best series pairs and the `count` best parallel pairs for `value` (ohms), together sorted by
+ * |error| (ties: smaller parts first).
+ */
+export function bestCombinations(value: number, series: SeriesName | readonly number[], count = 3, where = 'value'): Combination[] {
+  if (!Number.isFinite(value) || !(value > 0)) {
+    throw new InputError(where, `target resistance must be a positive finite number, got ${value}`, 'a resistance > 0');
+  }
+  if (!Number.isInteger(count) || count < 1) throw new InputError('count', `count must be a whole number ≥ 1, got ${count}`, '1, 2, 3, …');
+  const pool = combinationPool(value, series);
+  return [...bestPairs(value, pool, 'series', count), ...bestPairs(value, pool, 'parallel', count)].sort(compareCombos);
+}
