@@ -1,0 +1,336 @@
+// The design file (JSON) as a zod 4 schema. Every object is strict: an unknown field is an error (load.ts suggests
+// the closest valid name). Values take the notation of src/units or plain numbers and come out in SI units
+// (ohms, volts, amperes, watts, fractions, 1/K, K/W, °C). See examples/ for complete files.
+import { z } from 'zod';
+import { SERIES_NAMES } from '../series/load.js';
+import {
+  autoOr,
+  celsius,
+  current,
+  fieldIssue,
+  percent,
+  power,
+  ppmPerK,
+  rangeField,
+  resistance,
+  thermalResistance,
+  voltage,
+  voltagePerK,
+  windowBounds,
+  windowField,
+  PARSERS,
+  type WindowInput,
+} from './fields.js';
+import { GRADE_NAMES } from './grades.js';
+
+/** Adds what a field means in front of what it accepts (the value field's own description). */
+function describe<T extends z.ZodType>(schema: T, meaning: string): T {
+  const accepted = z.globalRegistry.get(schema)?.description;
+  return schema.meta({ description: accepted ? `${meaning}; ${accepted}` : meaning }) as T;
+}
+
+export const TOPOLOGIES = ['direct', 'noninv', 'diff'] as const;
+export type Topology = (typeof TOPOLOGIES)[number];
+export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'triangular'] as const;
+export type DistributionName = (typeof DISTRIBUTIONS)[number];
+export const POT_LEGS = ['top', 'bottom'] as const;
+
+/** Designators of the resistors trimfree places, by role. */
+export const DESIGNATORS = {
+  dividerTop: 'RTOP',
+  dividerBottom: 'RBOT',
+  pot: 'RV',
+  shunt: 'RS',
+  feedback: 'RF',
+  ground: 'RG',
+  diff: ['R1', 'R2', 'R3', 'R4'],
+  thresholdTop: 'RT1',
+  thresholdBottom: 'RT2',
+} as const;
+
+/** The designators of the resistors a design places (the pot RV takes its tolerance from voltage.pot). */
+export function placedDesignators(topology: Topology, thresholdDivider: boolean): string[] {
+  const names: string[] = [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom, DESIGNATORS.shunt];
+  if (topology === 'noninv') names.push(DESIGNATORS.feedback, DESIGNATORS.ground);
+  if (topology === 'diff') names.push(...DESIGNATORS.diff);
+  if (thresholdDivider) names.push(DESIGNATORS.thresholdTop, DESIGNATORS.thresholdBottom);
+  return names;
+}
+
+const seriesName = z
+  .string()
+  .transform((text, ctx) => {
+    const found = SERIES_NAMES.find((name) => name === text.trim().toUpperCase());
+    if (!found) {
+      fieldIssue(ctx, text, `unknown series '${text}'`, SERIES_NAMES.join(', '));
+      return z.NEVER;
+    }
+    return found;
+  })
+  .meta({ description: `an IEC 60063 series: ${SERIES_NAMES.join(', ')}` });
+
+const gradeName = z.enum(GRADE_NAMES).meta({ description: `a tolerance grade: ${GRADE_NAMES.join(', ')}` });
+
+const notes = z
+  .union([z.string(), z.array(z.string())])
+  .transform((v) => (Array.isArray(v) ? v : [v]))
+  .meta({ description: 'free text for people: what the file is, where the numbers came from' });
+
+// ---- reference ----------------------------------------------------------------------------------------------------
+const reference = z
+  .strictObject({
+    voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'the regulator feedback reference Vref'),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'initial tolerance of Vref (datasheet, over temperature if given so)'),
+    drift: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'long-term drift allowance of Vref').optional(),
+    notes: notes.optional(),
+  })
+  .meta({ description: 'the reference the regulator holds its feedback pin at' });
+
+// ---- output voltage -----------------------------------------------------------------------------------------------
+const dividerValues = z.strictObject({
+  top: describe(resistance(), 'top resistor RTOP (output to feedback pin)'),
+  bottom: describe(resistance(), 'bottom resistor RBOT (feedback pin to ground)'),
+});
+
+const dividerSearch = z
+  .strictObject({
+    series: seriesName.optional(),
+    bottom: rangeField(PARSERS.resistance, 'bottom resistor range, e.g. 1k..100k').optional(),
+    current: rangeField(PARSERS.current, 'divider current window Vref/RBOT, e.g. 50uA..1mA').optional(),
+    max: describe(resistance(), 'largest resistor allowed').optional(),
+  })
+  .meta({ description: 'constraints for "auto" divider values' });
+
+const pot = z
+  .strictObject({
+    value: describe(resistance(), 'potentiometer end-to-end resistance'),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'pot tolerance (default 20 %)').optional(),
+    leg: z.enum(POT_LEGS).meta({ description: 'leg the pot is in: top (default) or bottom' }).optional(),
+  })
+  .meta({ description: 'a potentiometer for an adjustable output (target is then a range LO..HI)' });
+
+const voltageSection = z
+  .strictObject({
+    target: rangeField(PARSERS.voltage, 'output voltage target: 8.4 V, or 1.25..20 V for an adjustable output with a pot'),
+    window: windowField(PARSERS.voltage, 'V').optional(),
+    divider: z
+      .union([z.literal('auto'), dividerValues])
+      .meta({ description: '"auto" (picked from the series) or { top, bottom }' }),
+    search: dividerSearch.optional(),
+    pot: pot.optional(),
+    feedbackBias: describe(current(), 'feedback-pin bias current, positive into the pin (default 0)').optional(),
+    notes: notes.optional(),
+  })
+  .superRefine((v, ctx) => {
+    const adjustable = v.target[0] !== v.target[1];
+    if (adjustable && !v.pot) {
+      ctx.issues.push({ code: 'custom', path: ['pot'], input: undefined, message: 'an adjustable target (LO..HI) needs a pot', params: { accepted: 'pot: { value: "10k", tolerance: "20%", leg: "top" }, or a single target value' } });
+    }
+    if (!adjustable && v.pot) {
+      ctx.issues.push({ code: 'custom', path: ['target'], input: v.target[0], message: 'a pot is given but the target is a single value', params: { accepted: 'a range LO..HI such as "1.25..20 V" with a pot, or no pot' } });
+    }
+    if (!adjustable && !v.window) {
+      ctx.issues.push({ code: 'custom', path: ['window'], input: undefined, message: 'missing required field', params: { accepted: 'a spec window: "±0.5%", "8.36..8.44 V" or [LO, HI]' } });
+    }
+    if (v.window && !adjustable) checkTargetInside(v.window, v.target[0], ctx, 'V');
+  })
+  .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin' });
+
+function checkTargetInside(window: WindowInput, target: number, ctx: z.core.$RefinementCtx<unknown>, unit: string): void {
+  const [lo, hi] = windowBounds(window, target);
+  if (target < lo || target > hi) {
+    ctx.issues.push({
+      code: 'custom',
+      path: ['window'],
+      input: window.kind === 'absolute' ? [window.lo, window.hi] : undefined,
+      message: `the target ${target} ${unit} lies outside the window ${lo}..${hi} ${unit}`,
+      params: { accepted: 'a window that contains the target' },
+    });
+  }
+}
+
+// ---- current limit ------------------------------------------------------------------------------------------------
+const shunt = z
+  .strictObject({
+    value: autoOr(PARSERS.resistance, 'a shunt resistance: 50m, R050, 0.05'),
+    rating: describe(power(), 'shunt power rating at 70 °C or as the datasheet states').optional(),
+    derating: describe(percent({ min: Number.MIN_VALUE, max: 1, text: 'above 0 % up to 100 %' }), 'largest fraction of the rating to use (default 50 %: common practice)').optional(),
+    maxLoss: describe(power(), 'largest shunt loss allowed at the current limit, for "auto"').optional(),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'shunt tolerance (default: the resistor grade)').optional(),
+    tcr: describe(ppmPerK(), 'shunt TCR (default: the resistor grade\'s)').optional(),
+    thermalResistance: describe(thermalResistance(), 'θ shunt to ambient, for self-heating θ·I²R (default 0)').optional(),
+    candidates: z
+      .array(z.union([z.string(), z.number()]))
+      .meta({ description: 'shunt values to choose from for "auto" (default: the stocked milliohm list)' })
+      .optional(),
+  })
+  .meta({ description: 'the current-sense shunt RS' });
+
+const amplifier = z
+  .strictObject({
+    vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
+    vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
+    biasCurrent: describe(current(), 'input bias current, maximum magnitude (default 0)').optional(),
+    rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
+    headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
+  })
+  .meta({ description: 'the current-sense amplifier (noninv, diff)' });
+
+const threshold = z
+  .strictObject({
+    voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'threshold voltage (fixed), or the target for an "auto" threshold divider').optional(),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance of the fixed threshold, or of the reference it is derived from'),
+    reference: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'reference the threshold divider RT1/RT2 is fed from').optional(),
+    top: autoOr(PARSERS.resistance, 'RT1, reference to threshold node').optional(),
+    bottom: autoOr(PARSERS.resistance, 'RT2, threshold node to ground').optional(),
+  })
+  .superRefine((t, ctx) => {
+    const issue = (path: string, message: string, accepted: string) =>
+      ctx.issues.push({ code: 'custom', path: [path], input: undefined, message, params: { accepted } });
+    if (t.reference === undefined) {
+      if (t.voltage === undefined) issue('voltage', 'missing required field', 'a threshold voltage such as "0.8 V", or reference with top and bottom');
+      if (t.top !== undefined || t.bottom !== undefined) issue(t.top !== undefined ? 'top' : 'bottom', 'a threshold divider needs the reference it is fed from', 'reference: "2.5 V" with top and bottom');
+      return;
+    }
+    if (t.top === undefined) issue('top', 'missing required field', '"auto" or a resistance for RT1');
+    if (t.bottom === undefined) issue('bottom', 'missing required field', '"auto" or a resistance for RT2');
+    if ((t.top === 'auto' || t.bottom === 'auto') && t.voltage === undefined) {
+      issue('voltage', 'an "auto" threshold divider needs a target threshold voltage', 'voltage: "0.8 V" below the reference');
+    }
+    if (t.voltage !== undefined && t.voltage >= t.reference) {
+      issue('voltage', `the threshold ${t.voltage} V is not below the reference ${t.reference} V it is divided from`, 'a threshold below the reference');
+    }
+  })
+  .meta({ description: 'threshold the amplified shunt signal is compared with: fixed { voltage, tolerance } or from a reference { reference, tolerance, top, bottom }' });
+
+const gainValues = z
+  .strictObject({
+    feedback: describe(resistance(), 'RF, noninv: output to inverting input').optional(),
+    ground: describe(resistance(), 'RG, noninv: inverting input to ground').optional(),
+    r1: describe(resistance(), 'R1, diff: load-side shunt node to inverting input').optional(),
+    r2: describe(resistance(), 'R2, diff: inverting input to output').optional(),
+    r3: describe(resistance(), 'R3, diff: supply-side shunt node to non-inverting input').optional(),
+    r4: describe(resistance(), 'R4, diff: non-inverting input to ground').optional(),
+  })
+  .meta({ description: 'gain resistors: { feedback, ground } for noninv, { r1, r2, r3, r4 } for diff' });
+
+const currentSection = z
+  .strictObject({
+    target: describe(current({ min: Number.MIN_VALUE, text: 'greater than 0 A' }), 'current limit target'),
+    window: windowField(PARSERS.current, 'A'),
+    topology: z.enum(TOPOLOGIES).meta({ description: 'direct: shunt voltage straight to the threshold; noninv: low-side shunt, gain 1 + RF/RG; diff: four-resistor difference amplifier, low- or high-side' }),
+    shunt,
+    amplifier: amplifier.optional(),
+    compareOffset: describe(voltage({ min: 0, text: '0 V or more' }), 'offset of the stage comparing with the threshold, maximum magnitude (default 0)').optional(),
+    threshold,
+    gain: z.union([z.literal('auto'), gainValues]).meta({ description: '"auto" or the gain resistors' }).optional(),
+    gainRange: rangeField(PARSERS.resistance, 'gain-resistor range for "auto", e.g. 1k..100k').optional(),
+    gainSeries: seriesName.optional(),
+    commonMode: describe(voltage(), 'diff: voltage of the shunt\'s load-side node (0 low-side, the rail high-side; default 0)').optional(),
+    notes: notes.optional(),
+  })
+  .superRefine((c, ctx) => {
+    const issue = (path: (string | number)[], message: string, accepted: string) =>
+      ctx.issues.push({ code: 'custom', path, input: undefined, message, params: { accepted } });
+    checkTargetInside(c.window, c.target, ctx, 'A');
+    if (c.topology === 'direct') {
+      if (c.gain !== undefined) issue(['gain'], 'the direct topology has no gain resistors', 'no gain field with topology "direct"');
+      if (c.amplifier !== undefined) issue(['amplifier'], 'the direct topology has no amplifier', 'compareOffset for the comparing stage; or topology noninv or diff');
+    } else {
+      if (c.amplifier === undefined) issue(['amplifier'], 'missing required field', `the amplifier { vos, rail, ... } of the ${c.topology} stage`);
+      if (c.gain === undefined) issue(['gain'], 'missing required field', c.topology === 'noninv' ? '"auto" or { feedback, ground }' : '"auto" or { r1, r2, r3, r4 }');
+      if (c.gain !== undefined && c.gain !== 'auto') {
+        const need = c.topology === 'noninv' ? (['feedback', 'ground'] as const) : (['r1', 'r2', 'r3', 'r4'] as const);
+        const other = c.topology === 'noninv' ? (['r1', 'r2', 'r3', 'r4'] as const) : (['feedback', 'ground'] as const);
+        for (const key of need) if (c.gain[key] === undefined) issue(['gain', key], 'missing required field', `a resistance (the ${c.topology} stage needs ${need.join(', ')})`);
+        for (const key of other) if (c.gain[key] !== undefined) issue(['gain', key], `${key} does not belong to the ${c.topology} topology`, `only ${need.join(', ')}`);
+      }
+    }
+    if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
+      issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
+    }
+  })
+  .meta({ description: 'the constant-current set-point: shunt, amplifier, threshold' });
+
+// ---- resistor grades ----------------------------------------------------------------------------------------------
+const gradeFields = {
+  grade: gradeName.optional(),
+  series: seriesName.optional(),
+  tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance (overrides the grade\'s)').optional(),
+  tcr: describe(ppmPerK(), 'temperature coefficient (overrides the grade\'s)').optional(),
+  distribution: z.enum(DISTRIBUTIONS).meta({ description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ)` }).optional(),
+};
+
+const override = z.strictObject(gradeFields).meta({ description: 'grade of one part, by designator' });
+
+const resistors = z
+  .strictObject({
+    ...gradeFields,
+    overrides: z.record(z.string(), override).meta({ description: 'per-designator grade: { "RS": { "tolerance": "0.5%" } }' }).optional(),
+  })
+  .superRefine((r, ctx) => {
+    if (r.grade === undefined && r.tolerance === undefined) {
+      ctx.issues.push({ code: 'custom', path: ['grade'], input: undefined, message: 'missing required field: give a grade or a tolerance', params: { accepted: `grade: ${GRADE_NAMES.join(', ')}; or tolerance (with tcr and series)` } });
+    }
+  })
+  .meta({ description: 'the default resistor grade: a grade name (5%, 1%, 0.5%, 0.1%) and/or series, tolerance, TCR, distribution' });
+
+// ---- temperature, analysis, costs ---------------------------------------------------------------------------------
+const temperature = z
+  .strictObject({
+    min: describe(celsius(), 'lowest ambient, °C'),
+    max: describe(celsius(), 'highest ambient, °C'),
+  })
+  .superRefine((t, ctx) => {
+    if (t.min > t.max) ctx.issues.push({ code: 'custom', path: ['min'], input: t.min, message: `min ${t.min} °C is above max ${t.max} °C`, params: { accepted: 'min ≤ max' } });
+  })
+  .meta({ description: 'operating ambient temperature range (default 25 °C only)' });
+
+const positiveInteger = (what: string) =>
+  z.number().int().min(1).meta({ description: what });
+
+const analysis = z
+  .strictObject({
+    trials: z.union([z.literal('auto'), positiveInteger('number of Monte Carlo trials')]).meta({ description: 'Monte Carlo trials, or "auto" (adaptive, JCGM 101:2008 7.9)' }).optional(),
+    seed: z.number().int().min(0).max(2 ** 32 - 1).meta({ description: 'random seed (default 1): the same seed gives the same numbers' }).optional(),
+    workers: positiveInteger('worker threads (default: the number of cores)').optional(),
+  })
+  .meta({ description: 'Monte Carlo options; command-line options override them' });
+
+const costs = z
+  .strictObject(Object.fromEntries(GRADE_NAMES.map((g) => [g, z.number().positive().optional()])) as Record<(typeof GRADE_NAMES)[number], z.ZodOptional<z.ZodNumber>>)
+  .meta({ description: 'relative cost per part of each grade (defaults are illustrative: 5% 1, 1% 1.2, 0.5% 3, 0.1% 8)' });
+
+// ---- the file -----------------------------------------------------------------------------------------------------
+export const DesignSchema = z
+  .strictObject({
+    $schema: z.string().meta({ description: 'path or URL of the JSON Schema (for editors)' }).optional(),
+    notes: notes.optional(),
+    reference,
+    voltage: voltageSection,
+    current: currentSection,
+    resistors,
+    temperature: temperature.optional(),
+    analysis: analysis.optional(),
+    costs: costs.optional(),
+  })
+  .superRefine((d, ctx) => {
+    const placed = placedDesignators(d.current.topology, d.current.threshold.reference !== undefined);
+    for (const name of Object.keys(d.resistors.overrides ?? {})) {
+      if (!placed.includes(name)) {
+        ctx.issues.push({
+          code: 'custom',
+          path: ['resistors', 'overrides', name],
+          input: name,
+          message: `no part '${name}' in this design`,
+          params: { accepted: `a designator of this design: ${placed.join(', ')}`, unknownKey: name, validKeys: placed },
+        });
+      }
+    }
+  })
+  .meta({ title: 'trimfree design file', description: 'a CV/CC DC-DC supply: reference, output divider, current sense, resistor grades' });
+
+/** The design file after validation, in SI units. */
+export type Design = z.output<typeof DesignSchema>;
+/** The design file as written. */
+export type DesignInput = z.input<typeof DesignSchema>;
