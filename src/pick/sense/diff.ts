@@ -1,6 +1,7 @@
 // Picker side of the `diff` topology: four-resistor difference amplifier, R1 = R3 and R2 = R4 from the series,
-// gain R2/R1 = Vth/(Rs·I). The model keeps all four resistors as separate uncertain parts and uses the exact
-// transfer (src/circuits/sense/diff.ts), so tolerance mismatch turns the common-mode voltage into limit error.
+// gain R2/R1 = Vth/(Rs·I), each pair scored by the limit error it causes, |G/G' − 1|. The model keeps all four
+// resistors as separate uncertain parts and uses the exact transfer (src/circuits/sense/diff.ts), so tolerance
+// mismatch turns the common-mode voltage into limit error.
 import { diffLimit, diffNominalGain, diffOutput, type DiffSense } from '../../circuits/sense/diff.js';
 import { nearestRatioPairs } from './ratio-pairs.js';
 import type { SenseDesign, SenseTopology } from './topology.js';
@@ -19,7 +20,7 @@ export const diffTopology: SenseTopology = {
     const gain = threshold.volts / (shunt * request.limit);
     const { lo, hi } = this.gainRange(request.resistorValues);
     if (!(gain >= lo * (1 - 1e-3) && gain <= hi * (1 + 1e-3))) return [];
-    const pairs = nearestRatioPairs(request.resistorValues, gain, (r2, r1) => Math.abs(diffNominalGain(r1, r2) / gain - 1));
+    const pairs = nearestRatioPairs(request.resistorValues, gain, (r2, r1) => Math.abs(gain / diffNominalGain(r1, r2) - 1));
     return pairs.map((pair): SenseDesign => {
       const r2 = pair.numerator;
       const r1 = pair.denominator;

@@ -1,5 +1,6 @@
 // Picker side of the `noninv` topology: low-side shunt into a non-inverting amplifier, G = 1 + RF/RG.
-// Needed gain G = Vth/(Rs·I) (offsets nominally zero), so RF/RG = G − 1 from the series (ratio-pairs.ts).
+// Needed gain G = Vth/(Rs·I) (offsets nominally zero), so RF/RG = G − 1 from the series (ratio-pairs.ts). The limit
+// goes as 1/G, so a pair is scored by the limit error it causes, |G/G' − 1|.
 import { noninvGain, noninvLimit, noninvOutput, type NoninvSense } from '../../circuits/sense/noninv.js';
 import { nearestRatioPairs } from './ratio-pairs.js';
 import type { SenseDesign, SenseTopology } from './topology.js';
@@ -18,7 +19,7 @@ export const noninvTopology: SenseTopology = {
     const gain = threshold.volts / (shunt * request.limit);
     const { lo, hi } = this.gainRange(request.resistorValues);
     if (!(gain >= lo * (1 - 1e-3) && gain <= hi * (1 + 1e-3))) return [];
-    const pairs = nearestRatioPairs(request.resistorValues, gain - 1, (rf, rg) => Math.abs(noninvGain(rf, rg) / gain - 1));
+    const pairs = nearestRatioPairs(request.resistorValues, gain - 1, (rf, rg) => Math.abs(gain / noninvGain(rf, rg) - 1));
     return pairs.map((pair): SenseDesign => {
       const variables: UncertainVariable[] = [
         toleranceVariable('RS', shunt, request.shuntTolerance),
