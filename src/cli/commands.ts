@@ -1,5 +1,7 @@
 // The list of subcommands. Each module exports a factory returning its commander Command;
 // add one import and one entry here to register a new command.
 import type { Command } from 'commander';
+import { nearestCommand } from './nearest.js';
+import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand];

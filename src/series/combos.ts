@@ -27,10 +27,18 @@ export interface Combination {
  */
 export const POOL_DECADES = 3;
 
+/**
+ * Orderable resistor values run from about 1 mΩ (metal-strip shunts) to about 1 GΩ (high-voltage thick film):
+ * common practice. Series values outside this span are not offered as parts.
+ */
+export const PART_MIN_OHMS = 1e-3;
+export const PART_MAX_OHMS = 1e9;
+
 /** The standard values considered as parts for a target (ascending). */
 export function combinationPool(value: number, series: SeriesName | readonly number[]): number[] {
-  const lo = value / 10 ** POOL_DECADES;
-  const hi = value * 10 ** POOL_DECADES;
+  const lo = Math.max(value / 10 ** POOL_DECADES, PART_MIN_OHMS);
+  const hi = Math.min(value * 10 ** POOL_DECADES, PART_MAX_OHMS);
+  if (lo > hi) return [];
   if (typeof series === 'string') return seriesValuesBetween(series, lo, hi);
   return series.filter((v) => v >= lo && v <= hi);
 }
@@ -81,6 +89,9 @@ export function bestPairs(value: number, pool: readonly number[], kind: ComboKin
 export function bestCombinations(value: number, series: SeriesName | readonly number[], count = 3, where = 'value'): Combination[] {
   if (!Number.isFinite(value) || !(value > 0)) {
     throw new InputError(where, `target resistance must be a positive finite number, got ${value}`, 'a resistance > 0');
+  }
+  if (value < PART_MIN_OHMS || value > PART_MAX_OHMS) {
+    throw new InputError(where, `target ${value} Ω is outside the span of orderable resistors`, '1 mΩ to 1 GΩ (common practice)');
   }
   if (!Number.isInteger(count) || count < 1) throw new InputError('count', `count must be a whole number ≥ 1, got ${count}`, '1, 2, 3, …');
   const pool = combinationPool(value, series);

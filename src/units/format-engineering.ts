@@ -37,3 +37,17 @@ export function formatEngineering(value: number, unitSymbol: string, significant
   // Outside p..G: plain exponent notation, still a number a parser reads back.
   return `${value.toPrecision(significantDigits)} ${unitSymbol}`.trimEnd();
 }
+
+/**
+ * Engineering notation with the fewest significant digits (from minDigits up to maxDigits) that still show the
+ * value exactly (to 1 part in 10^12): 28380 → "28.38 kΩ", 4700 → "4.70 kΩ", 28380.0475… → "28.3800 kΩ".
+ */
+export function formatEngineeringShortest(value: number, unitSymbol: string, minDigits = 3, maxDigits = 6): string {
+  if (!Number.isFinite(value)) throw new RangeError(`formatEngineeringShortest: not a finite number (${value})`);
+  for (let digits = minDigits; digits < maxDigits; digits++) {
+    if (Math.abs(Number(value.toPrecision(digits)) - value) <= Math.abs(value) * 1e-12) {
+      return formatEngineering(value, unitSymbol, digits);
+    }
+  }
+  return formatEngineering(value, unitSymbol, maxDigits);
+}

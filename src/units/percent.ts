@@ -42,3 +42,9 @@ export function formatPercent(fraction: number, decimals = 2): string {
   const text = (fraction * 100).toFixed(decimals);
   return `${/^-0\.?0*$/.test(text) ? text.slice(1) : text} %`;
 }
+
+/** An error or deviation with its sign always shown: 0.01128 → "+1.13 %", -0.0134 → "-1.34 %". */
+export function formatSignedPercent(fraction: number, decimals = 2): string {
+  const text = formatPercent(fraction, decimals);
+  return text.startsWith('-') || /^0\.?0* %$/.test(text) ? text : `+${text}`;
+}

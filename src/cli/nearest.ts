@@ -1,0 +1,104 @@
+// `trimfree nearest VALUE`: the standard values around a target, and the best two-part combinations.
+import { Argument, Command, Option } from 'commander';
+import Table from 'cli-table3';
+import { bestCombinations, POOL_DECADES, type Combination } from '../series/combos.js';
+import { loadSeries, SERIES_NAMES, type SeriesName } from '../series/load.js';
+import { nearestStandard } from '../series/nearest.js';
+import { formatEngineering, formatEngineeringShortest, formatRkm, formatSignedPercent, parseResistance } from '../units/index.js';
+import { integerOption, seriesOption } from './option-parsers.js';
+import { COMPACT_TABLE, shortSource } from './values.js';
+
+interface NearestOptions {
+  series: SeriesName;
+  count: number;
+  json?: boolean;
+}
+
+/** An error in percent for the table: "exact" when zero to 1e-9 %; small errors keep two significant digits. */
+function errorText(errorPct: number): string {
+  const size = Math.abs(errorPct);
+  if (size < 1e-9) return 'exact';
+  const decimals = Math.min(9, Math.max(3, Math.ceil(-Math.log10(size)) + 1));
+  return formatSignedPercent(errorPct / 100, decimals);
+}
+
+function comboRow(combo: Combination): string[] {
+  const [a, b] = combo.parts;
+  const joint = combo.kind === 'series' ? ' + ' : ' ∥ ';
+  return [
+    combo.kind,
+    `${formatEngineering(a, 'Ω')}${joint}${formatEngineering(b, 'Ω')}`,
+    `${formatRkm(a)}${joint}${formatRkm(b)}`,
+    formatEngineeringShortest(combo.value, 'Ω', 4, 6),
+    errorText(combo.errorPct),
+  ];
+}
+
+function run(value: number, options: NearestOptions): void {
+  const { series, count } = options;
+  const bracket = nearestStandard(value, series);
+  const combos = bestCombinations(value, series, count);
+  if (options.json) {
+    const result = {
+      value,
+      series,
+      below: bracket.below,
+      above: bracket.above,
+      nearest: bracket.nearest,
+      errorPct: { below: bracket.belowErrorPct, above: bracket.aboveErrorPct, nearest: bracket.nearestErrorPct },
+      combos: combos.map(({ kind, parts, value: combined, errorPct }) => ({ kind, parts, value: combined, errorPct })),
+    };
+    process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);
+    return;
+  }
+  const single = new Table({
+    head: ['', 'value', 'RKM', 'error'],
+    colAligns: ['left', 'right', 'left', 'right'],
+    ...COMPACT_TABLE,
+  });
+  for (const [label, v, e] of [
+    ['below', bracket.below, bracket.belowErrorPct],
+    ['above', bracket.above, bracket.aboveErrorPct],
+    ['nearest', bracket.nearest, bracket.nearestErrorPct],
+  ] as const) {
+    single.push([label, formatEngineering(v, 'Ω'), formatRkm(v), errorText(e)]);
+  }
+  const pairs = new Table({
+    head: ['kind', 'parts', 'RKM', 'value', 'error'],
+    colAligns: ['left', 'left', 'left', 'right', 'right'],
+    ...COMPACT_TABLE,
+  });
+  for (const combo of combos) pairs.push(comboRow(combo));
+  const best = combos[0];
+  const note =
+    best !== undefined && Math.abs(best.errorPct) >= Math.abs(bracket.nearestErrorPct)
+      ? 'The single nearest value is at least as close as any pair.\n'
+      : '';
+  process.stdout.write(
+    `target ${formatEngineeringShortest(value, 'Ω')} (${formatRkm(value)}) in ${series}, ${shortSource(loadSeries(series).source)}\n` +
+      `${single.toString()}\n` +
+      `best two-part combinations from ${series} (${count} per kind; parts within ${POOL_DECADES} decades of the target)\n` +
+      `${pairs.toString()}\n${note}` +
+      'error: (value / target − 1); a pair also adds the tolerance of both parts.\n',
+  );
+}
+
+export function nearestCommand(): Command {
+  return new Command('nearest')
+    .description('standard values below, above and nearest a target resistance, and the best two-part series or parallel pairs')
+    .addArgument(new Argument('<value>', 'target resistance, e.g. 28.38k, 4K7, 10 mΩ').argParser((text: string) => parseResistance(text, 'value')))
+    .addOption(new Option('--series <name>', `the E-series: ${SERIES_NAMES.join(', ')}`).argParser(seriesOption('--series')).default('E24'))
+    .addOption(new Option('--count <n>', 'pairs listed per kind (series, parallel)').argParser(integerOption('--count', 1, 50)).default(3))
+    .option('--json', 'print JSON: below, above, nearest (ohms), errorPct, combos')
+    .addHelpText(
+      'after',
+      `
+Combinations are searched exhaustively over the series' values within ${POOL_DECADES} decades of the target.
+
+Examples:
+  $ trimfree nearest 28.38k --series E96
+  $ trimfree nearest 4K7
+  $ trimfree nearest 0.0123 --series E24 --count 5 --json`,
+    )
+    .action((value: number, options: NearestOptions) => run(value, options));
+}
