@@ -1,0 +1,243 @@
+// The feedback-divider picker: standard-value (or stocked) resistors for a regulator's output divider.
+// Fixed output: the pairs nearest the target (exact search, fixed-search.ts). Adjustable output: fixed resistors
+// around a pot so every unit covers the range (adjustable-search.ts). Inputs and outputs in SI units.
+import { ImpossibleError, InputError } from '../errors.js';
+import { adjustablePeakPowers, type PotLeg } from '../circuits/adjustable-divider.js';
+import { dividerCurrent } from '../circuits/divider.js';
+import { loadSeries, type SeriesName } from '../series/load.js';
+import { formatEngineering, formatPercent } from '../units/index.js';
+import { allowedFromSeries, allowedFromStock, byCommonness, type AllowedValues } from './divider/allowed-values.js';
+import { searchAdjustableDividers } from './divider/adjustable-search.js';
+import { bottomWindow, type BottomWindow, type Interval } from './divider/bottom-window.js';
+import { describeFixed, type DividerCandidate, type DividerPart } from './divider/describe-fixed.js';
+import { searchFixedDividers } from './divider/fixed-search.js';
+import type { GuaranteedRange } from './divider/guaranteed-range.js';
+
+export type { DividerCandidate, DividerPart } from './divider/describe-fixed.js';
+
+export interface PotRequest {
+  ohms: number;
+  /** Relative tolerance of the track resistance. */
+  tolerance: number;
+  leg: PotLeg;
+}
+
+export interface DividerRequest {
+  vref: number;
+  /** Target output: lo = hi for a fixed output, a range with a pot for an adjustable one. */
+  vout: Interval;
+  /** Feedback-pin bias current, amperes, positive into the pin. */
+  ifb: number;
+  series: SeriesName[];
+  /** Stocked values (ohms); when given, replaces the series. */
+  stock?: number[] | undefined;
+  maxParts: 2 | 3;
+  bottom: Interval;
+  current?: Interval | undefined;
+  /** Smallest and largest physical resistor, ohms. */
+  minOhms: number;
+  maxOhms: number;
+  /** Divider current ≥ biasRatio × |Ifb| (common practice: 100); 0 turns the rule off. */
+  biasRatio: number;
+  /** Relative tolerance of each resistor; undefined: the series' commonly sold tolerance. */
+  tolerance?: number | undefined;
+  vrefTolerance: number;
+  /** Largest acceptable |error| of a fixed output, as a fraction; undefined: the resistor tolerance. */
+  maxError?: number | undefined;
+  count: number;
+  pot?: PotRequest | undefined;
+}
+
+/** Defaults the CLI shows in its help. Each is common practice, not a standard. */
+export const DIVIDER_DEFAULTS = {
+  series: ['E96'] as SeriesName[],
+  bottom: { lo: 1e3, hi: 100e3 },
+  minOhms: 1,
+  maxOhms: 1e6,
+  biasRatio: 100,
+  vrefTolerance: 0.01,
+  potTolerance: 0.2,
+  count: 10,
+  /** Used for a stock list, whose series (and so its usual tolerance) is unknown. */
+  stockTolerance: 0.01,
+};
+
+export interface DividerSettings {
+  vref: number;
+  vout: Interval;
+  ifb: number;
+  tolerance: number;
+  toleranceSource: string;
+  vrefTolerance: number;
+  maxError: number;
+  sources: string[];
+  window: BottomWindow;
+}
+
+export interface FixedDividerResult {
+  mode: 'fixed';
+  settings: DividerSettings;
+  candidates: DividerCandidate[];
+}
+
+export interface AdjustableCandidate {
+  /** Fixed top resistor, ohms (0: none). */
+  top: number;
+  bottom: number;
+  pot: { ohms: number; leg: PotLeg; powerW: number };
+  parts: DividerPart[];
+  series: string;
+  nominal: { low: number; high: number };
+  guaranteed: GuaranteedRange;
+  /** Share of the pot's travel the target range uses, percent (higher: finer adjustment). */
+  travelUsedPct: number;
+  /** Divider current at the two ends of travel, amperes. */
+  dividerCurrent: { min: number; max: number };
+}
+
+export interface AdjustableDividerResult {
+  mode: 'adjustable';
+  settings: DividerSettings & { pot: PotRequest };
+  candidates: AdjustableCandidate[];
+}
+
+export type DividerResult = FixedDividerResult | AdjustableDividerResult;
+
+/** The tolerance a series is most commonly sold in (the first listed in series/*.json: common practice). */
+export function commonTolerance(name: SeriesName): number {
+  const first = loadSeries(name).commonTolerances[0] ?? '';
+  const match = /(\d+(?:\.\d+)?)/.exec(first);
+  return match ? Number(match[1]) / 100 : 0.2;
+}
+
+export function pickDivider(request: DividerRequest): DividerResult {
+  const { vref, vout, ifb } = request;
+  if (!(vref > 0)) throw new InputError('--vref', `reference must be positive, got ${vref} V`, 'a positive voltage such as 0.8, 1.25V');
+  if (!(vout.lo > vref)) {
+    throw new ImpossibleError(
+      '--vout',
+      `${fmtV(vout.lo)} is at or below the reference ${fmtV(vref)}: a feedback divider cannot set an output below Vref`,
+      'ask for an output above Vref, or use a regulator with a lower reference',
+    );
+  }
+  if (request.pot && !(vout.hi > vout.lo)) {
+    throw new InputError('--vout', 'a pot needs an output range', 'LO..HI with LO < HI, e.g. 3.3..24');
+  }
+  if (!request.pot && vout.hi !== vout.lo) {
+    throw new InputError('--vout', `a range (${fmtV(vout.lo)}..${fmtV(vout.hi)}) needs a pot`, 'a single voltage, or a range with --pot');
+  }
+  if (request.pot && request.maxParts !== 2) {
+    throw new InputError('--parts', 'two-resistor legs are not offered with a pot', '--parts 2 (the default) with --pot');
+  }
+  const window = bottomWindow({ vref, ifb, bottom: request.bottom, current: request.current, biasRatio: request.biasRatio });
+  const allowed = request.stock
+    ? allowedFromStock(request.stock, request.minOhms, request.maxOhms)
+    : allowedFromSeries(request.series, request.minOhms, request.maxOhms);
+  const finest = byCommonness(request.series).at(-1)!;
+  const tolerance = request.tolerance ?? (request.stock ? DIVIDER_DEFAULTS.stockTolerance : commonTolerance(finest));
+  const toleranceSource =
+    request.tolerance !== undefined ? 'given' : request.stock ? 'assumed for stock' : `commonly sold for ${finest}`;
+  const settings: DividerSettings = {
+    vref,
+    vout,
+    ifb,
+    tolerance,
+    toleranceSource,
+    vrefTolerance: request.vrefTolerance,
+    maxError: request.maxError ?? tolerance,
+    sources: allowed.sources,
+    window,
+  };
+  return request.pot
+    ? pickAdjustable(request, request.pot, settings, allowed)
+    : pickFixed(request, settings, allowed);
+}
+
+function pickFixed(request: DividerRequest, settings: DividerSettings, allowed: AllowedValues): FixedDividerResult {
+  const { vref, ifb } = request;
+  const target = request.vout.lo;
+  const ranked = searchFixedDividers({ vref, vout: target, ifb, allowed, window: settings.window, maxParts: request.maxParts, count: request.count });
+  const context = {
+    vref,
+    target,
+    ifb,
+    tolerance: settings.tolerance,
+    vrefTolerance: settings.vrefTolerance,
+    ...sourceLookup(allowed),
+  };
+  const all = ranked.map((r) => describeFixed(r.item.top, r.item.bottom, context));
+  const candidates = all.filter((c) => Math.abs(c.errorPct) / 100 <= settings.maxError);
+  if (candidates.length === 0) {
+    const bestError = all[0] ? Math.abs(all[0].errorPct) / 100 : Infinity;
+    const biasShare = all[0] ? Math.abs(all[0].ifbShiftPct) / 100 : 0;
+    const biasNote =
+      biasShare > settings.maxError
+        ? `; the feedback-pin bias current alone moves that output by ${formatPercent(biasShare)}`
+        : '';
+    throw new ImpossibleError(
+      '--vout',
+      `no divider within ±${formatPercent(settings.maxError)} of ${fmtV(target)} (best ${Number.isFinite(bestError) ? formatPercent(bestError) : 'none'})${biasNote}`,
+      `allow two-resistor legs (--parts 3), add a finer series (--series), widen --bottom/--current, raise --max-error${biasNote ? ', or use smaller resistors or a regulator with less bias current' : ''}`,
+    );
+  }
+  return { mode: 'fixed', settings, candidates };
+}
+
+function pickAdjustable(
+  request: DividerRequest,
+  pot: PotRequest,
+  settings: DividerSettings,
+  allowed: AllowedValues,
+): AdjustableDividerResult {
+  const { vref, ifb, vout } = request;
+  const ranked = searchAdjustableDividers({
+    vref,
+    vout,
+    ifb,
+    allowed,
+    window: settings.window,
+    pot: { ohms: pot.ohms, leg: pot.leg },
+    tolerances: { resistor: settings.tolerance, pot: pot.tolerance, vref: settings.vrefTolerance },
+    count: request.count,
+  });
+  if (ranked.length === 0) {
+    throw new ImpossibleError(
+      '--pot',
+      `no fixed resistors let a ${formatEngineering(pot.ohms, 'Ω')} ±${formatPercent(pot.tolerance, 0)} pot in the ${pot.leg} leg cover ${fmtV(vout.lo)}..${fmtV(vout.hi)} on every unit`,
+      'use a larger pot (--pot) or a tighter one (--pot-tol), tighter resistors (--tolerance), a narrower --vout range, or a wider --bottom window',
+    );
+  }
+  const { seriesOf, seriesRankOf } = sourceLookup(allowed);
+  const candidates = ranked.map(({ item }): AdjustableCandidate => {
+    const powers = adjustablePeakPowers(vref, item.rtop, item.rbottom, pot.ohms, pot.leg, ifb);
+    const fixed = [
+      ...(item.rtop > 0 ? [{ leg: 'top' as const, ohms: item.rtop, series: seriesOf(item.rtop), powerW: powers.top }] : []),
+      { leg: 'bottom' as const, ohms: item.rbottom, series: seriesOf(item.rbottom), powerW: powers.bottom },
+    ];
+    const rarest = fixed.reduce((a, b) => (seriesRankOf(b.ohms) > seriesRankOf(a.ohms) ? b : a));
+    const bottomSpan = pot.leg === 'bottom' ? [item.rbottom, item.rbottom + pot.ohms] : [item.rbottom, item.rbottom];
+    return {
+      top: item.rtop,
+      bottom: item.rbottom,
+      pot: { ohms: pot.ohms, leg: pot.leg, powerW: powers.pot },
+      parts: fixed,
+      series: rarest.series,
+      nominal: item.nominal,
+      guaranteed: item.guaranteed,
+      travelUsedPct: ((vout.hi - vout.lo) / (item.nominal.high - item.nominal.low)) * 100,
+      dividerCurrent: { min: dividerCurrent(vref, bottomSpan[1]!), max: dividerCurrent(vref, bottomSpan[0]!) },
+    };
+  });
+  return { mode: 'adjustable', settings: { ...settings, pot }, candidates };
+}
+
+function sourceLookup(allowed: AllowedValues): { seriesOf: (ohms: number) => string; seriesRankOf: (ohms: number) => number } {
+  const rankAt = new Map<number, number>();
+  allowed.ohms.forEach((ohms, i) => rankAt.set(ohms, allowed.sourceRank[i]!));
+  const seriesRankOf = (ohms: number): number => rankAt.get(ohms) ?? 0;
+  return { seriesRankOf, seriesOf: (ohms) => allowed.sources[seriesRankOf(ohms)]! };
+}
+
+function fmtV(volts: number): string {
+  return formatEngineering(volts, 'V', 4);
+}
