@@ -2,6 +2,7 @@
 // add one import and one entry here to register a new command.
 import type { Command } from 'commander';
 import { nearestCommand } from './nearest.js';
+import { senseCommand } from './sense.js';
 import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, senseCommand];

@@ -1,0 +1,269 @@
+// `trimfree sense`: pick the shunt, gain resistors and threshold for a target current limit, rank the candidates by
+// quick worst case, and show the Pareto front of shunt loss against limit spread. Thin: parses options into a
+// SenseRequest (src/pick/sense.ts does the work) and prints tables or JSON.
+import { Command, Option } from 'commander';
+import Table from 'cli-table3';
+import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
+import { InputError } from '../errors.js';
+import { pickSense, type SenseCandidate, type SensePick, type SenseRequest } from '../pick/sense.js';
+import { SENSE_TOPOLOGIES, type SenseTopologyName, type ThresholdSource } from '../pick/sense/types.js';
+import { seriesValuesBetween } from '../series/enumerate.js';
+import { loadShunts, SERIES_NAMES, type SeriesName } from '../series/load.js';
+import { formatEngineering, formatPercent, formatSignedPercent, parseResistance, type Range } from '../units/index.js';
+import {
+  currentOption,
+  integerOption,
+  percentOption,
+  powerOption,
+  rangeOption,
+  seriesOption,
+  voltageOption,
+} from './option-parsers.js';
+import { COMPACT_TABLE } from './values.js';
+
+interface SenseOptions {
+  limit: number;
+  topology: SenseTopologyName;
+  threshold?: number;
+  thresholdTol: number;
+  thresholdFrom?: number;
+  shunts?: number[];
+  shuntTol: number;
+  shuntRating: number;
+  derate: number;
+  maxLoss?: number;
+  series: SeriesName;
+  window: Range;
+  tolerance: number;
+  rail: number;
+  headroom: number;
+  vos: number;
+  vosCmp: number;
+  ib: number;
+  commonMode: number;
+  top: number;
+  json?: boolean;
+}
+
+export const SHUNT_CAUTION =
+  'Caution: a shunt at the current limit runs hot. Check its temperature rise and the power derating curve in its ' +
+  'datasheet at your hottest ambient (using about 50–60 % of the rating is common practice), and keep it clear of ' +
+  'heat-sensitive parts.';
+
+/** "10m,20m,R05" → ohms; each entry in any resistance notation. */
+function parseShuntList(text: string): number[] {
+  const entries = text.split(',').map((entry) => entry.trim());
+  if (entries.some((entry) => entry === '')) {
+    throw new InputError('--shunts', `empty entry in '${text}'`, 'a comma-separated list of resistances such as 10m,20m,R05');
+  }
+  return entries.map((entry) => parseResistance(entry, '--shunts'));
+}
+
+function thresholdSource(options: SenseOptions): ThresholdSource {
+  const { threshold, thresholdFrom, thresholdTol } = options;
+  if (threshold !== undefined && !(threshold > 0)) {
+    throw new InputError('--threshold', `must be above 0 V, got ${formatEngineering(threshold, 'V')}`, 'a positive voltage, e.g. 1V or 800mV');
+  }
+  if (thresholdFrom !== undefined) {
+    if (!(thresholdFrom > 0)) {
+      throw new InputError('--threshold-from', `the reference must be above 0 V, got ${formatEngineering(thresholdFrom, 'V')}`, 'a positive voltage, e.g. 1.25V');
+    }
+    return threshold === undefined
+      ? { kind: 'divider', reference: thresholdFrom, tolerance: thresholdTol }
+      : { kind: 'divider', reference: thresholdFrom, tolerance: thresholdTol, volts: threshold };
+  }
+  if (threshold === undefined) {
+    throw new InputError('--threshold', 'no threshold given', 'a voltage, e.g. --threshold 1V, or --threshold-from 1.25V to derive it from a reference');
+  }
+  return { kind: 'fixed', volts: threshold, tolerance: thresholdTol };
+}
+
+function buildRequest(options: SenseOptions): SenseRequest {
+  if (!(options.window.lo > 0)) {
+    throw new InputError('--window', 'the window must start above 0 Ω', 'LO..HI with 0 < LO ≤ HI, e.g. 1k..1M');
+  }
+  const request: SenseRequest = {
+    limit: options.limit,
+    topology: options.topology,
+    threshold: thresholdSource(options),
+    shunts: options.shunts ?? loadShunts().values,
+    shuntTolerance: options.shuntTol,
+    shuntRatingW: options.shuntRating,
+    derating: options.derate,
+    resistorValues: seriesValuesBetween(options.series, options.window.lo, options.window.hi),
+    resistorTolerance: options.tolerance,
+    rail: options.rail,
+    headroom: options.headroom,
+    amplifierOffset: Math.abs(options.vos),
+    compareOffset: Math.abs(options.vosCmp),
+    biasCurrent: Math.abs(options.ib),
+    commonMode: options.commonMode,
+  };
+  if (options.maxLoss !== undefined) request.maxLossW = options.maxLoss;
+  return request;
+}
+
+const ohms = (r: number): string => formatEngineering(r, 'Ω');
+
+/** The gain-resistor cell: "RF 11.3 kΩ / RG 2.00 kΩ", "R1=R3 15.0 kΩ / R2=R4 100 kΩ". */
+function gainCell(c: SenseCandidate): string {
+  const p = c.parts;
+  if (c.topology === 'noninv') return `${ohms(p['RF']!)} / ${ohms(p['RG']!)}`;
+  if (c.topology === 'diff') return `${ohms(p['R1']!)} / ${ohms(p['R2']!)}`;
+  return '';
+}
+
+function gainHead(topology: SenseTopologyName): string {
+  return topology === 'noninv' ? 'RF / RG' : topology === 'diff' ? 'R1=R3 / R2=R4' : '';
+}
+
+function candidateTable(candidates: SenseCandidate[], topology: SenseTopologyName, divider: boolean): string {
+  const head = ['#', 'RS'];
+  if (topology !== 'direct') head.push(gainHead(topology), 'gain');
+  if (divider) head.push('RT1 / RT2', 'Vth');
+  head.push('limit', 'error', 'V shunt', 'loss', 'I max', topology === 'direct' ? '' : 'amp out', 'offsets', 'worst case', 'spread');
+  if (topology === 'direct') head.splice(head.indexOf(''), 1);
+  const table = new Table({ head, ...COMPACT_TABLE, colAligns: head.map((h) => (h === '#' || h.startsWith('R') ? 'left' : 'right')) });
+  candidates.forEach((c, i) => {
+    const row = [String(i + 1), ohms(c.parts['RS']!)];
+    if (topology !== 'direct') row.push(gainCell(c), c.gain.toFixed(3));
+    if (divider) row.push(`${ohms(c.parts['RT1']!)} / ${ohms(c.parts['RT2']!)}`, formatEngineering(c.threshold, 'V', 4));
+    row.push(
+      formatEngineering(c.limit, 'A', 4),
+      formatSignedPercent(c.errorPct / 100),
+      formatEngineering(c.shuntVoltage, 'V'),
+      formatEngineering(c.shuntLossW, 'W'),
+      formatEngineering(c.shuntMaxCurrent, 'A'),
+    );
+    if (topology !== 'direct') row.push(formatEngineering(c.outputAtLimit, 'V'));
+    row.push(
+      `±${formatPercent(c.offsetErrorPct / 100)}`,
+      `${formatEngineering(c.worstCase.min, 'A', 4)} … ${formatEngineering(c.worstCase.max, 'A', 4)}`,
+      `±${formatPercent(c.worstCaseSpreadPct / 100)}`,
+    );
+    table.push(row);
+  });
+  return table.toString();
+}
+
+function paretoTable(pick: SensePick): string {
+  const table = new Table({ head: ['RS', 'parts', 'loss', 'spread'], ...COMPACT_TABLE, colAligns: ['left', 'left', 'right', 'right'] });
+  for (const c of pick.pareto) {
+    const others = Object.entries(c.parts)
+      .filter(([name]) => name !== 'RS' && name !== 'R3' && name !== 'R4')
+      .map(([name, r]) => `${name} ${ohms(r)}`)
+      .join(', ');
+    table.push([ohms(c.parts['RS']!), others, formatEngineering(c.shuntLossW, 'W'), `±${formatPercent(c.worstCaseSpreadPct / 100)}`]);
+  }
+  return table.toString();
+}
+
+function describeRequest(request: SenseRequest, options: SenseOptions): string {
+  const t = request.threshold;
+  const threshold =
+    t.kind === 'fixed'
+      ? `threshold ${formatEngineering(t.volts, 'V')} ±${formatPercent(t.tolerance)}`
+      : `threshold from a ${formatEngineering(t.reference, 'V')} ±${formatPercent(t.tolerance)} reference through RT1/RT2` +
+        (t.volts === undefined ? '' : ` (aiming at ${formatEngineering(t.volts, 'V')})`);
+  const side = request.commonMode !== 0 ? `high side at ${formatEngineering(request.commonMode, 'V')}` : 'low side';
+  const amp =
+    request.topology === 'direct'
+      ? `comparing offset ±${formatEngineering(request.compareOffset, 'V')}`
+      : `amplifier on a ${formatEngineering(request.rail, 'V')} rail (${formatEngineering(request.headroom, 'V')} headroom), Vos ±${formatEngineering(request.amplifierOffset, 'V')}, Ib ±${formatEngineering(request.biasCurrent, 'A')}, comparing offset ±${formatEngineering(request.compareOffset, 'V')}`;
+  return [
+    `current limit ${formatEngineering(request.limit, 'A')}, ${request.topology} topology, ${side}, ${threshold}`,
+    `resistors ${options.series} ${ohms(options.window.lo)}–${ohms(options.window.hi)} ±${formatPercent(request.resistorTolerance)}; ` +
+      `shunts ±${formatPercent(request.shuntTolerance)} rated ${formatEngineering(request.shuntRatingW, 'W')} used to ${formatPercent(request.derating, 0)}` +
+      (request.maxLossW === undefined ? '' : `, loss budget ${formatEngineering(request.maxLossW, 'W')}`),
+    amp,
+  ].join('\n');
+}
+
+function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
+  return {
+    target: pick.target,
+    candidates: shown.map((c) => ({
+      parts: c.parts,
+      gain: c.gain,
+      threshold: c.threshold,
+      limit: c.limit,
+      errorPct: c.errorPct,
+      shuntVoltage: c.shuntVoltage,
+      shuntLossW: c.shuntLossW,
+      shuntMaxCurrent: c.shuntMaxCurrent,
+      outputAtLimit: c.outputAtLimit,
+      offsetErrorPct: c.offsetErrorPct,
+      worstCase: c.worstCase,
+      worstCaseSpreadPct: c.worstCaseSpreadPct,
+    })),
+    pareto: pick.pareto.map((c) => ({ parts: c.parts, shuntLossW: c.shuntLossW, worstCaseSpreadPct: c.worstCaseSpreadPct })),
+    considered: pick.considered,
+    rejected: pick.rejected,
+    cautions: [SHUNT_CAUTION],
+  };
+}
+
+function run(options: SenseOptions): void {
+  const request = buildRequest(options);
+  const pick = pickSense(request);
+  const shown = pick.candidates.slice(0, options.top);
+  if (options.json) {
+    process.stdout.write(`${JSON.stringify(jsonOf(pick, shown), null, 2)}\n`);
+    return;
+  }
+  const divider = request.threshold.kind === 'divider';
+  const removed = Object.entries(pick.rejected).map(([reason, n]) => `${reason} ${n}`);
+  process.stdout.write(
+    `${describeRequest(request, options)}\n\n` +
+      `candidates (best ${shown.length} of ${pick.candidates.length}, ranked by worst-case spread, then loss)\n` +
+      `${candidateTable(shown, request.topology, divider)}\n` +
+      `error: nominal limit against the target; V shunt, loss, amp out: at the nominal limit; I max: the shunt's derated rating;\n` +
+      `offsets: largest limit change from Vos, Ib and the comparing offset; worst case: every tolerance and offset at its\n` +
+      `extremes (vertex enumeration, exact for these monotonic transfers); spread: larger distance from the target to\n` +
+      `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
+      (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
+      `\nPareto front: no other candidate is both cooler and tighter\n${paretoTable(pick)}\n\n${SHUNT_CAUTION}\n`,
+  );
+}
+
+export function senseCommand(): Command {
+  return new Command('sense')
+    .description('pick shunt, gain resistors and threshold for a current limit; Pareto front of shunt loss against limit spread')
+    .addOption(new Option('--limit <A>', 'target current limit, e.g. 3A or 750mA').argParser(currentOption('--limit')).makeOptionMandatory())
+    .addOption(new Option('--topology <name>', 'sense circuit').choices([...SENSE_TOPOLOGIES]).default('noninv'))
+    .addOption(new Option('--threshold <V>', 'threshold the amplified shunt signal meets').argParser(voltageOption('--threshold')))
+    .addOption(new Option('--threshold-tol <pct>', 'tolerance of the threshold (or of the reference with --threshold-from)').argParser(percentOption('--threshold-tol')).default(0.01, '1 %'))
+    .addOption(new Option('--threshold-from <Vref>', 'derive the threshold from this reference through a picked divider RT1/RT2').argParser(voltageOption('--threshold-from')))
+    .addOption(new Option('--shunts <list>', 'shunt values, comma-separated, any notation').argParser(parseShuntList).default(undefined, 'series/shunts-milliohm.json'))
+    .addOption(new Option('--shunt-tol <pct>', 'shunt tolerance').argParser(percentOption('--shunt-tol')).default(0.01, '1 %'))
+    .addOption(new Option('--shunt-rating <W>', 'shunt power rating').argParser(powerOption('--shunt-rating')).default(1, '1 W'))
+    .addOption(new Option('--derate <pct>', 'share of the rating the shunt may use at the hottest ambient (common practice)').argParser(percentOption('--derate')).default(DEFAULT_SHUNT_DERATING, '50 %'))
+    .addOption(new Option('--max-loss <W>', 'largest shunt loss at the limit (default: no budget beyond the derated rating)').argParser(powerOption('--max-loss')))
+    .addOption(new Option('--series <name>', `E-series of the gain and divider resistors: ${SERIES_NAMES.join(', ')}`).argParser(seriesOption('--series')).default('E96'))
+    .addOption(new Option('--window <lo..hi>', 'range of the gain and divider resistors').argParser(rangeOption(parseResistance, '--window')).default({ lo: 1e3, hi: 1e6 }, '1k..1M'))
+    .addOption(new Option('--tolerance <pct>', 'tolerance of the gain and divider resistors').argParser(percentOption('--tolerance')).default(0.01, '1 %'))
+    .addOption(new Option('--rail <V>', 'amplifier supply rail').argParser(voltageOption('--rail')).default(5, '5 V'))
+    .addOption(new Option('--headroom <V>', 'how close to the rail the amplifier output swings').argParser(voltageOption('--headroom')).default(0.2, '0.2 V'))
+    .addOption(new Option('--vos <V>', 'largest amplifier input offset').argParser(voltageOption('--vos')).default(1e-3, '1 mV'))
+    .addOption(new Option('--vos-cmp <V>', 'largest offset of the stage that compares with the threshold').argParser(voltageOption('--vos-cmp')).default(0, '0 V'))
+    .addOption(new Option('--ib <A>', 'largest amplifier input bias current').argParser(currentOption('--ib')).default(0, '0 A'))
+    .addOption(new Option('--common-mode <V>', 'load-side shunt voltage for high-side sensing (diff only)').argParser(voltageOption('--common-mode')).default(0, '0 V, low side'))
+    .addOption(new Option('--top <n>', 'candidates listed').argParser(integerOption('--top', 1, 1000)).default(10))
+    .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto')
+    .addHelpText(
+      'after',
+      `
+For each shunt the gain resistors (and the threshold divider) come from the series by exact ratio search; each
+design's quick worst case enumerates every tolerance and offset extreme. The amplifier output must stay below the
+rail minus headroom at 120 % of the limit; the shunt voltage at the limit must be at least 10 × the offset it competes
+with (common practice). TCR, self-heating and Monte Carlo spread: 'trimfree spread' on a design file.
+
+Examples:
+  $ trimfree sense --limit 3A --threshold 1V
+  $ trimfree sense --limit 3A --threshold 1V --max-loss 0.25W --vos 50uV --tolerance 0.1%
+  $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V
+  $ trimfree sense --limit 2A --topology direct --threshold-from 1.25V --vos-cmp 1mV
+  $ trimfree sense --limit 3A --threshold 1V --shunts 20m,R033,50m --json`,
+    )
+    .action((options: SenseOptions) => run(options));
+}
