@@ -1,0 +1,172 @@
+// The review report: ONE self-contained HTML file (inline CSS and SVG, no script, no network) with the inputs and
+// BOM tables, each output's figures, histogram and contributors chart, how the numbers were obtained and the
+// cautions. Renders an AnalysisResult and the design's plain data; computes nothing.
+// Each figure cell carries the exact numbers it shows: `td[data-field][data-value]` (space-separated), so a test
+// can check the page against the JSON.
+import type { AnalysisResult, OutputResult } from '../analysis/result.js';
+import type { Part } from '../tolerance/part.js';
+import { describeDistribution } from '../tolerance/sample.js';
+import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
+import { escapeHtml, exact } from './html-escape.js';
+import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits, outputTitle } from './format-value.js';
+import { outputFigures } from './spread-text.js';
+import { renderSvgContributions } from './svg-contributions.js';
+import { renderSvgHistogram } from './svg-histogram.js';
+
+/** One BOM line as the report shows it (already formatted by the design layer). */
+export interface BomRow {
+  designator: string;
+  value: string;
+  code: string;
+  series: string;
+  tolerance: string;
+  tcr: string;
+  power: string;
+  note?: string;
+}
+
+export interface HtmlReportInput {
+  title: string;
+  /** What was analysed, e.g. the design file's name. */
+  subject: string;
+  version: string;
+  result: AnalysisResult;
+  /** The uncertain quantities the model drew (the Model's parts). */
+  parts: Part[];
+  bom?: BomRow[];
+  cautions?: string[];
+  /** Notes from filling in the design (which values were picked and why). */
+  designNotes?: string[];
+  /** The command line that produced the report (for reproduction). */
+  command?: string;
+}
+
+const STYLE = `
+body{font:14px/1.45 system-ui,-apple-system,"Segoe UI",sans-serif;margin:24px auto;max-width:1100px;color:#1b1f24;padding:0 16px}
+h1{font-size:22px;margin:0 0 4px}h2{font-size:18px;margin:28px 0 8px;border-bottom:1px solid #d0d7de;padding-bottom:4px}
+h3{font-size:15px;margin:18px 0 6px}
+table{border-collapse:collapse;margin:6px 0 12px}th,td{border:1px solid #d0d7de;padding:3px 8px;text-align:left;vertical-align:top}
+th{background:#f3f5f7}td.num{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
+.caution{border:2px solid #b35900;background:#fff4e5;padding:8px 12px;margin:12px 0}
+.caution li{margin:2px 0}
+.meta{color:#57606a}
+.output{page-break-inside:avoid}
+.charts{display:flex;flex-wrap:wrap;gap:16px;align-items:flex-start}
+svg{background:#fff;border:1px solid #e1e4e8}
+svg text{font:11px system-ui,sans-serif;fill:#1b1f24}
+svg .bin.in-spec{fill:#4878a8}svg .bin.out-of-spec{fill:#c0392b}
+svg .interval-band{fill:#f2c94c;fill-opacity:.25}
+svg .axis{stroke:#57606a}
+svg .marker.spec line{stroke:#c0392b;stroke-width:2;stroke-dasharray:6 3}
+svg .marker.interval line{stroke:#b58900;stroke-width:1.5}
+svg .marker.nominal line{stroke:#1b1f24;stroke-width:1;stroke-dasharray:2 2}
+svg .marker.worst line{stroke:#6f42c1;stroke-width:1.5;stroke-dasharray:3 3}
+svg .worst-bracket{stroke:#6f42c1;stroke-width:2}
+svg .contribution{fill:#2e8b57}
+`;
+
+function cell(text: string, cls = ''): string {
+  return `<td${cls ? ` class="${cls}"` : ''}>${escapeHtml(text)}</td>`;
+}
+
+function table(head: string[], rows: string[]): string {
+  return `<table><thead><tr>${head.map((h) => `<th>${escapeHtml(h)}</th>`).join('')}</tr></thead><tbody>\n${rows.join('\n')}\n</tbody></table>`;
+}
+
+function formatPartValue(value: number, unit: string): string {
+  if (unit === '1/K') return formatPpmPerK(value);
+  if (unit === '' ) return formatPercent(value, 3);
+  if (unit === '°C') return `${value.toFixed(1)} °C`;
+  return formatEngineering(value, unit, 4);
+}
+
+function partsTable(parts: Part[]): string {
+  const rows = parts.map((p) => {
+    const band = p.minus === 0 && p.plus === 0
+      ? 'exact'
+      : `${formatPartValue(p.nominal - p.minus, p.unit)} … ${formatPartValue(p.nominal + p.plus, p.unit)}`;
+    const relative = p.nominal !== 0 && p.minus === p.plus && p.minus > 0 && p.unit !== '°C' && p.unit !== '1/K'
+      ? ` (±${formatPercent(p.plus / Math.abs(p.nominal), 3)})`
+      : '';
+    return `<tr data-part="${escapeHtml(p.name)}">${cell(p.name)}${cell(p.kind)}${cell(formatPartValue(p.nominal, p.unit), 'num')}${cell(band + relative, 'num')}${cell(describeDistribution(p))}${cell(p.tcrPerK !== undefined ? formatPpmPerK(p.tcrPerK) : MISSING)}</tr>`;
+  });
+  return table(['part', 'kind', 'nominal', 'band', 'distribution', 'TCR'], rows);
+}
+
+function bomTable(bom: BomRow[]): string {
+  const rows = bom.map(
+    (b) =>
+      `<tr data-designator="${escapeHtml(b.designator)}">${cell(b.designator)}${cell(b.value, 'num')}${cell(b.code)}${cell(b.series)}${cell(b.tolerance, 'num')}${cell(b.tcr, 'num')}${cell(b.power, 'num')}${cell(b.note ?? '')}</tr>`,
+  );
+  return table(['designator', 'value', 'IEC 60062 code', 'series', 'tolerance', 'TCR', 'power it must handle', 'note'], rows);
+}
+
+function summaryTable(result: AnalysisResult): string {
+  const rows = Object.values(result.outputs).map((o) => {
+    const d = outputDigits(o);
+    const wc = `${formatValue(o.worstCase.min, o.unit, d)} … ${formatValue(o.worstCase.max, o.unit, d)}`;
+    return `<tr data-output="${escapeHtml(o.name)}">${cell(outputTitle(o.name))}${cell(formatValue(o.nominal, o.unit, d), 'num')}${cell(formatValue(o.mean, o.unit, d), 'num')}${cell(formatSpread(o.sigma, o.unit), 'num')}${cell(wc, 'num')}${cell(o.yield ? formatYieldPct(o.yield.pct) : MISSING, 'num')}${cell(formatIndex(o.cpk), 'num')}</tr>`;
+  });
+  return table(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk'], rows);
+}
+
+function outputSection(output: OutputResult): string {
+  const figures = outputFigures(output).map(
+    (f) =>
+      `<tr><th scope="row">${escapeHtml(f.label)}</th><td class="num" data-field="${f.field}" data-value="${f.values.map(exact).join(' ')}">${escapeHtml(f.text)}</td></tr>`,
+  );
+  const quantileNote = output.quantileMethod === 'exact'
+    ? 'Quantiles and intervals from every sample (exact).'
+    : `Quantiles and intervals from a fine histogram, each within ±${escapeHtml(formatSpread(output.quantileBound, output.unit))}.`;
+  return `<section class="output" id="output-${escapeHtml(output.name)}" data-output="${escapeHtml(output.name)}">
+<h2>${escapeHtml(outputTitle(output.name))}</h2>
+<table class="figures"><tbody>
+${figures.join('\n')}
+</tbody></table>
+<p class="meta">${quantileNote} Histogram: bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
+<div class="charts">
+${renderSvgHistogram(output)}
+<div><h3>Share of the variance by part</h3>
+${renderSvgContributions(output)}</div>
+</div>
+</section>`;
+}
+
+export function renderHtmlReport(input: HtmlReportInput): string {
+  const r = input.result;
+  const cautions = input.cautions ?? [];
+  const method = [
+    `Monte Carlo propagation of distributions (JCGM 101:2008): ${r.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(r.seed)}, ${r.workers} worker(s), chunks of ${r.chunkSize.toLocaleString('en-US')} trials each seeded on its own so the numbers do not depend on the worker count.`,
+    'Worst case: the extremes over the tolerance band ends and temperature corners (method per output in its table).',
+    'RSS: law of propagation of uncertainty with numerical sensitivity coefficients (JCGM 100:2008, 5.1.2).',
+    'Yield: share of trials inside the spec window, with its 95 % Wilson score interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.',
+    ...r.notes,
+  ];
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="trimfree ${escapeHtml(input.version)}">
+<title>${escapeHtml(input.title)}</title>
+<style>${STYLE}</style>
+</head>
+<body data-seed="${escapeHtml(r.seed)}" data-trials="${r.trials}" data-version="${escapeHtml(input.version)}">
+<h1>${escapeHtml(input.title)}</h1>
+<p class="meta">${escapeHtml(input.subject)} · trimfree ${escapeHtml(input.version)} · seed ${escapeHtml(JSON.stringify(r.seed))} · ${r.trials.toLocaleString('en-US')} Monte Carlo trials</p>
+${cautions.length > 0 ? `<div class="caution" id="caution"><strong>Caution</strong><ul>${cautions.map((c) => `<li>${escapeHtml(c)}</li>`).join('')}</ul></div>` : ''}
+<h2>Summary</h2>
+${summaryTable(r)}
+<h2>Inputs</h2>
+${partsTable(input.parts)}
+${input.bom && input.bom.length > 0 ? `<h2>Bill of materials</h2>\n${bomTable(input.bom)}` : ''}
+${input.designNotes && input.designNotes.length > 0 ? `<h2>Design notes</h2><ul>${input.designNotes.map((n) => `<li>${escapeHtml(n)}</li>`).join('')}</ul>` : ''}
+${Object.values(r.outputs).map(outputSection).join('\n')}
+<h2>How it was obtained</h2>
+<ul id="method">${method.map((m) => `<li>${escapeHtml(m)}</li>`).join('')}</ul>
+${input.command ? `<p class="meta">Command: <code>${escapeHtml(input.command)}</code></p>` : ''}
+<p class="meta">Results describe the model and its stated tolerances only; check every part against its datasheet.</p>
+</body>
+</html>
+`;
+}

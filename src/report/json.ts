@@ -1,0 +1,128 @@
+// The machine-readable form of a spread run: `{ seed, trials, version, outputs: { NAME: { … } } }`.
+// The worker count is left out on purpose: the same seed gives byte-identical JSON for any number of workers.
+// Every number is finite: a figure that does not exist for an output (Cpk without a spec window) is null, and the
+// output's `notes` say why. Nothing is recomputed: each figure is copied from the AnalysisResult.
+import type { AnalysisResult, OutputResult } from '../analysis/result.js';
+
+export interface SpreadJsonOutput {
+  name: string;
+  unit: string;
+  nominal: number;
+  spec: { low: number; high: number } | null;
+  mean: number;
+  sigma: number;
+  min: number;
+  max: number;
+  interval95: { low: number; high: number };
+  interval9973: { low: number; high: number };
+  shortest95: { low: number; high: number };
+  quantileMethod: string;
+  quantileBound: number;
+  worstCase: { min: number; max: number; minVertex: Record<string, string>; maxVertex: Record<string, string>; method: string };
+  rss: { sigma: number; halfWidth: number; center: number };
+  yieldPct: number | null;
+  yieldInterval95: { low: number; high: number } | null;
+  ppmOut: number | null;
+  cp: number | null;
+  cpk: number | null;
+  contributions: Array<{ part: string; varianceShare: number; sensitivity: number; standardUncertainty: number }>;
+  histogram: { edges: number[]; counts: number[] };
+  notes: string[];
+}
+
+export interface SpreadJson {
+  seed: string;
+  trials: number;
+  version: string;
+  method: string[];
+  cautions: string[];
+  outputs: Record<string, SpreadJsonOutput>;
+}
+
+export interface SpreadJsonMeta {
+  version: string;
+  /** Safety cautions and design notes to carry along (from the design's resolution). */
+  cautions?: string[];
+}
+
+/** A finite number, or null with a note saying which figure is missing and why. */
+function finiteOrNull(value: number | undefined, label: string, why: string, notes: string[]): number | null {
+  if (value !== undefined && Number.isFinite(value)) return value;
+  notes.push(`${label}: ${why}`);
+  return null;
+}
+
+/** Throws when a figure the engine must always give is not finite (a bug upstream, never printed as NaN). */
+function mustBeFinite(value: number, label: string, output: string): number {
+  if (!Number.isFinite(value)) throw new Error(`analysis result for ${output}: ${label} is not a finite number (${value})`);
+  return value;
+}
+
+export function outputJson(output: OutputResult): SpreadJsonOutput {
+  const notes: string[] = [];
+  const name = output.name;
+  const f = (value: number, label: string): number => mustBeFinite(value, label, name);
+  const interval = (i: { low: number; high: number }, label: string) => ({ low: f(i.low, `${label}.low`), high: f(i.high, `${label}.high`) });
+  const hasSpec = output.spec !== undefined;
+  const noSpec = 'no spec window for this output';
+  const noSpread = hasSpec ? 'σ is zero, so the capability index is unbounded' : noSpec;
+  return {
+    name,
+    unit: output.unit,
+    nominal: f(output.nominal, 'nominal'),
+    spec: output.spec ? { low: f(output.spec[0], 'spec.low'), high: f(output.spec[1], 'spec.high') } : null,
+    mean: f(output.mean, 'mean'),
+    sigma: f(output.sigma, 'sigma'),
+    min: f(output.min, 'min'),
+    max: f(output.max, 'max'),
+    interval95: interval(output.interval95, 'interval95'),
+    interval9973: interval(output.interval9973, 'interval9973'),
+    shortest95: interval(output.shortest95, 'shortest95'),
+    quantileMethod: output.quantileMethod,
+    quantileBound: f(output.quantileBound, 'quantileBound'),
+    worstCase: {
+      min: f(output.worstCase.min, 'worstCase.min'),
+      max: f(output.worstCase.max, 'worstCase.max'),
+      minVertex: { ...output.worstCase.minVertex },
+      maxVertex: { ...output.worstCase.maxVertex },
+      method: output.worstCase.method,
+    },
+    rss: { sigma: f(output.rss.sigma, 'rss.sigma'), halfWidth: f(output.rss.halfWidth, 'rss.halfWidth'), center: f(output.rss.center, 'rss.center') },
+    yieldPct: finiteOrNull(output.yield?.pct, 'yieldPct', noSpec, notes),
+    yieldInterval95: output.yield && Number.isFinite(output.yield.low) && Number.isFinite(output.yield.high)
+      ? { low: output.yield.low, high: output.yield.high }
+      : null,
+    ppmOut: hasSpec ? finiteOrNull(output.ppmOut, 'ppmOut', 'not given by the analysis', notes) : null,
+    cp: finiteOrNull(output.cp, 'cp', noSpread, notes),
+    cpk: finiteOrNull(output.cpk, 'cpk', noSpread, notes),
+    contributions: output.contributions.map((c) => ({
+      part: c.part,
+      varianceShare: f(c.varianceShare, `contributions[${c.part}].varianceShare`),
+      sensitivity: f(c.sensitivity, `contributions[${c.part}].sensitivity`),
+      standardUncertainty: f(c.standardUncertainty, `contributions[${c.part}].standardUncertainty`),
+    })),
+    histogram: { edges: output.histogram.edges.map((e, i) => f(e, `histogram.edges[${i}]`)), counts: output.histogram.counts.slice() },
+    notes,
+  };
+}
+
+export function spreadJson(result: AnalysisResult, meta: SpreadJsonMeta): SpreadJson {
+  const outputs: Record<string, SpreadJsonOutput> = {};
+  for (const [name, output] of Object.entries(result.outputs)) outputs[name] = outputJson(output);
+  return {
+    seed: result.seed,
+    trials: result.trials,
+    version: meta.version,
+    method: result.notes.slice(),
+    cautions: meta.cautions ? meta.cautions.slice() : [],
+    outputs,
+  };
+}
+
+/** Serialises with two-space indentation; a non-finite number anywhere is a bug and throws rather than print null silently. */
+export function stringifyReport(value: unknown): string {
+  return `${JSON.stringify(value, (key, v: unknown) => {
+    if (typeof v === 'number' && !Number.isFinite(v)) throw new Error(`report field ${key} is not a finite number (${v})`);
+    return v;
+  }, 2)}\n`;
+}

@@ -1,0 +1,85 @@
+import { describe, expect, it } from 'vitest';
+import { renderAsciiHistogram } from '../src/report/ascii-histogram.js';
+import { displayBins } from '../src/report/display-bins.js';
+import { spreadJson } from '../src/report/json.js';
+import { renderSpreadText } from '../src/report/spread-text.js';
+import { formatYieldPct, outputDigits } from '../src/report/format-value.js';
+import { FIXTURE_RESULT } from './report-fixture.js';
+import { displayedMatches } from './report-check.js';
+
+describe('display bins', () => {
+  it('sums runs of adjacent fine bins; total count and outer edges unchanged (brute-force sum)', () => {
+    const histogram = { edges: [0, 1, 2, 3, 4, 5, 6, 7], counts: [1, 2, 3, 4, 5, 6, 7] };
+    const bins = displayBins(histogram, 3); // factor ⌈7/3⌉ = 3 → [1+2+3, 4+5+6, 7]
+    expect(bins).toEqual([
+      { low: 0, high: 3, count: 6 },
+      { low: 3, high: 6, count: 15 },
+      { low: 6, high: 7, count: 7 },
+    ]);
+    expect(displayBins(histogram, 100)).toHaveLength(7);
+  });
+});
+
+describe('terminal report', () => {
+  const text = renderSpreadText(FIXTURE_RESULT, { version: '1.0.0', subject: 'fixture.json', cautions: ['mind the cell voltage'] });
+  const json = spreadJson(FIXTURE_RESULT, { version: '1.0.0' });
+
+  it('the summary row of each output shows the JSON figures, rounded', () => {
+    for (const [name, o] of Object.entries(json.outputs)) {
+      const row = text.split('\n').find((l) => l.startsWith(`│ ${name} `));
+      expect(row, name).toBeDefined();
+      const cells = row!.split('│').map((c) => c.trim()).filter((c) => c !== '');
+      expect(displayedMatches(cells[1], o.unit, o.nominal)).toBe(true);
+      expect(displayedMatches(cells[2], o.unit, o.mean)).toBe(true);
+      expect(displayedMatches(cells[3], o.unit, o.sigma)).toBe(true);
+      expect(cells[5]).toBe(o.yieldPct === null ? '—' : formatYieldPct(o.yieldPct));
+    }
+  });
+
+  it('no NaN or Infinity anywhere; the caution and the seed are printed', () => {
+    expect(text).not.toMatch(/NaN|Infinity/);
+    expect(text).toContain('! mind the cell voltage');
+    expect(text).toContain('seed "fixture"');
+  });
+
+  it('a yield short of 100 % never rounds to 100 % (99.99996 % keeps its digits)', () => {
+    expect(formatYieldPct(99.99996)).toBe('99.999960 %');
+    expect(formatYieldPct(100)).toBe('100.00 %');
+    expect(formatYieldPct(98.764)).toBe('98.76 %');
+  });
+
+  it('shows enough digits to resolve a tenth of σ: 8.4 V with σ = 12 mV → 4 significant digits', () => {
+    expect(outputDigits(FIXTURE_RESULT.outputs.vout)).toBe(4); // 8.400 V: last digit 1 mV ≤ σ/10 = 1.2 mV
+  });
+});
+
+describe('ASCII histogram', () => {
+  const output = FIXTURE_RESULT.outputs.vout;
+  const lines = renderAsciiHistogram(output, { rows: 16 }).split('\n');
+
+  it('one row per display bin, with both spec-limit lines in order between the rows', () => {
+    const rows = lines.filter((l) => l.includes('|'));
+    expect(rows).toHaveLength(displayBins(output.histogram, 16).length); // 200 fine bins, factor 13 → 16 rows
+    const low = lines.findIndex((l) => l.includes('spec low'));
+    const high = lines.findIndex((l) => l.includes('spec high'));
+    expect(low).toBeGreaterThan(0);
+    expect(high).toBeGreaterThan(low);
+  });
+
+  it("rows whose middle lies outside the window are drawn with 'x', inside with '#'", () => {
+    const bins = displayBins(output.histogram, 16);
+    const rows = lines.filter((l) => l.includes('|'));
+    bins.forEach((bin, i) => {
+      if (bin.count === 0) return;
+      const middle = (bin.low + bin.high) / 2;
+      const inside = middle >= output.spec![0] && middle <= output.spec![1];
+      expect(rows[i]).toContain(inside ? '#' : 'x');
+    });
+  });
+
+  it('each row ends with its exact trial count', () => {
+    const bins = displayBins(output.histogram, 16);
+    const rows = lines.filter((l) => l.includes('|'));
+    rows.forEach((row, i) => expect(row.trim().endsWith(bins[i].count.toLocaleString('en-US'))).toBe(true));
+  });
+});
