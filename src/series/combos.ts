@@ -5,6 +5,7 @@
 // `count` steps outward on each side gives every pair that can be among the `count` best for that a.
 // Cost O(n·(log n + count)) for a pool of n values, against O(n²) for the double loop (kept in the tests).
 import { InputError } from '../errors.js';
+import { formatEngineering } from '../units/index.js';
 import { seriesValuesBetween } from './enumerate.js';
 import type { SeriesName } from './load.js';
 import { relativeErrorPct } from './relative-error.js';
@@ -91,7 +92,7 @@ export function bestCombinations(value: number, series: SeriesName | readonly nu
     throw new InputError(where, `target resistance must be a positive finite number, got ${value}`, 'a resistance > 0');
   }
   if (value < PART_MIN_OHMS || value > PART_MAX_OHMS) {
-    throw new InputError(where, `target ${value} Ω is outside the span of orderable resistors`, '1 mΩ to 1 GΩ (common practice)');
+    throw new InputError(where, `target ${formatEngineering(value, 'Ω')} is outside the span of orderable resistors`, '1 mΩ to 1 GΩ (common practice)');
   }
   if (!Number.isInteger(count) || count < 1) throw new InputError('count', `count must be a whole number ≥ 1, got ${count}`, '1, 2, 3, …');
   const pool = combinationPool(value, series);
