@@ -229,6 +229,8 @@ function run(options: SenseOptions): void {
 export function senseCommand(): Command {
   return new Command('sense')
     .description('pick shunt, gain resistors and threshold for a current limit; Pareto front of shunt loss against limit spread')
+    // main.ts prints commander's errors as one line; a subcommand does not inherit the program's silenced output.
+    .configureOutput({ outputError: () => undefined })
     .addOption(new Option('--limit <A>', 'target current limit, e.g. 3A or 750mA').argParser(currentOption('--limit')).makeOptionMandatory())
     .addOption(new Option('--topology <name>', 'sense circuit').choices([...SENSE_TOPOLOGIES]).default('noninv'))
     .addOption(new Option('--threshold <V>', 'threshold the amplified shunt signal meets').argParser(voltageOption('--threshold')))
