@@ -87,7 +87,7 @@ describe('round trips parse(format(x)) === x', () => {
   it('decade edges: 9.76 k → 10.0 k (E96), 976 m → 1.00 (E96), 9.1 M → 10 M (E24)', () => {
     const e96 = seriesValuesBetween('E96', 9e3, 11e3);
     expect(e96.map((v) => formatEngineering(v, 'Ω'))).toEqual(['9.09 kΩ', '9.31 kΩ', '9.53 kΩ', '9.76 kΩ', '10.0 kΩ', '10.2 kΩ', '10.5 kΩ', '10.7 kΩ', '11.0 kΩ']);
-    expect(seriesValuesBetween('E96', 0.95, 1.03).map(formatRkm)).toEqual(['R976', '1R0', '1R02']);
+    expect(seriesValuesBetween('E96', 0.96, 1.03).map(formatRkm)).toEqual(['R976', '1R0', '1R02']);
     expect(seriesValuesBetween('E24', 9e6, 10.5e6).map(formatRkm)).toEqual(['9M1', '10M']);
   });
   it('random 3-significant-digit values, any decade from 1 mΩ to 1 GΩ, volts and amperes too (fast-check)', () => {
