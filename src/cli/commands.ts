@@ -1,8 +1,9 @@
 // The list of subcommands. Each module exports a factory returning its commander Command;
 // add one import and one entry here to register a new command.
 import type { Command } from 'commander';
+import { dividerCommand } from './divider.js';
 import { nearestCommand } from './nearest.js';
 import { senseCommand } from './sense.js';
 import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, senseCommand];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand];

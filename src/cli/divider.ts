@@ -1,0 +1,219 @@
+// `trimfree divider`: feedback-divider resistors for a target output (fixed), or fixed resistors around a pot so
+// every unit covers an output range (adjustable). A thin command: parse, call pickDivider, print.
+import { Command, Option } from 'commander';
+import Table from 'cli-table3';
+import { InputError } from '../errors.js';
+import { DIVIDER_DEFAULTS, pickDivider, type AdjustableDividerResult, type DividerCandidate, type FixedDividerResult } from '../pick/divider.js';
+import { parseSeriesName, type SeriesName } from '../series/load.js';
+import { readStockFile } from '../series/stock.js';
+import {
+  formatEngineering,
+  formatPercent,
+  formatRkm,
+  formatSignedPercent,
+  parseResistance,
+  parseVoltage,
+  parseCurrent,
+  type Range,
+} from '../units/index.js';
+import {
+  currentOption,
+  integerOption,
+  percentOption,
+  rangeOption,
+  resistanceOption,
+  voltageOption,
+} from './option-parsers.js';
+import { COMPACT_TABLE } from './values.js';
+
+interface DividerOptions {
+  vref: number;
+  vout: Range;
+  ifb: number;
+  series: SeriesName[];
+  stock?: string;
+  parts: number;
+  bottom: Range;
+  current?: Range;
+  max: number;
+  biasRatio: number;
+  tolerance?: number;
+  vrefTol: number;
+  maxError?: number;
+  top: number;
+  pot?: number;
+  potTol: number;
+  potLeg: 'top' | 'bottom';
+  json?: boolean;
+}
+
+const ohms = (r: number): string => formatEngineering(r, 'Ω');
+const volts = (v: number): string => formatEngineering(v, 'V', 4);
+
+function seriesListOption(text: string): SeriesName[] {
+  const names = text.split(',').map((part) => part.trim());
+  if (names.some((name) => name === '')) throw new InputError('--series', `empty name in '${text}'`, 'a comma-separated list such as E24,E96');
+  return names.map((name) => parseSeriesName(name, '--series'));
+}
+
+function legText(c: DividerCandidate, leg: 'top' | 'bottom'): string {
+  const parts = c.parts.filter((p) => p.leg === leg).map((p) => p.ohms);
+  const kind = leg === 'top' ? c.topKind : c.bottomKind;
+  if (parts.length === 1) return `${ohms(parts[0]!)} ${formatRkm(parts[0]!)}`;
+  const joint = kind === 'series' ? ' + ' : ' ∥ ';
+  return `${parts.map(ohms).join(joint)}\n= ${formatEngineering(leg === 'top' ? c.top : c.bottom, 'Ω', 5)} (${parts.map(formatRkm).join(joint.trim())})`;
+}
+
+function powerText(watts: number): string {
+  return watts >= 1e-3 ? formatEngineering(watts, 'W', 2) : formatEngineering(watts, 'W', 1);
+}
+
+function printFixed(result: FixedDividerResult): void {
+  const s = result.settings;
+  const table = new Table({
+    head: ['#', 'top', 'bottom', 'series', 'Vout', 'error', 'Ifb part', 'I divider', 'power each', 'worst case'],
+    colAligns: ['right', 'left', 'left', 'left', 'right', 'right', 'right', 'right', 'left', 'left'],
+    ...COMPACT_TABLE,
+  });
+  result.candidates.forEach((c, i) => {
+    table.push([
+      String(i + 1),
+      legText(c, 'top'),
+      legText(c, 'bottom'),
+      c.series,
+      formatEngineering(c.vout, 'V', 5),
+      formatSignedPercent(c.errorPct / 100, 3),
+      formatSignedPercent(c.ifbShiftPct / 100, 3),
+      formatEngineering(c.dividerCurrent, 'A'),
+      c.parts.map((p) => powerText(p.powerW)).join(' / '),
+      `${volts(c.worstCase.min)} … ${volts(c.worstCase.max)}`,
+    ]);
+  });
+  process.stdout.write(
+    `${settingsLine(result)}\n${table.toString()}\n` +
+      `error: Vout vs ${volts(s.vout.lo)} with Ifb included; Ifb part: Ifb·Rtop as a share of the target; ` +
+      `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR, no Ifb spread).\n` +
+      NOTES,
+  );
+}
+
+function printAdjustable(result: AdjustableDividerResult): void {
+  const s = result.settings;
+  const table = new Table({
+    head: ['#', 'fixed top', 'fixed bottom', 'series', 'nominal range', 'every unit covers', 'travel used', 'I divider', 'pot power'],
+    colAligns: ['right', 'left', 'left', 'left', 'left', 'left', 'right', 'left', 'right'],
+    ...COMPACT_TABLE,
+  });
+  result.candidates.forEach((c, i) => {
+    table.push([
+      String(i + 1),
+      c.top > 0 ? `${ohms(c.top)} ${formatRkm(c.top)}` : 'none',
+      `${ohms(c.bottom)} ${formatRkm(c.bottom)}`,
+      c.series,
+      `${volts(c.nominal.low)} … ${volts(c.nominal.high)}`,
+      `${volts(c.guaranteed.low)} … ${volts(c.guaranteed.high)}`,
+      `${c.travelUsedPct.toFixed(1)} %`,
+      c.dividerCurrent.min === c.dividerCurrent.max
+        ? formatEngineering(c.dividerCurrent.min, 'A')
+        : `${formatEngineering(c.dividerCurrent.min, 'A')} … ${formatEngineering(c.dividerCurrent.max, 'A')}`,
+      powerText(c.pot.powerW),
+    ]);
+  });
+  process.stdout.write(
+    `${settingsLine(result)}\n` +
+      `pot ${ohms(s.pot.ohms)} ±${formatPercent(s.pot.tolerance, 0)} in the ${s.pot.leg} leg, as a rheostat (wiper tied to one track end)\n` +
+      `${table.toString()}\n` +
+      `every unit covers: the range reachable at every corner of resistor, pot and Vref tolerance; ` +
+      `travel used: target span / nominal span (higher is finer adjustment).\n` +
+      (s.pot.leg === 'bottom'
+        ? 'A pot in the bottom leg that opens drives the output to the regulator\'s maximum: consider the top leg.\n'
+        : '') +
+      NOTES,
+  );
+}
+
+function settingsLine(result: FixedDividerResult | AdjustableDividerResult): string {
+  const s = result.settings;
+  const target = s.vout.lo === s.vout.hi ? volts(s.vout.lo) : `${volts(s.vout.lo)} … ${volts(s.vout.hi)}`;
+  return (
+    `Vref ${volts(s.vref)} ±${formatPercent(s.vrefTolerance, 2)}, Ifb ${formatEngineering(s.ifb, 'A')}, target ${target}; ` +
+    `values from ${s.sources.join(', ')}, resistors ±${formatPercent(s.tolerance, 2)} (${s.toleranceSource}); ` +
+    `bottom ${ohms(s.window.lo)} … ${ohms(s.window.hi)}`
+  );
+}
+
+const NOTES =
+  'Vref, its tolerance and the feedback-pin bias current Ifb come from the regulator\'s datasheet.\n' +
+  'Where the output charges a battery, check the worst-case maximum against the cell maker\'s charge-voltage limit.\n';
+
+function run(options: DividerOptions): void {
+  if (options.parts !== 2 && options.parts !== 3) {
+    throw new InputError('--parts', `${options.parts} parts is not offered`, '2 (one resistor a leg) or 3 (one leg may be two resistors)');
+  }
+  const stock = options.stock !== undefined ? readStockFile(options.stock, '--stock') : undefined;
+  const result = pickDivider({
+    vref: options.vref,
+    vout: options.vout,
+    ifb: options.ifb,
+    series: options.series,
+    stock,
+    maxParts: options.parts,
+    bottom: options.bottom,
+    current: options.current,
+    minOhms: DIVIDER_DEFAULTS.minOhms,
+    maxOhms: options.max,
+    biasRatio: options.biasRatio,
+    tolerance: options.tolerance,
+    vrefTolerance: options.vrefTol,
+    maxError: options.maxError,
+    count: options.top,
+    pot: options.pot !== undefined ? { ohms: options.pot, tolerance: options.potTol, leg: options.potLeg } : undefined,
+  });
+  if (options.json) {
+    process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);
+    return;
+  }
+  if (result.mode === 'fixed') printFixed(result);
+  else printAdjustable(result);
+}
+
+export function dividerCommand(): Command {
+  const d = DIVIDER_DEFAULTS;
+  return new Command('divider')
+    .description('feedback-divider resistors for a target output voltage, or fixed resistors around a pot for an adjustable output')
+    .addOption(new Option('--vref <volts>', "the regulator's reference (feedback-pin) voltage, from its datasheet").argParser(voltageOption('--vref')).makeOptionMandatory())
+    .addOption(new Option('--vout <volts>', 'target output, or LO..HI with --pot').argParser(rangeOption(parseVoltage, '--vout')).makeOptionMandatory())
+    .addOption(new Option('--ifb <amps>', 'feedback-pin bias current, positive into the pin, from the datasheet').argParser(currentOption('--ifb')).default(0, '0'))
+    .addOption(new Option('--series <list>', 'E-series to draw from, e.g. E24,E96').argParser(seriesListOption).default(d.series, d.series.join(',')))
+    .addOption(new Option('--stock <file>', 'use only the values in this list (one a line, or a CSV with a value column)'))
+    .addOption(new Option('--parts <n>', '2: one resistor a leg; 3: one leg may be two in series or parallel').argParser(integerOption('--parts', 2, 3)).default(2))
+    .addOption(new Option('--bottom <range>', 'bottom resistor range, LO..HI').argParser(rangeOption(parseResistance, '--bottom')).default(d.bottom, '1k..100k'))
+    .addOption(new Option('--current <range>', 'divider current window Vref/Rbottom, LO..HI').argParser(rangeOption(parseCurrent, '--current')))
+    .addOption(new Option('--max <ohms>', 'largest resistor').argParser(resistanceOption('--max')).default(d.maxOhms, '1M'))
+    .addOption(new Option('--bias-ratio <n>', 'divider current at least n × |Ifb| (0: off)').argParser(integerOption('--bias-ratio', 0, 1e6)).default(d.biasRatio))
+    .addOption(new Option('--tolerance <pct>', 'resistor tolerance (default: the series\' usual, E96 1 %)').argParser(percentOption('--tolerance')))
+    .addOption(new Option('--vref-tol <pct>', 'reference tolerance').argParser(percentOption('--vref-tol')).default(d.vrefTolerance, '1%'))
+    .addOption(new Option('--max-error <pct>', 'largest output error accepted (default: the resistor tolerance)').argParser(percentOption('--max-error')))
+    .addOption(new Option('--top <n>', 'candidates shown').argParser(integerOption('--top', 1, 200)).default(d.count))
+    .addOption(new Option('--pot <ohms>', 'potentiometer for an adjustable output (needs --vout LO..HI)').argParser(resistanceOption('--pot')))
+    .addOption(new Option('--pot-tol <pct>', 'pot track tolerance').argParser(percentOption('--pot-tol')).default(d.potTolerance, '20%'))
+    .addOption(new Option('--pot-leg <leg>', 'leg holding the pot').choices(['top', 'bottom']).default('top'))
+    .option('--json', 'print JSON: { settings, candidates: [{ top, bottom, vout, errorPct, parts, ... }] } in ohms, volts, amperes, watts')
+    .addHelpText(
+      'after',
+      `
+Vout = Vref·(1 + Rtop/Rbottom) + Ifb·Rtop. Take Vref, its tolerance and the feedback-pin bias current
+from the regulator's datasheet. Candidates are ranked by |error|, then fewer parts, then the more common
+series, then divider current nearest the middle of the window; the search is exhaustive.
+The bias-ratio rule (divider current ≥ 100 × |Ifb|) is common practice.
+With --pot the pot is a rheostat (wiper tied to one track end) in series with the leg's fixed resistor.
+
+Examples:
+  $ trimfree divider --vref 1.25 --vout 12
+  $ trimfree divider --vref 0.8 --vout 5 --ifb 50n --series E24,E96 --parts 3
+  $ trimfree divider --vref 1.25 --vout 12 --bottom 3k3..3k3 --series E24,E96 --max-error 2%
+  $ trimfree divider --vref 1.25 --vout 14.4 --stock my-resistors.txt --json
+  $ trimfree divider --vref 1.25 --vout 3.3..24 --pot 100k --pot-leg top`,
+    )
+    .action((options: DividerOptions) => run(options));
+}
