@@ -218,3 +218,24 @@ describe('Pareto front of two minimised objectives', () => {
     }
   });
 });
+
+describe('edge cases', () => {
+  it('zero tolerances and offsets: the worst case collapses onto the nominal, and loss decides the ranking', () => {
+    const pick = pickSense(request({ shuntTolerance: 0, resistorTolerance: 0, threshold: { kind: 'fixed', volts: 1, tolerance: 0 }, amplifierOffset: 0 }));
+    for (const c of pick.candidates) {
+      expect(c.worstCase.min).toBe(c.limit);
+      expect(c.worstCase.max).toBe(c.limit);
+    }
+    const exact = pick.candidates.filter((c) => Math.abs(c.errorPct) < 1e-9);
+    const losses = exact.map((c) => c.shuntLossW);
+    expect(losses).toEqual([...losses].sort((x, y) => x - y));
+  });
+  it('a window holding one value: only that gain is reachable, and the request says so', () => {
+    const error = impossible(() => pickSense(request({ resistorValues: [1.5e3] })));
+    expect(error.where).toBe('--threshold');
+    expect(error.message).toMatch(/2\.000–2\.000/);
+  });
+  it('a threshold from a reference below it is impossible', () => {
+    expect(impossible(() => pickSense(request({ threshold: { kind: 'divider', reference: 0.8, tolerance: 0.01, volts: 1 } }))).where).toBe('--threshold');
+  });
+});

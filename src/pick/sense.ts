@@ -109,7 +109,11 @@ export function pickSense(request: SenseRequest): SensePick {
     candidates.push(bestOf(fitting, centre).candidate);
   }
   if (candidates.length === 0) throw nothingFits(request, shunts, rejected);
-  candidates.sort((x, y) => x.worstCaseSpreadPct - y.worstCaseSpreadPct || x.shuntLossW - y.shuntLossW);
+  // Spreads equal to 1e-9 % (rounding) count as equal, so loss decides between them.
+  candidates.sort((x, y) => {
+    const spread = x.worstCaseSpreadPct - y.worstCaseSpreadPct;
+    return Math.abs(spread) > 1e-9 ? spread : x.shuntLossW - y.shuntLossW;
+  });
   const pareto = paretoFront(candidates, (c) => c.shuntLossW, (c) => c.worstCaseSpreadPct);
   for (const key of Object.keys(rejected)) if (rejected[key] === 0) delete rejected[key];
   return { target: request.limit, candidates, pareto, considered, rejected };
