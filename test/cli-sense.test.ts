@@ -78,3 +78,17 @@ describe('trimfree sense (subprocess)', () => {
     expectOneLineError(sense('--limit', '3A', '--threshold', '1V', '--common-mode', '24V'), /^trimfree: --common-mode: .*low side/);
   });
 });
+
+describe('trimfree sense --help', () => {
+  it('every example in the help runs and exits 0', () => {
+    const help = spawnSync(process.execPath, [MAIN, 'sense', '--help'], { encoding: 'utf8' }).stdout;
+    const examples = help.split('\n').filter((line) => line.trim().startsWith('$ trimfree sense '));
+    expect(examples.length).toBeGreaterThanOrEqual(4);
+    for (const line of examples) {
+      const args = line.trim().replace('$ trimfree sense ', '').split(/\s+/);
+      const r = sense(...args);
+      expect(r.stderr).toBe('');
+      expect(r.status).toBe(0);
+    }
+  });
+});

@@ -46,8 +46,8 @@ interface SenseOptions {
 }
 
 export const SHUNT_CAUTION =
-  'Caution: a shunt at the current limit runs hot. Check its temperature rise and the power derating curve in its ' +
-  'datasheet at your hottest ambient (using about 50–60 % of the rating is common practice), and keep it clear of ' +
+  'Caution: a shunt at the current limit runs hot. Check its temperature rise and the power derating curve in its\n' +
+  'datasheet at your hottest ambient (using about 50–60 % of the rating is common practice); keep it clear of\n' +
   'heat-sensitive parts.';
 
 /** "10m,20m,R05" → ohms; each entry in any resistance notation. */
@@ -179,6 +179,13 @@ function describeRequest(request: SenseRequest, options: SenseOptions): string {
   ].join('\n');
 }
 
+function highSideNote(commonMode: number): string {
+  return (
+    `high side: resistor mismatch turns the ${formatEngineering(commonMode, 'V')} common mode into limit error (worst-case CMRR of four\n` +
+    `resistors of tolerance t is about (1 + G)/(4t), from memory); a tighter --tolerance or a matched network narrows it.\n`
+  );
+}
+
 function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
   return {
     target: pick.target,
@@ -199,7 +206,7 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
     pareto: pick.pareto.map((c) => ({ parts: c.parts, shuntLossW: c.shuntLossW, worstCaseSpreadPct: c.worstCaseSpreadPct })),
     considered: pick.considered,
     rejected: pick.rejected,
-    cautions: [SHUNT_CAUTION],
+    cautions: [SHUNT_CAUTION.replace(/\n/g, ' ')],
   };
 }
 
@@ -222,6 +229,7 @@ function run(options: SenseOptions): void {
       `extremes (vertex enumeration, exact for these monotonic transfers); spread: larger distance from the target to\n` +
       `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
       (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
+      (request.commonMode !== 0 ? highSideNote(request.commonMode) : '') +
       `\nPareto front: no other candidate is both cooler and tighter\n${paretoTable(pick)}\n\n${SHUNT_CAUTION}\n`,
   );
 }
@@ -236,7 +244,7 @@ export function senseCommand(): Command {
     .addOption(new Option('--threshold <V>', 'threshold the amplified shunt signal meets').argParser(voltageOption('--threshold')))
     .addOption(new Option('--threshold-tol <pct>', 'tolerance of the threshold (or of the reference with --threshold-from)').argParser(percentOption('--threshold-tol')).default(0.01, '1 %'))
     .addOption(new Option('--threshold-from <Vref>', 'derive the threshold from this reference through a picked divider RT1/RT2').argParser(voltageOption('--threshold-from')))
-    .addOption(new Option('--shunts <list>', 'shunt values, comma-separated, any notation').argParser(parseShuntList).default(undefined, 'series/shunts-milliohm.json'))
+    .addOption(new Option('--shunts <list>', 'shunt values, comma-separated, any notation (default: the list in series/shunts-milliohm.json)').argParser(parseShuntList))
     .addOption(new Option('--shunt-tol <pct>', 'shunt tolerance').argParser(percentOption('--shunt-tol')).default(0.01, '1 %'))
     .addOption(new Option('--shunt-rating <W>', 'shunt power rating').argParser(powerOption('--shunt-rating')).default(1, '1 W'))
     .addOption(new Option('--derate <pct>', 'share of the rating the shunt may use at the hottest ambient (common practice)').argParser(percentOption('--derate')).default(DEFAULT_SHUNT_DERATING, '50 %'))
