@@ -1,0 +1,101 @@
+// The values of individual Monte Carlo trials, drawn exactly as the engine draws them (chunk k from Alea seeded
+// `${seed}:k`, every part filled for the whole chunk in model order, then every output evaluated), so trial j here is
+// trial j of the engine's run with the same seed, chunk size and trial count. Used for the samples CSV and for the
+// joint yield (every spec met by one unit), which the per-output summaries cannot give.
+import { fillPart } from '../tolerance/sample.js';
+import { chunkRandom } from './chunk-random.js';
+import { DEFAULT_CHUNK_SIZE } from './chunk.js';
+import type { Model } from './model.js';
+import type { Interval } from './result.js';
+import { wilsonInterval } from './statistics/wilson.js';
+
+export interface TrialStream {
+  seed: string;
+  /** Trials per chunk (the engine's default unless the run changed it). */
+  chunkSize?: number;
+  /** The run's total trial count (the last chunk may be short), or 0 for an open-ended ('auto') run. */
+  runTrials: number;
+}
+
+/** Calls `visit` chunk by chunk with the part values and output values of trials [offset, offset + n). */
+export function forEachTrialChunk(
+  model: Model,
+  stream: TrialStream,
+  count: number,
+  visit: (parts: Float64Array[], outputs: Float64Array[], n: number, offset: number) => void,
+): void {
+  const chunkSize = stream.chunkSize ?? DEFAULT_CHUNK_SIZE;
+  const p = model.parts.map(() => new Float64Array(chunkSize));
+  const out = model.outputs.map(() => new Float64Array(chunkSize));
+  for (let k = 0, offset = 0; offset < count; k++) {
+    // The engine's chunk length: full chunks, the last one cut at the run's trial count.
+    const length = stream.runTrials === 0 ? chunkSize : Math.max(0, Math.min(chunkSize, stream.runTrials - k * chunkSize));
+    if (length === 0) break;
+    const random = chunkRandom(stream.seed, k);
+    for (let i = 0; i < model.parts.length; i++) fillPart(model.parts[i]!, p[i]!, length, random);
+    for (let o = 0; o < model.outputs.length; o++) model.outputs[o]!.evaluate(p, out[o]!, length);
+    const n = Math.min(length, count - offset);
+    visit(p, out, n, offset);
+    offset += n;
+  }
+}
+
+export interface TrialValues {
+  partNames: string[];
+  outputNames: string[];
+  /** parts[i][j]: part i in trial j; outputs[o][j]: output o in trial j. */
+  parts: Float64Array[];
+  outputs: Float64Array[];
+  count: number;
+}
+
+/** The first `count` trials of a run, part values and outputs. */
+export function firstTrials(model: Model, stream: TrialStream, count: number): TrialValues {
+  const total = stream.runTrials === 0 ? count : Math.min(count, stream.runTrials);
+  const parts = model.parts.map(() => new Float64Array(total));
+  const outputs = model.outputs.map(() => new Float64Array(total));
+  forEachTrialChunk(model, stream, total, (p, out, n, offset) => {
+    p.forEach((values, i) => parts[i]!.set(values.subarray(0, n), offset));
+    out.forEach((values, o) => outputs[o]!.set(values.subarray(0, n), offset));
+  });
+  return { partNames: model.parts.map((p) => p.name), outputNames: model.outputs.map((o) => o.name), parts, outputs, count: total };
+}
+
+export interface JointYield {
+  /** Outputs with a spec window (the ones a unit must meet). */
+  outputs: string[];
+  trials: number;
+  inSpec: number;
+  /** Percent of trials meeting every spec window at once, with its 95 % Wilson interval in %. */
+  pct: number;
+  interval: Interval;
+}
+
+/**
+ * Share of trials in which every output with a spec window is inside it: the yield of a unit that must meet all
+ * of them. Same inclusive test as the engine's per-output yield (lo ≤ y ≤ hi). With one spec window it equals that
+ * output's yield exactly.
+ */
+export function jointYield(model: Model, stream: TrialStream & { runTrials: number }, trials: number): JointYield {
+  const checked = model.outputs.map((o, i) => ({ i, spec: o.spec })).filter((c): c is { i: number; spec: [number, number] } => c.spec !== undefined);
+  let inSpec = 0;
+  forEachTrialChunk(model, stream, trials, (_p, out, n) => {
+    for (let j = 0; j < n; j++) {
+      let ok = true;
+      for (let c = 0; c < checked.length && ok; c++) {
+        const v = out[checked[c]!.i]![j]!;
+        const [lo, hi] = checked[c]!.spec;
+        ok = v >= lo && v <= hi;
+      }
+      if (ok) inSpec++;
+    }
+  });
+  const w = wilsonInterval(inSpec, trials);
+  return {
+    outputs: checked.map((c) => model.outputs[c.i]!.name),
+    trials,
+    inSpec,
+    pct: trials > 0 ? (100 * inSpec) / trials : 0,
+    interval: { low: 100 * w.low, high: 100 * w.high },
+  };
+}
