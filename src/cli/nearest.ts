@@ -87,7 +87,7 @@ export function nearestCommand(): Command {
   return new Command('nearest')
     .description('standard values below, above and nearest a target resistance, and the best two-part series or parallel pairs')
     .addArgument(new Argument('<value>', 'target resistance, e.g. 28.38k, 4K7, 10 mΩ').argParser((text: string) => parseResistance(text, 'value')))
-    .addOption(new Option('--series <name>', `the E-series: ${SERIES_NAMES.join(', ')}`).argParser(seriesOption('--series')).default('E24'))
+    .addOption(new Option('--series <name>', `E-series, ${SERIES_NAMES[0]} to ${SERIES_NAMES.at(-1)}`).argParser(seriesOption('--series')).default('E24', 'E24'))
     .addOption(new Option('--count <n>', 'pairs listed per kind (series, parallel)').argParser(integerOption('--count', 1, 50)).default(3))
     .option('--json', 'print JSON: below, above, nearest (ohms), errorPct, combos')
     .addHelpText(
