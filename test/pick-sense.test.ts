@@ -239,3 +239,12 @@ describe('edge cases', () => {
     expect(impossible(() => pickSense(request({ threshold: { kind: 'divider', reference: 0.8, tolerance: 0.01, volts: 1 } }))).where).toBe('--threshold');
   });
 });
+
+describe('loss at the worst-case limit', () => {
+  it('is I²R at the worst-case highest limit (Joule), above the nominal loss', () => {
+    for (const c of pickSense(request()).candidates) {
+      expect(c.worstCaseLossW).toBeCloseTo(c.worstCase.max ** 2 * c.parts['RS']!, 12);
+      expect(c.worstCaseLossW).toBeGreaterThan(c.shuntLossW);
+    }
+  });
+});

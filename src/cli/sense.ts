@@ -113,6 +113,11 @@ function gainCell(c: SenseCandidate): string {
   return '';
 }
 
+/** The worst-case highest limit drives the shunt past its derated rating. */
+function overRating(c: SenseCandidate): boolean {
+  return c.worstCase.max > c.shuntMaxCurrent;
+}
+
 function gainHead(topology: SenseTopologyName): string {
   return topology === 'noninv' ? 'RF / RG' : topology === 'diff' ? 'R1=R3 / R2=R4' : '';
 }
@@ -133,7 +138,7 @@ function candidateTable(candidates: SenseCandidate[], topology: SenseTopologyNam
       formatSignedPercent(c.errorPct / 100),
       formatEngineering(c.shuntVoltage, 'V'),
       formatEngineering(c.shuntLossW, 'W'),
-      formatEngineering(c.shuntMaxCurrent, 'A'),
+      `${formatEngineering(c.shuntMaxCurrent, 'A')}${overRating(c) ? ' !' : ''}`,
     );
     if (topology !== 'direct') row.push(formatEngineering(c.outputAtLimit, 'V'));
     row.push(
@@ -198,6 +203,7 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
       shuntVoltage: c.shuntVoltage,
       shuntLossW: c.shuntLossW,
       shuntMaxCurrent: c.shuntMaxCurrent,
+      worstCaseLossW: c.worstCaseLossW,
       outputAtLimit: c.outputAtLimit,
       offsetErrorPct: c.offsetErrorPct,
       worstCase: c.worstCase,
@@ -228,6 +234,7 @@ function run(options: SenseOptions): void {
       `offsets: largest limit change from Vos, Ib and the comparing offset; worst case: every tolerance and offset at its\n` +
       `extremes (vertex enumeration, exact for these monotonic transfers); spread: larger distance from the target to\n` +
       `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
+      (shown.some(overRating) ? `!: the worst-case highest limit exceeds the shunt's derated rating (the loss there is listed in --json as worstCaseLossW).\n` : '') +
       (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
       (request.commonMode !== 0 ? highSideNote(request.commonMode) : '') +
       `\nPareto front: no other candidate is both cooler and tighter\n${paretoTable(pick)}\n\n${SHUNT_CAUTION}\n`,

@@ -64,7 +64,7 @@ function bestOf(designs: EvaluatedDesign[], centre: number): EvaluatedDesign {
 }
 
 function allFinite(c: SenseCandidate): boolean {
-  const numbers = [c.gain, c.threshold, c.limit, c.errorPct, c.shuntVoltage, c.shuntLossW, c.shuntMaxCurrent, c.outputAtLimit, c.offsetErrorPct, c.worstCase.min, c.worstCase.max, c.worstCaseSpreadPct, ...Object.values(c.parts)];
+  const numbers = [c.gain, c.threshold, c.limit, c.errorPct, c.shuntVoltage, c.shuntLossW, c.shuntMaxCurrent, c.worstCaseLossW, c.outputAtLimit, c.offsetErrorPct, c.worstCase.min, c.worstCase.max, c.worstCaseSpreadPct, ...Object.values(c.parts)];
   return numbers.every(Number.isFinite);
 }
 

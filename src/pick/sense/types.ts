@@ -71,6 +71,8 @@ export interface SenseCandidate {
   shuntLossW: number;
   /** Largest current the shunt may carry at the derated rating, A. */
   shuntMaxCurrent: number;
+  /** Shunt loss at the worst-case highest limit, W (above derating × rating when the spread eats the margin). */
+  worstCaseLossW: number;
   /** Amplifier output at the nominal limit (direct: the shunt voltage), V. */
   outputAtLimit: number;
   /** Largest change of the limit from offsets and bias currents alone, % of the target. */
