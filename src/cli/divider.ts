@@ -215,5 +215,6 @@ Examples:
   $ trimfree divider --vref 1.25 --vout 14.4 --stock my-resistors.txt --json
   $ trimfree divider --vref 1.25 --vout 3.3..24 --pot 100k --pot-leg top`,
     )
+    .configureOutput({ outputError: () => undefined }) // src/cli/main.ts prints the one-line error
     .action((options: DividerOptions) => run(options));
 }

@@ -3,6 +3,7 @@
 // (divider current at least `biasRatio` × |Ifb| so the pin's bias current barely moves the output: common practice,
 // 100× by default). An empty intersection is an ImpossibleError naming the constraints that clash.
 import { ImpossibleError } from '../../errors.js';
+import { formatEngineering } from '../../units/index.js';
 
 export interface Interval {
   lo: number;
@@ -33,18 +34,18 @@ export function bottomWindow(request: BottomWindowRequest): BottomWindow {
   const { vref, ifb, bottom, current, biasRatio } = request;
   let lo = bottom.lo;
   let hi = bottom.hi;
-  const clauses = [`--bottom ${bottom.lo}..${bottom.hi} Ω`];
+  const clauses = [`--bottom ${fmt(bottom.lo)}..${fmt(bottom.hi)}`];
   if (current) {
     lo = Math.max(lo, vref / current.hi);
     hi = Math.min(hi, current.lo > 0 ? vref / current.lo : Infinity);
-    clauses.push(`--current ${current.lo}..${current.hi} A (Rbottom ${fmt(vref / current.hi)}..${fmt(vref / current.lo)} Ω)`);
+    clauses.push(`--current ${formatEngineering(current.lo, 'A')}..${formatEngineering(current.hi, 'A')} (Rbottom ${fmt(vref / current.hi)}..${fmt(vref / current.lo)})`);
   }
   let biasLimit = ifb < 0 ? (vref / -ifb) * (1 - 1e-9) : Infinity;
   if (biasRatio > 0 && ifb !== 0) {
     const ruleMax = vref / (biasRatio * Math.abs(ifb));
     biasLimit = Math.min(biasLimit, ruleMax);
     hi = Math.min(hi, ruleMax);
-    clauses.push(`the feedback-pin rule (divider current ≥ ${biasRatio}×|Ifb| needs Rbottom ≤ ${fmt(ruleMax)} Ω)`);
+    clauses.push(`the feedback-pin rule (divider current ≥ ${biasRatio}×|Ifb| needs Rbottom ≤ ${fmt(ruleMax)})`);
   }
   if (ifb < 0) {
     // A bias current out of the pin larger than Vref/Rbottom leaves no current for Rtop: no output above Vref.
@@ -61,5 +62,5 @@ export function bottomWindow(request: BottomWindowRequest): BottomWindow {
 }
 
 function fmt(ohms: number): string {
-  return Number.isFinite(ohms) ? Number(ohms.toPrecision(4)).toString() : '∞';
+  return Number.isFinite(ohms) ? formatEngineering(ohms, 'Ω') : 'no limit';
 }
