@@ -159,17 +159,13 @@ function parseRelative(text: string, ctx: Ctx, input: unknown, unit: string): Wi
 }
 
 /**
- * Splits "LO..HI" into its two ends. A unit written once at the end applies to both: in "800..900 mV" and
- * "1..100k" the bare left end takes the right end's prefix and unit ("800 mV", "1k").
+ * Splits "LO..HI" into its two ends, each read on its own as src/units' parseRange does: "1..100k" is
+ * 1 Ω to 100 kΩ, and "800..900 mV" is 800 V to 0.9 V (inverted, so it is refused); write "800mV..900mV".
  */
 export function splitRange(text: string): [string, string] | undefined {
   const parts = text.split('..');
-  if (parts.length !== 2) return undefined;
-  const left = parts[0]!.trim();
-  const right = parts[1]!.trim();
-  const suffix = /[a-zA-Z\u00b5\u03bc\u03a9\u2126°%][a-zA-Z\u00b5\u03bc\u03a9\u2126°%/ ]*$/.exec(right);
-  const leftIsBare = /^[-+\u2212]?(\d+(\.\d*)?|\.\d+)(e[-+]?\d+)?$/i.test(left);
-  return [leftIsBare && suffix ? `${left}${suffix[0]}` : left, right];
+  if (parts.length !== 2 || parts[0]!.trim() === '' || parts[1]!.trim() === '') return undefined;
+  return [parts[0]!.trim(), parts[1]!.trim()];
 }
 
 /** A spec window field for a quantity parsed by `parse` (voltage or current). */

@@ -49,7 +49,7 @@ export function gradeForTolerance(tolerance: number): Grade | undefined {
 }
 
 /** Relative cost of each grade: the table's illustrative figures, overridden by a design file's `costs`. */
-export function gradeCosts(overrides: Partial<Record<GradeName, number>> = {}): Record<GradeName, number> {
+export function gradeCosts(overrides: { [K in GradeName]?: number | undefined } = {}): Record<GradeName, number> {
   const out = {} as Record<GradeName, number>;
   for (const g of GRADES) out[g.name] = overrides[g.name] ?? g.relativeCost;
   return out;

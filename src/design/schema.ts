@@ -33,6 +33,8 @@ export const TOPOLOGIES = ['direct', 'noninv', 'diff'] as const;
 export type Topology = (typeof TOPOLOGIES)[number];
 export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'triangular'] as const;
 export type DistributionName = (typeof DISTRIBUTIONS)[number];
+export const APPLICATIONS = ['charger', 'bench', 'led', 'other'] as const;
+export type Application = (typeof APPLICATIONS)[number];
 export const POT_LEGS = ['top', 'bottom'] as const;
 
 /** Designators of the resistors trimfree places, by role. */
@@ -82,6 +84,7 @@ const reference = z
     voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'the regulator feedback reference Vref'),
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'initial tolerance of Vref (datasheet, over temperature if given so)'),
     drift: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'long-term drift allowance of Vref').optional(),
+    tempco: describe(ppmPerK(), 'temperature coefficient bound of Vref, if the tolerance does not already cover temperature').optional(),
     notes: notes.optional(),
   })
   .meta({ description: 'the reference the regulator holds its feedback pin at' });
@@ -194,6 +197,9 @@ const threshold = z
     }
     if (t.top === undefined) issue('top', 'missing required field', '"auto" or a resistance for RT1');
     if (t.bottom === undefined) issue('bottom', 'missing required field', '"auto" or a resistance for RT2');
+    if (t.top !== undefined && t.bottom !== undefined && (t.top === 'auto') !== (t.bottom === 'auto')) {
+      issue(t.top === 'auto' ? 'top' : 'bottom', 'the threshold divider is picked as a pair', 'both top and bottom "auto", or both resistances');
+    }
     if ((t.top === 'auto' || t.bottom === 'auto') && t.voltage === undefined) {
       issue('voltage', 'an "auto" threshold divider needs a target threshold voltage', 'voltage: "0.8 V" below the reference');
     }
@@ -245,6 +251,10 @@ const currentSection = z
         for (const key of need) if (c.gain[key] === undefined) issue(['gain', key], 'missing required field', `a resistance (the ${c.topology} stage needs ${need.join(', ')})`);
         for (const key of other) if (c.gain[key] !== undefined) issue(['gain', key], `${key} does not belong to the ${c.topology} topology`, `only ${need.join(', ')}`);
       }
+    }
+    const thresholdAuto = c.threshold.top === 'auto';
+    if (c.gain !== undefined && c.gain !== 'auto' && (c.shunt.value === 'auto' || thresholdAuto)) {
+      issue(['gain'], `gain resistors are picked together with an "auto" ${c.shunt.value === 'auto' ? 'shunt' : 'threshold divider'}`, '"auto", or give the shunt and the threshold too');
     }
     if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
@@ -306,6 +316,7 @@ export const DesignSchema = z
   .strictObject({
     $schema: z.string().meta({ description: 'path or URL of the JSON Schema (for editors)' }).optional(),
     notes: notes.optional(),
+    application: z.enum(APPLICATIONS).meta({ description: 'what the supply is for (selects the cautions shown): charger, bench, led, other' }).optional(),
     reference,
     voltage: voltageSection,
     current: currentSection,

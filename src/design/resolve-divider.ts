@@ -1,0 +1,135 @@
+// The output divider of a design: the given values, or the divider picker's best candidate for "auto"; then the
+// engine's leg specs, the BOM parts and notes. Fixed outputs and adjustable ones (a pot in one leg) alike.
+import { adjustablePeakPowers, wiperForHighest, wiperForLowest, type PotLeg } from '../circuits/adjustable-divider.js';
+import type { LegSpec, ResistorSpec } from '../analysis/models/supply.js';
+import { DIVIDER_DEFAULTS, pickDivider, type DividerRequest } from '../pick/divider.js';
+import { formatEngineering, formatRkm } from '../units/index.js';
+import { dividerCurrents, resistorPower, type BomPart } from './bom.js';
+import { mapPickerError } from './picker-errors.js';
+import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
+import { DESIGNATORS, type Design } from './schema.js';
+
+/** Default pot tolerance: 20 % is the usual track tolerance of trimmer pots (common practice). */
+export const DEFAULT_POT_TOLERANCE = DIVIDER_DEFAULTS.potTolerance;
+
+/** A jumper's resistance, standing in for an absent fixed resistor beside a pot (1 µΩ: negligible). */
+const JUMPER_OHMS = 1e-6;
+
+export interface ResolvedDivider {
+  top: number;
+  bottom: number;
+  /** The top and bottom legs for the engine; with a pot, `wiper` is set for the top of the range. */
+  legs: { top: LegSpec; bottom: LegSpec };
+  /** With a pot: the legs at the bottom of the range. */
+  lowLegs?: { top: LegSpec; bottom: LegSpec };
+  pot?: { ohms: number; tolerance: number; leg: PotLeg };
+  bomParts: BomPart[];
+  notes: string[];
+  grades: { top: PartGrade; bottom: PartGrade };
+}
+
+export function resistorSpec(name: string, nominal: number, grade: PartGrade): ResistorSpec {
+  const spec: ResistorSpec = { name, nominal, tolerance: grade.tolerance, distribution: distributionSpec(grade.distribution) };
+  if (grade.tcrPerK > 0) spec.tcrPerK = grade.tcrPerK;
+  return spec;
+}
+
+/** The feedback-pin bias current the picker aims at and the engine's ± band: the given maximum is the band [0, max]. */
+export function feedbackBias(design: Design): { nominal: number; plusMinus: number } {
+  const max = design.voltage.feedbackBias ?? 0;
+  return { nominal: max / 2, plusMinus: Math.abs(max) / 2 };
+}
+
+export function resolveDivider(design: Design): ResolvedDivider {
+  const v = design.voltage;
+  const vref = design.reference.voltage;
+  const [lo, hi] = v.target;
+  const gradeTop = partGrade(design, DESIGNATORS.dividerTop);
+  const gradeBottom = partGrade(design, DESIGNATORS.dividerBottom);
+  const ifb = feedbackBias(design).nominal;
+  const notes: string[] = [];
+  const pot = v.pot ? { ohms: v.pot.value, tolerance: v.pot.tolerance ?? DEFAULT_POT_TOLERANCE, leg: v.pot.leg ?? 'top' } : undefined;
+
+  let top: number;
+  let bottom: number;
+  if (v.divider === 'auto') {
+    const request: DividerRequest = {
+      vref,
+      vout: { lo, hi },
+      ifb,
+      series: [v.search?.series ?? gradeBottom.series],
+      maxParts: 2,
+      bottom: v.search?.bottom ? { lo: v.search.bottom[0], hi: v.search.bottom[1] } : DIVIDER_DEFAULTS.bottom,
+      current: v.search?.current ? { lo: v.search.current[0], hi: v.search.current[1] } : undefined,
+      minOhms: DIVIDER_DEFAULTS.minOhms,
+      maxOhms: v.search?.max ?? DIVIDER_DEFAULTS.maxOhms,
+      biasRatio: DIVIDER_DEFAULTS.biasRatio,
+      tolerance: Math.max(gradeTop.tolerance, gradeBottom.tolerance),
+      vrefTolerance: design.reference.tolerance,
+      count: 5,
+      pot,
+    };
+    const result = mapPickerError(() => pickDivider(request), DIVIDER_OPTION_FIELDS);
+    const best = result.candidates[0]!; // the picker throws rather than return none
+    top = best.top;
+    bottom = best.bottom;
+    const how = `${request.series.join(', ')}, bottom ${formatEngineering(request.bottom.lo, 'Ω')}..${formatEngineering(request.bottom.hi, 'Ω')}`;
+    notes.push(`Divider picked (${how}): ${DESIGNATORS.dividerTop} ${top > 0 ? formatRkm(top) : 'none'}, ${DESIGNATORS.dividerBottom} ${formatRkm(bottom)}; best of ${result.candidates.length} shown by \`trimfree divider\`.`);
+  } else {
+    top = v.divider.top;
+    bottom = v.divider.bottom;
+  }
+
+  const bias = ifb;
+  const topSpec = (): ResistorSpec => (top > 0 ? resistorSpec(DESIGNATORS.dividerTop, top, gradeTop) : { name: 'jumper', nominal: JUMPER_OHMS, tolerance: 0 });
+  const leg = (which: 'top' | 'bottom', wiper: number): LegSpec => {
+    const spec: LegSpec = { resistors: [which === 'top' ? topSpec() : resistorSpec(DESIGNATORS.dividerBottom, bottom, gradeBottom)] };
+    if (pot && pot.leg === which) {
+      spec.potentiometer = { name: DESIGNATORS.pot, nominal: pot.ohms, tolerance: pot.tolerance, wiper, distribution: { kind: 'uniform' } };
+    }
+    return spec;
+  };
+
+  const bomParts: BomPart[] = [];
+  if (pot) {
+    const highWiper = wiperForHighest(pot.leg);
+    const lowWiper = wiperForLowest(pot.leg);
+    const powers = adjustablePeakPowers(vref, top, bottom, pot.ohms, pot.leg, bias);
+    const at = 'highest over the pot travel';
+    if (top > 0) bomParts.push({ designator: DESIGNATORS.dividerTop, role: 'feedback divider, top', ohms: top, tolerance: gradeTop.tolerance, tcrPerK: gradeTop.tcrPerK, powerW: powers.top, powerAt: at });
+    else notes.push(`No fixed top resistor: the pot ${DESIGNATORS.pot} alone forms the top leg.`);
+    bomParts.push({ designator: DESIGNATORS.dividerBottom, role: 'feedback divider, bottom', ohms: bottom, tolerance: gradeBottom.tolerance, tcrPerK: gradeBottom.tcrPerK, powerW: powers.bottom, powerAt: at });
+    bomParts.push({ designator: DESIGNATORS.pot, role: `adjustment pot, ${pot.leg} leg (rheostat)`, ohms: pot.ohms, tolerance: pot.tolerance, tcrPerK: 0, powerW: powers.pot, powerAt: at });
+    return {
+      top,
+      bottom,
+      legs: { top: leg('top', highWiper), bottom: leg('bottom', highWiper) },
+      lowLegs: { top: leg('top', lowWiper), bottom: leg('bottom', lowWiper) },
+      pot,
+      bomParts,
+      notes,
+      grades: { top: gradeTop, bottom: gradeBottom },
+    };
+  }
+  const currents = dividerCurrents(vref, bottom, bias);
+  const at = 'at the nominal output';
+  bomParts.push({ designator: DESIGNATORS.dividerTop, role: 'feedback divider, top', ohms: top, tolerance: gradeTop.tolerance, tcrPerK: gradeTop.tcrPerK, powerW: resistorPower(currents.top, top), powerAt: at });
+  bomParts.push({ designator: DESIGNATORS.dividerBottom, role: 'feedback divider, bottom', ohms: bottom, tolerance: gradeBottom.tolerance, tcrPerK: gradeBottom.tcrPerK, powerW: resistorPower(currents.bottom, bottom), powerAt: at });
+  return { top, bottom, legs: { top: leg('top', 0), bottom: leg('bottom', 0) }, bomParts, notes, grades: { top: gradeTop, bottom: gradeBottom } };
+}
+
+/** The divider picker's option names and the design-file fields they come from. */
+const DIVIDER_OPTION_FIELDS: Record<string, string> = {
+  '--vref': 'reference.voltage',
+  '--vout': 'voltage.target',
+  '--ifb': 'voltage.feedbackBias',
+  '--pot': 'voltage.pot',
+  '--pot-tol': 'voltage.pot.tolerance',
+  '--parts': 'voltage.divider',
+  '--bottom': 'voltage.search.bottom',
+  '--current': 'voltage.search.current',
+  '--max': 'voltage.search.max',
+  '--series': 'voltage.search.series',
+  '--tolerance': 'resistors.tolerance',
+  '--max-error': 'voltage.window',
+};

@@ -1,0 +1,173 @@
+// The current-sense path of a design: given values, or the sense picker's best candidate when the shunt, the gain
+// resistors or the threshold divider is "auto"; then the engine's SenseSpec and the picker's figures.
+import type { AmplifierSpec, ResistorSpec, SenseSpec, ShuntSpec, ThresholdSpec } from '../analysis/models/supply.js';
+import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
+import { thresholdFromReference } from '../circuits/sense/threshold-divider.js';
+import { InputError } from '../errors.js';
+import { pickSense, type SenseCandidate, type SenseRequest } from '../pick/sense.js';
+import { loadShunts } from '../series/load.js';
+import { seriesValuesBetween } from '../series/enumerate.js';
+import { formatEngineering, formatRkm, parseResistance } from '../units/index.js';
+import { mapPickerError } from './picker-errors.js';
+import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
+import { resistorSpec } from './resolve-divider.js';
+import { DESIGNATORS, type Design } from './schema.js';
+
+/** Gain and threshold-divider resistor window when the file gives none (the `sense` command's default too). */
+export const DEFAULT_GAIN_RANGE: [number, number] = [1e3, 1e6];
+/** Amplifier output headroom below the rail when the file gives none (common practice for rail-to-rail parts). */
+export const DEFAULT_HEADROOM = 0.2;
+
+export interface ResolvedSense {
+  sense: SenseSpec;
+  /** Resistances by designator (RS, RF, RG, R1–R4, RT1, RT2), ohms. */
+  parts: Record<string, number>;
+  grades: Record<string, PartGrade>;
+  /** The picker's best candidate, when the picker ran. */
+  picked?: SenseCandidate;
+  derating: number;
+  notes: string[];
+}
+
+function needsPicker(c: Design['current']): boolean {
+  return c.shunt.value === 'auto' || c.gain === 'auto' || c.threshold.top === 'auto';
+}
+
+/** The threshold voltage the design aims at (fixed, or the divider's output or target). */
+function thresholdVolts(c: Design['current']): number | undefined {
+  const t = c.threshold;
+  if (t.reference !== undefined && typeof t.top === 'number' && typeof t.bottom === 'number') {
+    return thresholdFromReference(t.reference, t.top, t.bottom);
+  }
+  return t.voltage;
+}
+
+function shuntCandidates(c: Design['current']): number[] {
+  if (c.shunt.value !== 'auto') return [c.shunt.value];
+  if (!c.shunt.candidates) return loadShunts().values;
+  return c.shunt.candidates.map((v, i) => parseResistance(String(v), `current.shunt.candidates[${i}]`));
+}
+
+export function resolveSense(design: Design): ResolvedSense {
+  const c = design.current;
+  const notes: string[] = [];
+  const names = [DESIGNATORS.shunt, ...gainDesignators(c.topology), ...(c.threshold.reference !== undefined ? [DESIGNATORS.thresholdTop, DESIGNATORS.thresholdBottom] : [])];
+  const grades: Record<string, PartGrade> = {};
+  for (const name of names) grades[name] = partGrade(design, name, name === DESIGNATORS.shunt ? { tolerance: c.shunt.tolerance, tcr: c.shunt.tcr } : {});
+  const derating = c.shunt.derating ?? DEFAULT_SHUNT_DERATING;
+
+  let parts: Record<string, number> = {};
+  let picked: SenseCandidate | undefined;
+  if (needsPicker(c)) {
+    if (c.shunt.rating === undefined) {
+      throw new InputError('current.shunt.rating', 'missing required field: the shunt rating is needed to pick the current-sense parts', 'a power rating such as "1 W"');
+    }
+    const firstGain = gainDesignators(c.topology)[0] ?? DESIGNATORS.thresholdTop;
+    const gainGrade = grades[firstGain] ?? grades[DESIGNATORS.shunt]!;
+    const range = c.gainRange ?? DEFAULT_GAIN_RANGE;
+    const series = c.gainSeries ?? gainGrade.series;
+    const volts = thresholdVolts(c);
+    const t = c.threshold;
+    const threshold: SenseRequest['threshold'] =
+      t.reference !== undefined && t.top === 'auto'
+        ? { kind: 'divider', reference: t.reference, tolerance: t.tolerance, ...(volts !== undefined ? { volts } : {}) }
+        : { kind: 'fixed', volts: volts!, tolerance: t.tolerance };
+    const amp = c.amplifier;
+    const request: SenseRequest = {
+      limit: c.target,
+      topology: c.topology,
+      threshold,
+      shunts: shuntCandidates(c),
+      shuntTolerance: grades[DESIGNATORS.shunt]!.tolerance,
+      shuntRatingW: c.shunt.rating,
+      derating,
+      resistorValues: seriesValuesBetween(series, range[0], range[1]),
+      resistorTolerance: gainGrade.tolerance,
+      // The direct topology has no amplifier: its rail is not used by the picker's checks.
+      rail: amp?.rail ?? Math.max(10, 10 * (volts ?? 1)),
+      headroom: amp ? (amp.headroom ?? DEFAULT_HEADROOM) : 0,
+      amplifierOffset: amp?.vos ?? 0,
+      compareOffset: c.compareOffset ?? 0,
+      biasCurrent: amp?.biasCurrent ?? 0,
+      commonMode: c.commonMode ?? 0,
+    };
+    if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
+    const pick = mapPickerError(() => pickSense(request), SENSE_OPTION_FIELDS);
+    picked = pick.candidates[0]!;
+    parts = { ...picked.parts };
+    if (t.reference !== undefined && t.top !== 'auto') {
+      parts[DESIGNATORS.thresholdTop] = t.top!;
+      parts[DESIGNATORS.thresholdBottom] = t.bottom as number;
+    }
+    const listed = Object.entries(parts).map(([k, r]) => `${k} ${formatRkm(r)}`).join(', ');
+    notes.push(
+      `Current sense picked (${series} ${formatEngineering(range[0], 'Ω')}..${formatEngineering(range[1], 'Ω')}, ${pick.candidates.length} candidates; ranked by quick worst-case spread, then shunt loss): ${listed}; quick worst case ${formatEngineering(picked.worstCase.min, 'A', 4)}..${formatEngineering(picked.worstCase.max, 'A', 4)}. \`trimfree sense\` shows the others and the Pareto front.`,
+    );
+  } else {
+    parts[DESIGNATORS.shunt] = c.shunt.value as number;
+    const g = c.gain;
+    if (g !== undefined && g !== 'auto') {
+      if (c.topology === 'noninv') Object.assign(parts, { [DESIGNATORS.feedback]: g.feedback!, [DESIGNATORS.ground]: g.ground! });
+      if (c.topology === 'diff') Object.assign(parts, { R1: g.r1!, R2: g.r2!, R3: g.r3!, R4: g.r4! });
+    }
+    if (c.threshold.reference !== undefined) {
+      parts[DESIGNATORS.thresholdTop] = c.threshold.top as number;
+      parts[DESIGNATORS.thresholdBottom] = c.threshold.bottom as number;
+    }
+  }
+  return { sense: senseSpec(design, parts, grades), parts, grades, ...(picked ? { picked } : {}), derating, notes };
+}
+
+export function gainDesignators(topology: Design['current']['topology']): string[] {
+  if (topology === 'noninv') return [DESIGNATORS.feedback, DESIGNATORS.ground];
+  if (topology === 'diff') return [...DESIGNATORS.diff];
+  return [];
+}
+
+function senseSpec(design: Design, parts: Record<string, number>, grades: Record<string, PartGrade>): SenseSpec {
+  const c = design.current;
+  const r = (name: string): ResistorSpec => resistorSpec(name, parts[name]!, grades[name]!);
+  const shuntGrade = grades[DESIGNATORS.shunt]!;
+  const shunt: ShuntSpec = { ...r(DESIGNATORS.shunt) };
+  if (c.shunt.rating !== undefined) shunt.powerRatingW = c.shunt.rating;
+  if (c.shunt.thermalResistance !== undefined && c.shunt.thermalResistance > 0) shunt.thermalResistanceKPerW = c.shunt.thermalResistance;
+  shunt.distribution = distributionSpec(shuntGrade.distribution);
+
+  const t = c.threshold;
+  const threshold: ThresholdSpec =
+    t.reference !== undefined
+      ? { kind: 'divided', source: { name: 'Vref threshold', nominal: t.reference, tolerance: t.tolerance }, top: r(DESIGNATORS.thresholdTop), bottom: r(DESIGNATORS.thresholdBottom) }
+      : { kind: 'fixed', nominal: t.voltage!, tolerance: t.tolerance };
+
+  const common = { shunt, threshold, limitTarget: c.target, ...(c.compareOffset ? { compareOffset: { nominal: 0, plusMinus: c.compareOffset } } : {}) };
+  if (c.topology === 'direct') return { ...common, topology: 'direct' };
+  const a = c.amplifier!;
+  const amplifier: AmplifierSpec = { offsetMax: a.vos, railV: a.rail };
+  if (a.vosDrift) amplifier.offsetDriftPerK = Math.abs(a.vosDrift);
+  if (a.biasCurrent) amplifier.biasCurrent = { nominal: 0, plusMinus: Math.abs(a.biasCurrent) };
+  if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
+  return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
+}
+
+/** The sense picker's option names and the design-file fields they come from. */
+const SENSE_OPTION_FIELDS: Record<string, string> = {
+  '--limit': 'current.target',
+  '--topology': 'current.topology',
+  '--threshold': 'current.threshold.voltage',
+  '--threshold-tol': 'current.threshold.tolerance',
+  '--threshold-from': 'current.threshold.reference',
+  '--shunts': 'current.shunt.candidates',
+  '--shunt-tol': 'current.shunt.tolerance',
+  '--shunt-rating': 'current.shunt.rating',
+  '--derate': 'current.shunt.derating',
+  '--max-loss': 'current.shunt.maxLoss',
+  '--series': 'current.gainSeries',
+  '--window': 'current.gainRange',
+  '--tolerance': 'resistors.tolerance',
+  '--rail': 'current.amplifier.rail',
+  '--headroom': 'current.amplifier.headroom',
+  '--vos': 'current.amplifier.vos',
+  '--vos-cmp': 'current.compareOffset',
+  '--ib': 'current.amplifier.biasCurrent',
+  '--common-mode': 'current.commonMode',
+};

@@ -1,0 +1,195 @@
+// A validated design → everything the engine and the report need: "auto" values filled by the pickers, grades and
+// per-designator overrides applied, the engine's SupplySpec, the BOM with the power each part handles, and notes
+// and cautions for the designer.
+import { nominalOutputs } from '../analysis/model.js';
+import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
+import { worstCase } from '../analysis/worst-case.js';
+import { OVERLOAD_FACTOR } from '../pick/sense/evaluate.js';
+import { ImpossibleError } from '../errors.js';
+import { formatEngineering, formatPercent } from '../units/index.js';
+import { bomLine, diffBranchCurrents, noninvGainCurrent, resistorPower, type BomLine, type BomPart } from './bom.js';
+import { cautionsFor } from './cautions.js';
+import { windowBounds } from './fields.js';
+import { gradeCosts, type GradeName } from './grades.js';
+import { feedbackBias, resolveDivider } from './resolve-divider.js';
+import { resolveSense } from './resolve-sense.js';
+import { DESIGNATORS, type Design } from './schema.js';
+
+export interface ResolvedDesign {
+  /** The engine's input: at the top of the range for an adjustable output. */
+  spec: SupplySpec;
+  /** Adjustable output only: the same supply with the pot at the bottom of its travel (vout window [0, LO]). */
+  lowEnd?: SupplySpec;
+  bom: BomLine[];
+  /** How values were picked, assumptions made. */
+  notes: string[];
+  /** Safety cautions for this kind of supply. */
+  cautions: string[];
+  /** Nominal outputs of the resolved design (all parts nominal). */
+  nominal: Record<string, number>;
+  /** Relative cost of each grade (the file's, else the illustrative defaults). */
+  costs: Record<GradeName, number>;
+  analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
+}
+
+/** Monte Carlo seed when neither the file nor the command line gives one. */
+export const DEFAULT_SEED = 1;
+
+export function resolveDesign(design: Design): ResolvedDesign {
+  const notes: string[] = [];
+  const vref = design.reference.voltage;
+  const [lo, hi] = design.voltage.target;
+  const adjustable = lo !== hi;
+  if (!(lo > vref)) {
+    throw new ImpossibleError(
+      'voltage.target',
+      `${formatEngineering(lo, 'V', 4)} is at or below the reference ${formatEngineering(vref, 'V', 4)}: a feedback divider cannot set an output below Vref`,
+      'ask for an output above Vref, or use a regulator with a lower reference',
+    );
+  }
+
+  const divider = resolveDivider(design);
+  notes.push(...divider.notes);
+  const sense = resolveSense(design);
+  notes.push(...sense.notes);
+
+  const temperature = design.temperature ?? { min: 25, max: 25 };
+  if (!design.temperature) notes.push('No temperature range given: analysed at 25 °C only, so TCRs and drifts with temperature play no part.');
+  const bias = feedbackBias(design);
+
+  const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
+  if (design.reference.drift) reference.drift = design.reference.drift;
+  if (design.reference.tempco) reference.tempcoPerK = design.reference.tempco;
+
+  const ilimitWindow = windowBounds(design.current.window, design.current.target);
+  // An adjustable output is judged at both ends of the pot's travel: every unit must reach HI at the top and LO at
+  // the bottom. Without a window from the file, each end's window runs out to that end's worst case, so the yield
+  // counts exactly the units that fail to cover the range (Cp and Cpk then mean little: the notes say so).
+  let voutWindow: [number, number] = adjustable ? [hi, hi] : windowBounds(design.voltage.window!, lo);
+  let lowWindow: [number, number] = [lo, lo];
+  if (adjustable) {
+    const reach = (legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>): { min: number; max: number } => {
+      const result = worstCase(buildSupplyModel(base(legs, [0, 1]))).find((w) => w.name === 'vout')!;
+      return { min: result.min, max: result.max };
+    };
+    const top = reach(divider.legs);
+    const bottom = reach(divider.lowLegs!);
+    voutWindow = design.voltage.window ? windowBounds(design.voltage.window, hi) : [hi, Math.max(top.max, hi) * (1 + 1e-9)];
+    lowWindow = [Math.min(bottom.min, lo) * (1 - 1e-9), lo];
+    notes.push(
+      `Adjustable output: vout is analysed at the top of the pot's travel against ${formatEngineering(voutWindow[0], 'V', 4)}..${formatEngineering(voutWindow[1], 'V', 4)}${design.voltage.window ? '' : ' (up to its worst case: the file gives no upper limit)'} and at the bottom against ${formatEngineering(lowWindow[0], 'V', 4)}..${formatEngineering(lowWindow[1], 'V', 4)}; the yield is the share of units covering ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)}; Cp and Cpk of these one-sided windows mean little.`,
+    );
+  }
+
+  function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number]): SupplySpec {
+    const spec: SupplySpec = {
+      reference,
+      divider: { ...legs, ...(bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
+      temperature: { minC: temperature.min, maxC: temperature.max, monteCarlo: 'uniform' },
+      sense: sense.sense,
+      windows: { vout: window, ilimit: ilimitWindow },
+      voutTarget: adjustable ? hi : lo,
+    };
+    return spec;
+  }
+  const spec = base(divider.legs, voutWindow);
+  const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow), voutTarget: lo } : undefined;
+
+  const nominal = nominalOutputs(buildSupplyModel(spec));
+  checkOperatingPoint(design, nominal, sense.derating);
+  checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, notes);
+
+  const bomParts: BomPart[] = [...divider.bomParts, ...senseBomParts(design, sense.parts, sense.grades, nominal)];
+  const bom = bomParts.map(bomLine);
+  for (const grade of [divider.grades.top, divider.grades.bottom, ...Object.values(sense.grades)]) {
+    if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
+  }
+
+  const shuntFacts = {
+    shuntLossW: nominal['shuntLoss']!,
+    derating: sense.derating,
+    ...(design.current.shunt.rating !== undefined ? { shuntRatingW: design.current.shunt.rating } : {}),
+    ...(design.current.shunt.thermalResistance !== undefined ? { thermalResistanceKPerW: design.current.shunt.thermalResistance } : {}),
+  };
+  const cautions = cautionsFor({ application: design.application, voutMax: Math.max(hi, nominal['vout']!), temperatureMaxC: temperature.max, ...shuntFacts });
+
+  const analysis: ResolvedDesign['analysis'] = {};
+  if (design.analysis?.trials !== undefined) analysis.trials = design.analysis.trials;
+  if (design.analysis?.seed !== undefined) analysis.seed = design.analysis.seed;
+  if (design.analysis?.workers !== undefined) analysis.workers = design.analysis.workers;
+
+  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis };
+  if (lowEnd) resolved.lowEnd = lowEnd;
+  return resolved;
+}
+
+/** Loads and heat the nominal design must stay within, whatever picked its values. */
+function checkOperatingPoint(design: Design, nominal: Record<string, number>, derating: number): void {
+  const c = design.current;
+  const loss = nominal['shuntLoss']!;
+  if (c.shunt.rating !== undefined && loss > derating * c.shunt.rating) {
+    throw new ImpossibleError(
+      'current.shunt',
+      `the shunt dissipates ${formatEngineering(loss, 'W')} at the limit, more than ${formatPercent(derating, 0)} of its ${formatEngineering(c.shunt.rating, 'W')} rating`,
+      'use a smaller shunt (with more gain), a higher-rated shunt (current.shunt.rating), or a lower current.target',
+    );
+  }
+  if (c.amplifier && c.topology !== 'direct') {
+    const reach = c.amplifier.rail - (c.amplifier.headroom ?? 0.2);
+    const overload = nominal['ampOutput']! * OVERLOAD_FACTOR;
+    if (overload > reach) {
+      throw new ImpossibleError(
+        'current.amplifier.rail',
+        `the amplifier output at ${OVERLOAD_FACTOR * 100} % of the limit, ${formatEngineering(overload, 'V')}, is above the rail minus headroom (${formatEngineering(reach, 'V')})`,
+        'lower the threshold or the gain, or raise current.amplifier.rail',
+      );
+    }
+  }
+  if (!(nominal['ilimit']! > 0) || !Number.isFinite(nominal['ilimit']!)) {
+    throw new ImpossibleError('current', 'the nominal current limit is not a positive current', 'check the threshold, the offsets and the gain resistors');
+  }
+}
+
+/** The spec window against the reference's own tolerance: a window narrower than it cannot hold every unit. */
+function checkWindowAgainstReference(design: Design, window: [number, number], target: number, notes: string[]): void {
+  const half = Math.min(target - window[0], window[1] - target) / target;
+  const refBand = design.reference.tolerance + (design.reference.drift ?? 0);
+  if (half > 0 && half < refBand) {
+    notes.push(
+      `The output window (±${formatPercent(half)} at its narrower side) is narrower than the reference's own ±${formatPercent(refBand)}: no resistor grade can hold every unit inside it in the worst case; the yield rests on how Vref spreads. A tighter reference, or trimming, is what widens the margin.`,
+    );
+  }
+}
+
+function senseBomParts(design: Design, parts: Record<string, number>, grades: ReturnType<typeof resolveSense>['grades'], nominal: Record<string, number>): BomPart[] {
+  const c = design.current;
+  const limit = nominal['ilimit']!;
+  const ampOutput = nominal['ampOutput']!;
+  const at = `at the nominal limit ${formatEngineering(limit, 'A', 4)}`;
+  const out: BomPart[] = [];
+  const add = (designator: string, role: string, current: number, extra: Partial<BomPart> = {}): void => {
+    const ohms = parts[designator]!;
+    const grade = grades[designator]!;
+    out.push({ designator, role, ohms, tolerance: grade.tolerance, tcrPerK: grade.tcrPerK, powerW: resistorPower(current, ohms), powerAt: at, ...extra });
+  };
+  add(DESIGNATORS.shunt, 'current-sense shunt', limit, { shunt: true, ratingW: c.shunt.rating });
+  if (c.topology === 'noninv') {
+    const i = noninvGainCurrent(ampOutput, parts[DESIGNATORS.feedback]!, parts[DESIGNATORS.ground]!);
+    add(DESIGNATORS.feedback, 'amplifier feedback (noninv)', i);
+    add(DESIGNATORS.ground, 'amplifier gain to ground (noninv)', i);
+  }
+  if (c.topology === 'diff') {
+    const i = diffBranchCurrents({ r1: parts['R1']!, r3: parts['R3']!, r4: parts['R4']! }, parts[DESIGNATORS.shunt]!, c.commonMode ?? 0, limit);
+    add('R1', 'difference amplifier, load side to − input', i.r1r2);
+    add('R2', 'difference amplifier, − input to output', i.r1r2);
+    add('R3', 'difference amplifier, supply side to + input', i.r3r4);
+    add('R4', 'difference amplifier, + input to ground', i.r3r4);
+  }
+  if (c.threshold.reference !== undefined) {
+    const i = c.threshold.reference / (parts[DESIGNATORS.thresholdTop]! + parts[DESIGNATORS.thresholdBottom]!);
+    add(DESIGNATORS.thresholdTop, 'threshold divider, top', i, { powerAt: 'from the threshold reference' });
+    add(DESIGNATORS.thresholdBottom, 'threshold divider, bottom', i, { powerAt: 'from the threshold reference' });
+  }
+  return out;
+}
+
