@@ -287,9 +287,29 @@ function newSenseParams(): SenseParams {
   return { shunt: 0, feedback: 0, ground: 0, r1: 0, r2: 0, r3: 0, r4: 0, commonMode: 0, threshold: 0, amplifierOffset: 0, biasCurrent: 0, compareOffset: 0 };
 }
 
-/** Self-heating: fixed-point iterations of R_hot = R_amb·(1 + α·θ·I²·R_hot) with I = limit(R_hot). The loop gain is
- *  about 2·α·θ·P (≈ 1e-2 for 100 ppm/K, 50 K/W, 2 W), so four iterations leave a relative error below 1e-8. */
-const SELF_HEATING_ITERATIONS = 4;
+/**
+ * Shunt self-heating, solved in closed form. Every topology's limit is inversely proportional to the shunt
+ * (I = K/Rs, see src/circuits/sense/*), so the loss at the limit is P = K²/R_hot and the hot shunt satisfies
+ * R_hot = R_amb·(1 + α·θ·P) = R_amb + R_amb·α·θ·K²/R_hot (first order in the rise, α·θ·P ≪ 1), whose positive
+ * root is R_hot = (R_amb + √(R_amb² + 4·R_amb·α·θ·K²))/2.
+ */
+export function hotShunt(rAmbient: number, alpha: number, theta: number, k: number): number {
+  return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * rAmbient * alpha * theta * k * k)) / 2;
+}
+
+/** What the sense path computes for one trial. */
+interface SenseEvaluator {
+  /** Fills q for trial j, sets q.shunt to the shunt at its own temperature, returns the limit current. */
+  limit(p: Float64Array[], q: SenseParams, j: number, dT: number): number;
+  /** Output of the amplifier (or the shunt voltage, `direct`) at a load current. */
+  signal(q: SenseParams, current: number): number;
+  ilimitSpec?: [number, number];
+  shuntLossSpec?: [number, number];
+  ampOutputSpec?: [number, number];
+}
+
+export const OUTPUT_NAMES = ['vout', 'dividerCurrent', 'ilimit', 'shuntLoss', 'ampOutput'] as const;
+const OUTPUT_UNITS = { vout: 'V', dividerCurrent: 'A', ilimit: 'A', shuntLoss: 'W', ampOutput: 'V' } as const;
 
 // ---------------------------------------------------------------------------------------------------------------
 
@@ -330,45 +350,54 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   const ifb = addBound(list, 'Ifb', 'bias current', spec.divider.feedbackBias, 'supply.divider.feedbackBias');
   notes.push('Resistor TCRs, reference tempco and offset drift are unknown within their bounds for a given unit: drawn uniformly (common practice).');
 
-  const outputs: ModelOutput[] = [];
-  const vout: ModelOutput = {
-    name: 'vout',
-    unit: 'V',
-    evaluate(p, out, n) {
-      const tp = p[temperature]!;
-      for (let j = 0; j < n; j++) {
-        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-        out[j] = dividerVout(referenceAt(p, vref, j, dT), legAt(p, top, j, dT), legAt(p, bottom, j, dT), valueOr(p, ifb, j, 0));
-      }
-    },
-  };
-  if (spec.windows?.vout) vout.spec = spec.windows.vout;
-  outputs.push(vout);
-  outputs.push({
-    name: 'dividerCurrent',
-    unit: 'A',
-    evaluate(p, out, n) {
-      const tp = p[temperature]!;
-      for (let j = 0; j < n; j++) {
-        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-        out[j] = referenceAt(p, vref, j, dT) / legAt(p, bottom, j, dT);
-      }
-    },
-  });
+  const sense = spec.sense ? addSense(spec.sense, spec, list, vref, notes) : null;
+  const count = sense ? 5 : 2;
 
-  if (spec.sense) addSenseOutputs(spec.sense, spec, list, temperature, vref, outputs, notes);
-  return { parts: list.parts, outputs, notes };
+  /** Every output for trials 0..n−1 in one loop: outs in OUTPUT_NAMES order (first two only without a sense path). */
+  function evaluateAll(p: Float64Array[], outs: Float64Array[], n: number): void {
+    const tp = p[temperature]!;
+    const q = newSenseParams();
+    const voutOut = outs[0]!;
+    const dividerOut = outs[1]!;
+    for (let j = 0; j < n; j++) {
+      const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
+      const v = referenceAt(p, vref, j, dT);
+      const rBottom = legAt(p, bottom, j, dT);
+      voutOut[j] = dividerVout(v, legAt(p, top, j, dT), rBottom, valueOr(p, ifb, j, 0));
+      dividerOut[j] = v / rBottom;
+    }
+    if (sense) {
+      const limitOut = outs[2]!;
+      const lossOut = outs[3]!;
+      const ampOut = outs[4]!;
+      for (let j = 0; j < n; j++) {
+        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
+        const current = sense.limit(p, q, j, dT);
+        limitOut[j] = current;
+        lossOut[j] = current * current * q.shunt;
+        ampOut[j] = sense.signal(q, current);
+      }
+    }
+  }
+
+  const outputs: ModelOutput[] = OUTPUT_NAMES.slice(0, count).map((name, o) => {
+    const output: ModelOutput = {
+      name,
+      unit: OUTPUT_UNITS[name],
+      evaluate(p, out, n) {
+        const outs = Array.from({ length: count }, (_, i) => (i === o ? out : new Float64Array(n)));
+        evaluateAll(p, outs, n);
+      },
+    };
+    const window =
+      name === 'vout' ? spec.windows?.vout : name === 'ilimit' ? sense?.ilimitSpec : name === 'shuntLoss' ? sense?.shuntLossSpec : name === 'ampOutput' ? sense?.ampOutputSpec : undefined;
+    if (window) output.spec = [window[0], window[1]];
+    return output;
+  });
+  return { parts: list.parts, outputs, notes, evaluateAll };
 }
 
-function addSenseOutputs(
-  sense: SenseSpec,
-  spec: SupplySpec,
-  list: PartList,
-  temperature: number,
-  regulatorReference: ReferenceSlot,
-  outputs: ModelOutput[],
-  notes: string[],
-): void {
+function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot, notes: string[]): SenseEvaluator {
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
   const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
@@ -439,9 +468,8 @@ function addSenseOutputs(
   const signalOf: (q: SenseParams, current: number) => number =
     topology === 'direct' ? directSignal : topology === 'noninv' ? noninvOutput : diffOutput;
 
-  /** Fills q for trial j (shunt at ambient) and returns the ambient temperature difference from 25 °C. */
-  function fill(p: Float64Array[], q: SenseParams, j: number): number {
-    const dT = p[temperature]![j]! - REFERENCE_TEMPERATURE_C;
+  /** Fills q for trial j (everything but the shunt). */
+  function fill(p: Float64Array[], q: SenseParams, j: number, dT: number): void {
     if (thFixed !== NONE) {
       let v = p[thFixed]![j]!;
       if (thTempco !== NONE) v *= 1 + p[thTempco]![j]! * dT;
@@ -466,61 +494,30 @@ function addSenseOutputs(
       q.r4 = resistorAt(p, gain[3]!, j, dT);
       q.commonMode = commonMode;
     }
-    return dT;
   }
-
-  /** Sets q.shunt to the shunt at its own temperature at the limit and returns the limit current. */
-  function solveLimit(p: Float64Array[], q: SenseParams, j: number, dT: number): number {
-    const rAmbient = resistorAt(p, shunt, j, dT);
-    q.shunt = rAmbient;
-    let current = limitOf(q);
-    if (theta > 0 && shunt.tcr !== NONE) {
-      // R_shunt(T_amb + θ·P) = R(T_amb)·(1 + α·θ·P) to first order in the self-heating rise (α·ΔT ≪ 1).
-      const alpha = p[shunt.tcr]![j]!;
-      for (let k = 0; k < SELF_HEATING_ITERATIONS; k++) {
-        q.shunt = rAmbient * (1 + alpha * theta * current * current * q.shunt);
-        current = limitOf(q);
-      }
-    }
-    return current;
-  }
+  const selfHeating = theta > 0 && shunt.tcr !== NONE;
   if (theta > 0 && alphaMax === 0) notes.push('Shunt has a thermal resistance but no TCR: self-heating changes its loss, not its value.');
 
-  const ilimit: ModelOutput = {
-    name: 'ilimit',
-    unit: 'A',
-    evaluate(p, out, n) {
-      const q = newSenseParams();
-      for (let j = 0; j < n; j++) out[j] = solveLimit(p, q, j, fill(p, q, j));
+  const evaluator: SenseEvaluator = {
+    limit(p, q, j, dT) {
+      fill(p, q, j, dT);
+      const rAmbient = resistorAt(p, shunt, j, dT);
+      q.shunt = rAmbient;
+      const current = limitOf(q);
+      if (!selfHeating) return current;
+      q.shunt = hotShunt(rAmbient, p[shunt.tcr]![j]!, theta, current * rAmbient);
+      return limitOf(q);
     },
+    signal: signalOf,
   };
-  if (spec.windows?.ilimit) ilimit.spec = spec.windows.ilimit;
-  const shuntLoss: ModelOutput = {
-    name: 'shuntLoss',
-    unit: 'W',
-    evaluate(p, out, n) {
-      const q = newSenseParams();
-      for (let j = 0; j < n; j++) {
-        const current = solveLimit(p, q, j, fill(p, q, j));
-        out[j] = current * current * q.shunt;
-      }
-    },
-  };
+  if (spec.windows?.ilimit) evaluator.ilimitSpec = spec.windows.ilimit;
   if (sense.shunt.powerRatingW !== undefined) {
     checkFinite(sense.shunt.powerRatingW, `${where}.shunt.powerRatingW`, 'a power rating above 0 W', true);
-    shuntLoss.spec = [0, sense.shunt.powerRatingW];
+    evaluator.shuntLossSpec = [0, sense.shunt.powerRatingW];
   }
-  const ampOutput: ModelOutput = {
-    name: 'ampOutput',
-    unit: 'V',
-    evaluate(p, out, n) {
-      const q = newSenseParams();
-      for (let j = 0; j < n; j++) out[j] = signalOf(q, solveLimit(p, q, j, fill(p, q, j)));
-    },
-  };
   if (railV !== undefined) {
     checkFinite(railV, `${where}.amplifier.railV`, 'a rail voltage above 0 V', true);
-    ampOutput.spec = [0, railV];
+    evaluator.ampOutputSpec = [0, railV];
   }
-  outputs.push(ilimit, shuntLoss, ampOutput);
+  return evaluator;
 }

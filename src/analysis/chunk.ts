@@ -1,0 +1,122 @@
+// One chunk of Monte Carlo trials: draw every part from the chunk's own stream, evaluate every output in one
+// tight loop each, and reduce each output to moments, a fine histogram, an in-spec count and (optionally) the
+// values themselves. The buffers are allocated once per runner and reused for every chunk.
+import { partFromUnit } from '../tolerance/sample.js';
+import { chunkState, fillXor128 } from './chunk-random.js';
+import { evaluateOutputs, type Model } from './model.js';
+import { symmetricInterval } from './statistics/coverage.js';
+
+export const DEFAULT_CHUNK_SIZE = 65536;
+
+export interface ChunkConfig {
+  seed: string;
+  chunkSize: number;
+  /** Total trials of the run (the last chunk may be short); 0 for an open-ended (adaptive) run. */
+  trials: number;
+  /** Per output: histogram range [lo, hi) and bin count. */
+  ranges: Array<{ lo: number; hi: number }>;
+  bins: number;
+  /** Per output: spec window or null. */
+  specs: Array<[number, number] | null>;
+  keepSamples: boolean;
+  /** Adaptive runs also need each chunk's own 95 % interval ends (JCGM 101:2008 7.9). */
+  chunkIntervals: boolean;
+}
+
+export interface OutputChunk {
+  n: number;
+  mean: number;
+  m2: number;
+  min: number;
+  max: number;
+  inSpec: number;
+  nonFinite: number;
+  counts: Uint32Array;
+  samples: Float64Array | null;
+  /** This chunk's probabilistically symmetric 95 % interval (adaptive runs only). */
+  low95: number;
+  high95: number;
+}
+
+export interface ChunkSummary {
+  k: number;
+  outputs: OutputChunk[];
+}
+
+export function chunkLength(config: ChunkConfig, k: number): number {
+  if (config.trials === 0) return config.chunkSize;
+  return Math.max(0, Math.min(config.chunkSize, config.trials - k * config.chunkSize));
+}
+
+export class ChunkRunner {
+  private readonly p: Float64Array[];
+  private outs: Float64Array[];
+
+  constructor(
+    private readonly model: Model,
+    private readonly config: ChunkConfig,
+  ) {
+    this.p = model.parts.map(() => new Float64Array(config.chunkSize));
+    this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
+  }
+
+  run(k: number): ChunkSummary {
+    const { model, config, p } = this;
+    const n = chunkLength(config, k);
+    // Part i takes draws i·n … (i+1)·n − 1 of the chunk's stream (as fillPart with the reference generator would).
+    const state = chunkState(config.seed, k);
+    for (let i = 0; i < model.parts.length; i++) {
+      fillXor128(state, p[i]!, n);
+      partFromUnit(model.parts[i]!, p[i]!, n);
+    }
+    evaluateOutputs(model, p, this.outs, n);
+    const outputs = this.outs.map((x, o) => this.reduce(o, x, n));
+    if (config.keepSamples) this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
+    return { k, outputs };
+  }
+
+  /** One pass for extremes, sum, spec count and histogram; a second for the squared deviations. */
+  private reduce(o: number, x: Float64Array, n: number): OutputChunk {
+    const { config } = this;
+    const spec = config.specs[o];
+    const specLo = spec ? spec[0] : -Infinity;
+    const specHi = spec ? spec[1] : Infinity;
+    const bins = config.bins;
+    const lo = config.ranges[o]!.lo;
+    const scale = bins / (config.ranges[o]!.hi - lo);
+    const counts = new Uint32Array(bins + 2);
+    let min = Infinity;
+    let max = -Infinity;
+    let nonFinite = 0;
+    let inSpec = 0;
+    let sum = 0;
+    for (let j = 0; j < n; j++) {
+      const v = x[j]!;
+      if (v < min) min = v;
+      if (v > max) max = v;
+      if (v >= specLo && v <= specHi) inSpec++;
+      if (v - v !== 0) nonFinite++;
+      sum += v;
+      const b = Math.floor((v - lo) * scale);
+      counts[b < 0 ? 0 : b >= bins ? bins + 1 : b + 1]!++;
+    }
+    // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
+    const mean = n > 0 ? sum / n : 0;
+    let sq = 0;
+    let dev = 0;
+    for (let j = 0; j < n; j++) {
+      const d = x[j]! - mean;
+      sq += d * d;
+      dev += d;
+    }
+    const m2 = n > 0 ? Math.max(0, sq - (dev * dev) / n) : 0;
+    let low95 = NaN;
+    let high95 = NaN;
+    if (config.chunkIntervals && n > 0) {
+      const sorted = x.slice(0, n).sort();
+      ({ low: low95, high: high95 } = symmetricInterval(sorted, 0.95));
+    }
+    const samples = config.keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
+    return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95 };
+  }
+}

@@ -1,0 +1,398 @@
+// Monte Carlo engine (JCGM 101:2008): trials in fixed chunks, chunk k drawn from its own generator seeded
+// `${seed}:${k}`, chunks spread over worker threads, each chunk reduced to moments + fine histogram (+ values while
+// they fit the memory cap), and the reductions merged strictly in chunk order. Hence the same seed gives
+// bit-identical results for 1, 2 or 16 workers. With workers = 1 (or a Model that has no JSON source) the chunks
+// run on the calling thread.
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { ImpossibleError, InputError } from '../errors.js';
+import { PROJECT_ROOT } from '../project-root.js';
+import { ChunkRunner, DEFAULT_CHUNK_SIZE, type ChunkConfig, type ChunkSummary, type OutputChunk } from './chunk.js';
+import type { FromWorker, ToWorker } from './mc-worker.js';
+import type { Model } from './model.js';
+import type { ModelSource } from './model-source.js';
+import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
+import { processCapability } from './statistics/capability.js';
+import { shortestInterval, sortedPercentile, symmetricInterval } from './statistics/coverage.js';
+import {
+  coarseHistogram,
+  histogramPercentile,
+  histogramQuantileBound,
+  histogramShortestInterval,
+  histogramSymmetricInterval,
+  type FineHistogram,
+} from './statistics/histogram.js';
+import { mergeMoments, momentsSigma, type Moments } from './statistics/moments.js';
+import { wilsonInterval } from './statistics/wilson.js';
+import { adaptiveState, adaptiveStable, pushAdaptive, type AdaptiveState } from './adaptive.js';
+
+export interface Progress {
+  trialsDone: number;
+  /** Planned trials; for an adaptive run, the cap. */
+  trialsPlanned: number;
+}
+
+export interface MonteCarloOptions {
+  /** A trial count, or 'auto' for the adaptive procedure of JCGM 101:2008 7.9. */
+  trials: number | 'auto';
+  seed: string | number;
+  /** Worker threads; default os.availableParallelism(). Results do not depend on it. */
+  workers?: number;
+  /** JSON the workers rebuild the model from; without it the run stays on this thread. */
+  source?: ModelSource;
+  /** Histogram range per output name (default: the observed range of a pilot chunk, widened). */
+  ranges?: Record<string, { lo: number; hi: number }>;
+  onProgress?: (progress: Progress) => void;
+  /** Adaptive runs: significant digits of u(y) to stabilise (JCGM 101:2008 7.9.2), default 2. */
+  significantDigits?: number;
+  /** Adaptive runs: the most trials to spend, default 1e8. */
+  maxTrials?: number;
+  /** Memory for kept values (exact quantiles); past it quantiles come from the histogram. Default 256 MiB. */
+  sampleMemoryBytes?: number;
+  /** Fine histogram bins per output, default 8192. */
+  histogramBins?: number;
+  /** Trials per chunk, default 65536. Part of what a seed reproduces: change it and the numbers change. */
+  chunkSize?: number;
+}
+
+export interface MonteCarloOutput {
+  name: string;
+  unit: string;
+  spec?: [number, number];
+  mean: number;
+  sigma: number;
+  min: number;
+  max: number;
+  percentiles: Percentile[];
+  interval95: Interval;
+  interval9973: Interval;
+  shortest95: Interval;
+  shortest9973: Interval;
+  quantileMethod: 'exact' | 'histogram';
+  quantileBound: number;
+  yield?: YieldResult;
+  ppmOut?: number;
+  cp?: number;
+  cpk?: number;
+  histogram: Histogram;
+}
+
+export interface MonteCarloResult {
+  seed: string;
+  trials: number;
+  workers: number;
+  chunkSize: number;
+  notes: string[];
+  outputs: MonteCarloOutput[];
+}
+
+/** Percentiles reported for every output (the 0.135 and 99.865 pair bound the ±3σ-equivalent 99.73 %). */
+export const REPORTED_PERCENTILES = [0.135, 1, 2.5, 5, 25, 50, 75, 95, 97.5, 99, 99.865];
+const DEFAULT_SAMPLE_MEMORY = 256 * 1024 * 1024;
+const DEFAULT_BINS = 8192;
+const DEFAULT_MAX_TRIALS = 1e8;
+/** Largest trial count accepted: 1e10 (the histogram counts stay exact far beyond, to 2^53). */
+const MAX_TRIALS = 1e10;
+
+class Accumulator {
+  moments: Moments = { n: 0, mean: 0, m2: 0 };
+  min = Infinity;
+  max = -Infinity;
+  inSpec = 0;
+  nonFinite = 0;
+  counts: Float64Array;
+  samples: Float64Array[] | null;
+  sampleCount = 0;
+  constructor(bins: number, keep: boolean) {
+    this.counts = new Float64Array(bins + 2);
+    this.samples = keep ? [] : null;
+  }
+  add(c: OutputChunk): void {
+    this.moments = mergeMoments(this.moments, { n: c.n, mean: c.mean, m2: c.m2 });
+    if (c.min < this.min) this.min = c.min;
+    if (c.max > this.max) this.max = c.max;
+    this.inSpec += c.inSpec;
+    this.nonFinite += c.nonFinite;
+    const counts = this.counts;
+    for (let b = 0; b < counts.length; b++) counts[b]! += c.counts[b]!;
+    if (this.samples && c.samples) {
+      this.samples.push(c.samples);
+      this.sampleCount += c.n;
+    }
+  }
+}
+
+function workerScript(): URL {
+  const here = fileURLToPath(import.meta.url);
+  // Running from TypeScript source (tests): a Worker needs the compiled JavaScript in dist/.
+  const file = here.endsWith('.ts') ? join(PROJECT_ROOT, 'dist', 'src', 'analysis', 'mc-worker.js') : join(here, '..', 'mc-worker.js');
+  if (!existsSync(file)) throw new Error(`Monte Carlo worker ${file} is missing: build first (npx tsc -p ${PROJECT_ROOT})`);
+  return pathToFileURL(file);
+}
+
+function checkOptions(options: MonteCarloOptions): void {
+  const t = options.trials;
+  if (t !== 'auto' && (!Number.isInteger(t) || t < 1 || t > MAX_TRIALS)) {
+    throw new InputError('trials', `${t} is not a usable trial count`, `a whole number from 1 to ${MAX_TRIALS}, or auto`);
+  }
+  const w = options.workers;
+  if (w !== undefined && (!Number.isInteger(w) || w < 1 || w > 256)) {
+    throw new InputError('workers', `${w} is not a usable worker count`, 'a whole number from 1 to 256');
+  }
+  const d = options.significantDigits;
+  if (d !== undefined && (!Number.isInteger(d) || d < 1 || d > 4)) {
+    throw new InputError('significant digits', `${d}`, 'a whole number from 1 to 4');
+  }
+}
+
+/** Histogram ranges from one pilot chunk (seeded `${seed}:pilot`, so it never overlaps the run's own streams). */
+function pilotRanges(model: Model, seed: string, chunkSize: number): Array<{ lo: number; hi: number }> {
+  const config: ChunkConfig = {
+    seed: `${seed}:pilot`,
+    chunkSize,
+    trials: chunkSize,
+    ranges: model.outputs.map(() => ({ lo: 0, hi: 1 })),
+    bins: 1,
+    specs: model.outputs.map(() => null),
+    keepSamples: false,
+    chunkIntervals: false,
+  };
+  const summary = new ChunkRunner(model, config).run(0);
+  return summary.outputs.map((o) => widenRange(o.min, o.max));
+}
+
+/** A histogram range around [min, max], widened by half its span each side (never empty). */
+export function widenRange(min: number, max: number): { lo: number; hi: number } {
+  const span = max - min;
+  const pad = span > 0 ? span / 2 : Math.max(Math.abs(min) * 1e-9, 1e-300);
+  return { lo: min - pad, hi: max + pad };
+}
+
+export async function monteCarlo(model: Model, options: MonteCarloOptions): Promise<MonteCarloResult> {
+  checkOptions(options);
+  const seed = String(options.seed);
+  const chunkSize = options.chunkSize ?? DEFAULT_CHUNK_SIZE;
+  const bins = options.histogramBins ?? DEFAULT_BINS;
+  const adaptive = options.trials === 'auto';
+  const maxTrials = adaptive ? (options.maxTrials ?? DEFAULT_MAX_TRIALS) : (options.trials as number);
+  const chunkCount = Math.ceil(maxTrials / chunkSize);
+  const sampleMemory = options.sampleMemoryBytes ?? DEFAULT_SAMPLE_MEMORY;
+  const outputs = model.outputs;
+  // Keep values only if the whole run fits the cap (adaptive runs: while it does, then drop them).
+  const keepSamples = adaptive || maxTrials * outputs.length * 8 <= sampleMemory;
+  const ranges = options.ranges
+    ? outputs.map((o) => {
+        const r = options.ranges![o.name];
+        if (!r) throw new Error(`no histogram range for output ${o.name}`);
+        return r.hi > r.lo ? r : widenRange(r.lo, r.hi);
+      })
+    : pilotRanges(model, seed, chunkSize);
+  const config: ChunkConfig = {
+    seed,
+    chunkSize,
+    trials: adaptive ? 0 : maxTrials,
+    ranges,
+    bins,
+    specs: outputs.map((o) => o.spec ?? null),
+    keepSamples,
+    chunkIntervals: adaptive,
+  };
+  const accumulators = outputs.map(() => new Accumulator(bins, keepSamples));
+  const adaptiveTrack: AdaptiveState[] | null = adaptive ? outputs.map(() => adaptiveState()) : null;
+  const digits = options.significantDigits ?? 2;
+  let merged = 0; // chunks merged so far (in order)
+  let trialsDone = 0;
+  let stopped = false;
+  let samplesDropped = false;
+
+  const mergeChunk = (summary: ChunkSummary): void => {
+    for (let o = 0; o < outputs.length; o++) {
+      const c = summary.outputs[o]!;
+      accumulators[o]!.add(c);
+      if (adaptiveTrack) pushAdaptive(adaptiveTrack[o]!, c);
+    }
+    merged++;
+    trialsDone += summary.outputs[0]?.n ?? 0;
+    if (keepSamples && !samplesDropped && trialsDone * outputs.length * 8 > sampleMemory) {
+      for (const a of accumulators) a.samples = null;
+      samplesDropped = true;
+    }
+    if (adaptiveTrack && adaptiveTrack.every((s) => adaptiveStable(s, digits))) stopped = true;
+    if (merged >= chunkCount) stopped = true;
+    options.onProgress?.({ trialsDone, trialsPlanned: maxTrials });
+  };
+
+  const requested = options.workers ?? availableParallelism();
+  const workers = options.source && requested > 1 ? Math.min(requested, chunkCount) : 1;
+  if (workers <= 1) {
+    const runner = new ChunkRunner(model, config);
+    for (let k = 0; !stopped; k++) {
+      mergeChunk(runner.run(k));
+      if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));
+    }
+  } else {
+    await runOnWorkers(options.source!, config, workers, chunkCount, mergeChunk, () => stopped);
+  }
+
+  const notes: string[] = [];
+  if (adaptive) {
+    const stable = adaptiveTrack!.every((s) => adaptiveStable(s, digits));
+    notes.push(
+      stable
+        ? `Adaptive run (JCGM 101:2008 7.9): stopped after ${trialsDone} trials, when the mean, standard deviation and 95 % interval ends of every output were stable to ${digits} significant digits of u(y).`
+        : `Adaptive run (JCGM 101:2008 7.9): NOT stable to ${digits} significant digits within the cap of ${maxTrials} trials; the figures are those of ${trialsDone} trials.`,
+    );
+  }
+  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins));
+  const exact = results.every((r) => r.quantileMethod === 'exact');
+  notes.push(
+    exact
+      ? 'Quantiles and coverage intervals from all sorted Monte Carlo values (JCGM 101:2008 7.7).'
+      : `Quantiles and coverage intervals read from a ${bins}-bin histogram (the values did not fit ${Math.round(sampleMemory / 2 ** 20)} MiB); each is within the stated bound of the exact order statistic.`,
+  );
+  notes.push(`Seed "${seed}": chunk k of ${chunkSize} trials draws from xor128 seeded "${seed}:k"; identical for any worker count.`);
+  return { seed, trials: trialsDone, workers, chunkSize, notes, outputs: results };
+}
+
+function runOnWorkers(
+  source: ModelSource,
+  config: ChunkConfig,
+  workerCount: number,
+  chunkCount: number,
+  merge: (summary: ChunkSummary) => void,
+  isStopped: () => boolean,
+): Promise<void> {
+  const script = workerScript();
+  return new Promise((resolve, reject) => {
+    const pending = new Map<number, ChunkSummary>();
+    let nextToSend = 0;
+    let nextToMerge = 0;
+    let finished = false;
+    const pool: Worker[] = [];
+    const finish = (error?: Error): void => {
+      if (finished) return;
+      finished = true;
+      for (const w of pool) void w.terminate();
+      if (error) reject(error);
+      else resolve();
+    };
+    // Two chunks in flight per worker keeps each busy while the main thread merges; a cap on what waits to be
+    // merged bounds memory when one worker falls behind.
+    const inFlightLimit = 2;
+    const inFlight = new Map<Worker, number>();
+    const send = (worker: Worker): void => {
+      while (!isStopped() && nextToSend < chunkCount && pending.size <= 4 * workerCount && inFlight.get(worker)! < inFlightLimit) {
+        worker.postMessage({ type: 'chunk', k: nextToSend++ } satisfies ToWorker);
+        inFlight.set(worker, inFlight.get(worker)! + 1);
+      }
+    };
+    for (let i = 0; i < workerCount; i++) {
+      const worker = new Worker(script);
+      pool.push(worker);
+      inFlight.set(worker, 0);
+      worker.on('message', (message: FromWorker) => {
+        if (finished) return;
+        inFlight.set(worker, inFlight.get(worker)! - 1);
+        if (message.type === 'error') {
+          finish(new ImpossibleError('Monte Carlo', message.message, 'check the design values; this trial could not be evaluated'));
+          return;
+        }
+        pending.set(message.summary.k, message.summary);
+        while (!isStopped() && pending.has(nextToMerge)) {
+          const summary = pending.get(nextToMerge)!;
+          pending.delete(nextToMerge);
+          nextToMerge++;
+          merge(summary);
+        }
+        if (isStopped()) {
+          finish();
+          return;
+        }
+        // Refill every worker (one that waited on the pending cap may now proceed).
+        for (const w of pool) send(w);
+        if (nextToMerge >= chunkCount) finish();
+      });
+      worker.on('error', (error) => finish(error));
+      worker.postMessage({ type: 'init', source, config } satisfies ToWorker);
+      send(worker);
+    }
+  });
+}
+
+function finishOutput(output: Model['outputs'][number], a: Accumulator, range: { lo: number; hi: number }, bins: number): MonteCarloOutput {
+  if (a.nonFinite > 0) {
+    throw new ImpossibleError(
+      `output ${output.name}`,
+      `${a.nonFinite} Monte Carlo trials gave no finite value`,
+      'check the parts whose band reaches zero or a sign change (a resistance, a gain, a threshold below the offsets)',
+    );
+  }
+  const n = a.moments.n;
+  const mean = a.moments.mean;
+  const sigma = momentsSigma(a.moments);
+  const fine: FineHistogram = { lo: range.lo, hi: range.hi, bins, counts: a.counts, min: a.min, max: a.max };
+  let percentiles: Percentile[];
+  let interval95: Interval;
+  let interval9973: Interval;
+  let shortest95: Interval;
+  let shortest9973: Interval;
+  let quantileMethod: 'exact' | 'histogram';
+  let quantileBound: number;
+  if (a.samples && a.sampleCount === n) {
+    const sorted = new Float64Array(n);
+    let offset = 0;
+    for (const s of a.samples) {
+      sorted.set(s, offset);
+      offset += s.length;
+    }
+    a.samples = null;
+    sorted.sort();
+    percentiles = REPORTED_PERCENTILES.map((pct) => ({ pct, value: sortedPercentile(sorted, pct) }));
+    interval95 = symmetricInterval(sorted, 0.95);
+    interval9973 = symmetricInterval(sorted, 0.9973);
+    shortest95 = shortestInterval(sorted, 0.95);
+    shortest9973 = shortestInterval(sorted, 0.9973);
+    quantileMethod = 'exact';
+    quantileBound = 0;
+  } else {
+    percentiles = REPORTED_PERCENTILES.map((pct) => ({ pct, value: histogramPercentile(fine, pct) }));
+    interval95 = histogramSymmetricInterval(fine, 0.95);
+    interval9973 = histogramSymmetricInterval(fine, 0.9973);
+    shortest95 = histogramShortestInterval(fine, 0.95);
+    shortest9973 = histogramShortestInterval(fine, 0.9973);
+    quantileMethod = 'histogram';
+    quantileBound = histogramQuantileBound(fine);
+  }
+  const result: MonteCarloOutput = {
+    name: output.name,
+    unit: output.unit,
+    mean,
+    sigma,
+    min: a.min,
+    max: a.max,
+    percentiles,
+    interval95,
+    interval9973,
+    shortest95,
+    shortest9973,
+    quantileMethod,
+    quantileBound,
+    histogram: coarseHistogram(fine),
+  };
+  if (output.spec) {
+    const [lsl, usl] = output.spec;
+    result.spec = [lsl, usl];
+    const wilson = wilsonInterval(a.inSpec, n);
+    result.yield = { pct: (100 * a.inSpec) / n, low: 100 * wilson.low, high: 100 * wilson.high };
+    result.ppmOut = (1e6 * (n - a.inSpec)) / n;
+    const capability = processCapability(lsl, usl, mean, sigma);
+    if (capability) {
+      result.cp = capability.cp;
+      result.cpk = capability.cpk;
+    }
+  }
+  return result;
+}
