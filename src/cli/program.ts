@@ -11,6 +11,10 @@ export function buildProgram(): Command {
     .configureOutput({ outputError: () => undefined });
   for (const make of commandFactories) program.addCommand(make());
   program.exitOverride();
-  for (const command of program.commands) command.exitOverride();
+  // Subcommands do not inherit the silenced error output: main.ts prints the one line itself.
+  for (const command of program.commands) {
+    command.exitOverride();
+    command.configureOutput({ outputError: () => undefined });
+  }
   return program;
 }
