@@ -81,7 +81,7 @@ describe('trimfree nearest (subprocess)', () => {
   it('28.38k in E96: 28.0 k below, 28.7 k above and nearest, and 24.9 k + 3.48 k exact (hand arithmetic)', () => {
     const r = cli('nearest', '28.38k', '--series', 'E96');
     expect(r.status).toBe(0);
-    expect(r.stdout).toMatch(/│ below +│ 28\.0 kΩ │ 28K +│ -1\.339 % │/);
+    expect(r.stdout).toMatch(/│ below +│ 28\.0 kΩ │ 28K0 │ -1\.339 % │/);
     expect(r.stdout).toMatch(/│ nearest │ 28\.7 kΩ │ 28K7 │ \+1\.128 % │/);
     expect(r.stdout).toMatch(/series +│ 24\.9 kΩ \+ 3\.48 kΩ │ 24K9 \+ 3K48 │ +28\.38 kΩ │ +exact │/);
     expect(r.stdout).not.toMatch(/NaN|Infinity|undefined/);

@@ -10,6 +10,7 @@ import {
   formatEngineeringShortest,
   formatPercent,
   formatRkm,
+  formatRkmDigits,
   formatSignedPercent,
   parseCurrent,
   parseResistance,
@@ -112,5 +113,17 @@ describe('formatPercent', () => {
     expect(formatSignedPercent(0.01128)).toBe('+1.13 %');
     expect(formatSignedPercent(-0.0134)).toBe('-1.34 %');
     expect(formatSignedPercent(0)).toBe('0.00 %');
+  });
+});
+
+describe('formatRkmDigits (three digits for E48…E192 parts, common practice)', () => {
+  it('pads with zeros, never drops digits', () => {
+    expect(formatRkmDigits(28000, 3)).toBe('28K0');
+    expect(formatRkmDigits(10000, 3)).toBe('10K0');
+    expect(formatRkmDigits(383, 3)).toBe('383R');
+    expect(formatRkmDigits(0.1, 3)).toBe('R100');
+    expect(formatRkmDigits(28700, 3)).toBe('28K7');
+    expect(formatRkmDigits(28380, 3)).toBe('28K38');
+    expect(parseResistance(formatRkmDigits(10000, 3), 'rt')).toBe(10000);
   });
 });

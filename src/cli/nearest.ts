@@ -4,7 +4,8 @@ import Table from 'cli-table3';
 import { bestCombinations, POOL_DECADES, type Combination } from '../series/combos.js';
 import { loadSeries, SERIES_NAMES, type SeriesName } from '../series/load.js';
 import { nearestStandard } from '../series/nearest.js';
-import { formatEngineering, formatEngineeringShortest, formatRkm, formatSignedPercent, parseResistance } from '../units/index.js';
+import { seriesDigits } from '../series/series-digits.js';
+import { formatEngineering, formatEngineeringShortest, formatRkmDigits, formatSignedPercent, parseResistance } from '../units/index.js';
 import { integerOption, seriesOption } from './option-parsers.js';
 import { COMPACT_TABLE, shortSource } from './values.js';
 
@@ -22,13 +23,13 @@ function errorText(errorPct: number): string {
   return formatSignedPercent(errorPct / 100, decimals);
 }
 
-function comboRow(combo: Combination): string[] {
+function comboRow(combo: Combination, digits: number): string[] {
   const [a, b] = combo.parts;
   const joint = combo.kind === 'series' ? ' + ' : ' ∥ ';
   return [
     combo.kind,
     `${formatEngineering(a, 'Ω')}${joint}${formatEngineering(b, 'Ω')}`,
-    `${formatRkm(a)}${joint}${formatRkm(b)}`,
+    `${formatRkmDigits(a, digits)}${joint}${formatRkmDigits(b, digits)}`,
     formatEngineeringShortest(combo.value, 'Ω', 4, 6),
     errorText(combo.errorPct),
   ];
@@ -61,21 +62,21 @@ function run(value: number, options: NearestOptions): void {
     ['above', bracket.above, bracket.aboveErrorPct],
     ['nearest', bracket.nearest, bracket.nearestErrorPct],
   ] as const) {
-    single.push([label, formatEngineering(v, 'Ω'), formatRkm(v), errorText(e)]);
+    single.push([label, formatEngineering(v, 'Ω'), formatRkmDigits(v, seriesDigits(series)), errorText(e)]);
   }
   const pairs = new Table({
     head: ['kind', 'parts', 'RKM', 'value', 'error'],
     colAligns: ['left', 'left', 'left', 'right', 'right'],
     ...COMPACT_TABLE,
   });
-  for (const combo of combos) pairs.push(comboRow(combo));
+  for (const combo of combos) pairs.push(comboRow(combo, seriesDigits(series)));
   const best = combos[0];
   const note =
     best !== undefined && Math.abs(best.errorPct) >= Math.abs(bracket.nearestErrorPct)
       ? 'The single nearest value is at least as close as any pair.\n'
       : '';
   process.stdout.write(
-    `target ${formatEngineeringShortest(value, 'Ω')} (${formatRkm(value)}) in ${series}, ${shortSource(loadSeries(series).source)}\n` +
+    `target ${formatEngineeringShortest(value, 'Ω')} (${formatRkmDigits(value, seriesDigits(series))}) in ${series}, ${shortSource(loadSeries(series).source)}\n` +
       `${single.toString()}\n` +
       `best two-part combinations from ${series} (${count} per kind; parts within ${POOL_DECADES} decades of the target)\n` +
       `${pairs.toString()}\n${note}` +

@@ -4,7 +4,8 @@ import Table from 'cli-table3';
 import { InputError } from '../errors.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
 import { loadSeries, SERIES_NAMES, type SeriesName } from '../series/load.js';
-import { formatEngineering, formatRkm, formatSignedPercent } from '../units/index.js';
+import { seriesDigits } from '../series/series-digits.js';
+import { formatEngineering, formatRkmDigits, formatSignedPercent } from '../units/index.js';
 import { resistanceOption, seriesOption } from './option-parsers.js';
 
 interface ValuesOptions {
@@ -47,7 +48,7 @@ function run(series: SeriesName, options: ValuesOptions): void {
   values.forEach((value, i) => {
     const previous = i > 0 ? (values[i - 1] as number) : undefined;
     const step = previous === undefined ? '' : formatSignedPercent(value / previous - 1, 1);
-    table.push([String(i + 1), formatEngineering(value, 'Ω'), formatRkm(value), step]);
+    table.push([String(i + 1), formatEngineering(value, 'Ω'), formatRkmDigits(value, seriesDigits(series)), step]);
   });
   process.stdout.write(
     `${series}: ${values.length} values from ${formatEngineering(from, 'Ω')} to ${formatEngineering(to, 'Ω')}\n` +

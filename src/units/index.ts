@@ -5,6 +5,6 @@ export { formatPercent, formatSignedPercent, parsePercent, type SignOption } fro
 export { formatPpmPerK, parsePpmPerK } from './ppm-per-kelvin.js';
 export { parseRange, type Range } from './range.js';
 export { formatEngineering, formatEngineeringShortest } from './format-engineering.js';
-export { formatRkm } from './format-rkm.js';
+export { formatRkm, formatRkmDigits } from './format-rkm.js';
 export { parseLetterCode, RESISTANCE_CODE_LETTERS } from './rkm-code.js';
 export { SI_PREFIX_EXPONENTS, SI_PREFIX_LIST, SI_PREFIX_SYMBOLS } from './si-prefix.js';
