@@ -4,6 +4,7 @@ import type { Command } from 'commander';
 import { dividerCommand } from './divider.js';
 import { nearestCommand } from './nearest.js';
 import { senseCommand } from './sense.js';
+import { spreadCommand } from './spread.js';
 import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand, spreadCommand];

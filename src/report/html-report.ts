@@ -9,6 +9,7 @@ import { describeDistribution } from '../tolerance/sample.js';
 import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
 import { escapeHtml, exact } from './html-escape.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits, outputTitle } from './format-value.js';
+import { groupMethodNotes } from './method-notes.js';
 import { outputFigures } from './spread-text.js';
 import { renderSvgContributions } from './svg-contributions.js';
 import { renderSvgHistogram } from './svg-histogram.js';
@@ -140,7 +141,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
     'Worst case: the extremes over the tolerance band ends and temperature corners (method per output in its table).',
     'RSS: law of propagation of uncertainty with numerical sensitivity coefficients (JCGM 100:2008, 5.1.2).',
     'Yield: share of trials inside the spec window, with its 95 % Wilson score interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.',
-    ...r.notes,
+    ...groupMethodNotes(r.notes, new Set(input.parts.map((p) => p.name))),
   ];
   return `<!DOCTYPE html>
 <html lang="en">

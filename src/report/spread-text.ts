@@ -13,6 +13,7 @@ import {
   outputDigits,
   outputTitle,
 } from './format-value.js';
+import { groupMethodNotes } from './method-notes.js';
 import { textTable } from './text-table.js';
 
 export interface SpreadTextOptions {
@@ -20,6 +21,8 @@ export interface SpreadTextOptions {
   /** What was analysed (the design file's name), for the heading. */
   subject: string;
   cautions?: string[];
+  /** Names of the model's parts, so the per-part method notes can be grouped (see method-notes.ts). */
+  partNames?: string[];
   /** Contributors listed per output (default 5). */
   contributors?: number;
   histogram?: boolean;
@@ -110,7 +113,7 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
   if (result.notes.length > 0) {
     out.push('');
     out.push('how it was obtained:');
-    for (const note of result.notes) out.push(`  - ${note}`);
+    for (const note of groupMethodNotes(result.notes, options.partNames ? new Set(options.partNames) : null)) out.push(`  - ${note}`);
   }
   if (options.cautions && options.cautions.length > 0) {
     out.push('');

@@ -4,13 +4,23 @@ import type { OutputResult } from '../analysis/result.js';
 import { formatShare } from './format-value.js';
 import { coordinate, escapeHtml, exact } from './html-escape.js';
 
+/** Parts below this share of the variance are summed into one line rather than drawn (0.1 %). */
+export const SMALLEST_SHARE_DRAWN = 0.001;
+
+/** The contributions the chart draws: the largest, at most maxParts, each at least SMALLEST_SHARE_DRAWN. */
+export function drawnContributions(output: OutputResult, maxParts = 10): OutputResult['contributions'] {
+  return output.contributions.filter((c) => c.varianceShare >= SMALLEST_SHARE_DRAWN).slice(0, maxParts);
+}
+
 export function renderSvgContributions(output: OutputResult, maxParts = 10): string {
-  const rows = output.contributions.slice(0, maxParts);
+  const rows = drawnContributions(output, maxParts);
+  const rest = output.contributions.slice(rows.length);
+  const restShare = rest.reduce((sum, c) => sum + c.varianceShare, 0);
   const rowH = 22;
   const labelW = 150;
   const barW = 420;
   const width = labelW + barW + 80;
-  const height = Math.max(1, rows.length) * rowH + 8;
+  const height = (Math.max(1, rows.length) + (rest.length > 0 ? 1 : 0)) * rowH + 8;
   const parts: string[] = [
     `<svg xmlns="http://www.w3.org/2000/svg" class="contributions" data-output="${escapeHtml(output.name)}" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" role="img" aria-label="${escapeHtml(output.name)}: share of variance by part">`,
   ];
@@ -24,6 +34,11 @@ export function renderSvgContributions(output: OutputResult, maxParts = 10): str
       `<text class="share-label" x="${coordinate(labelW + w + 6)}" y="${y + 15}">${escapeHtml(formatShare(c.varianceShare))}</text>`,
     );
   });
+  if (rest.length > 0) {
+    parts.push(
+      `<text class="rest-label" x="${labelW - 6}" y="${4 + rows.length * rowH + 15}" data-parts="${rest.length}">${rest.length} more part${rest.length === 1 ? '' : 's'}, ${escapeHtml(formatShare(restShare))} together</text>`,
+    );
+  }
   parts.push('</svg>');
   return parts.join('\n');
 }

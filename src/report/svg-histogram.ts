@@ -15,15 +15,26 @@ const LEFT = 48;
 const RIGHT = 16;
 const TOP = 46; // room for the worst-case bracket and the interval band's label
 const BOTTOM = 44;
+/** A spec limit further than this many spans of the spread beyond it is drawn off-scale at the axis end. */
+const OFF_SCALE_REACH = 1;
 
 export function renderSvgHistogram(output: OutputResult): string {
   const bins = displayBins(output.histogram, HISTOGRAM_MAX_BINS);
   const digits = outputDigits(output);
   const label = (v: number): string => escapeHtml(formatValue(v, output.unit, digits));
+  // The axis spans the histogram, the worst-case range, the 95 % interval and the nominal value; a spec limit far
+  // outside that (a 1 W rating for a 0.2 W loss) is drawn at the axis end, marked off-scale, so the spread stays
+  // readable.
   const marks = [output.worstCase.min, output.worstCase.max, output.interval95.low, output.interval95.high, output.nominal];
-  if (output.spec) marks.push(output.spec[0], output.spec[1]);
   let lo = Math.min(bins[0].low, ...marks);
   let hi = Math.max(bins[bins.length - 1].high, ...marks);
+  const reach = Math.max(hi - lo, Math.abs(hi) * 1e-9);
+  if (output.spec) {
+    for (const limit of output.spec) {
+      if (limit < lo && limit >= lo - OFF_SCALE_REACH * reach) lo = limit;
+      if (limit > hi && limit <= hi + OFF_SCALE_REACH * reach) hi = limit;
+    }
+  }
   if (!(hi > lo)) {
     const pad = Math.abs(lo) * 1e-6 || 1e-12;
     lo -= pad;
@@ -34,7 +45,7 @@ export function renderSvgHistogram(output: OutputResult): string {
   hi += pad;
   const plotW = WIDTH - LEFT - RIGHT;
   const plotH = HEIGHT - TOP - BOTTOM;
-  const x = (v: number): number => LEFT + ((v - lo) / (hi - lo)) * plotW;
+  const x = (v: number): number => LEFT + ((Math.min(hi, Math.max(lo, v)) - lo) / (hi - lo)) * plotW;
   const peak = Math.max(1, ...bins.map((b) => b.count));
   const y = (count: number): number => TOP + plotH - (count / peak) * plotH;
   const parts: string[] = [];
@@ -60,8 +71,11 @@ export function renderSvgHistogram(output: OutputResult): string {
   parts.push(`<line class="axis" x1="${LEFT}" y1="${TOP + plotH}" x2="${WIDTH - RIGHT}" y2="${TOP + plotH}"/>`);
   const vertical = (marker: string, value: number, cls: string, text: string, row: number): void => {
     const px = coordinate(x(value));
+    const offScale = value < lo || value > hi;
+    const shown = offScale ? `${value < lo ? '← ' : ''}${text} (off scale)${value > hi ? ' →' : ''}` : text;
+    const anchor = offScale ? (value < lo ? 'start' : 'end') : 'middle';
     parts.push(
-      `<g class="marker ${cls}" data-marker="${marker}" data-value="${exact(value)}"><line x1="${px}" y1="${TOP - 4}" x2="${px}" y2="${TOP + plotH}"/><text x="${px}" y="${TOP + plotH + 14 + row * 13}" text-anchor="middle">${text}</text></g>`,
+      `<g class="marker ${cls}${offScale ? ' off-scale' : ''}" data-marker="${marker}" data-value="${exact(value)}"${offScale ? ' data-off-scale="true"' : ''}><line x1="${px}" y1="${TOP - 4}" x2="${px}" y2="${TOP + plotH}"/><text x="${px}" y="${TOP + plotH + 14 + row * 13}" text-anchor="${anchor}">${shown}</text></g>`,
     );
   };
   if (output.spec) {
@@ -80,7 +94,7 @@ export function renderSvgHistogram(output: OutputResult): string {
     `<g class="marker worst" data-marker="worst-max" data-value="${exact(output.worstCase.max)}"><line x1="${x2}" y1="${wy - 6}" x2="${x2}" y2="${TOP + plotH}"/></g>`,
     `<line class="worst-bracket" x1="${x1}" y1="${wy}" x2="${x2}" y2="${wy}"/>`,
     `<text class="worst-label" x="${coordinate((x(output.worstCase.min) + x(output.worstCase.max)) / 2)}" y="${wy - 4}" text-anchor="middle">worst case ${label(output.worstCase.min)} … ${label(output.worstCase.max)}</text>`,
-    `<text class="interval-label" x="${coordinate((x(output.interval95.low) + x(output.interval95.high)) / 2)}" y="${TOP + 12}" text-anchor="middle">95 % interval</text>`,
+    `<text class="interval-label" x="${coordinate((x(output.interval95.low) + x(output.interval95.high)) / 2)}" y="${TOP - 8}" text-anchor="middle">95 % interval</text>`,
   );
   parts.push(`<text class="peak-label" x="${LEFT - 4}" y="${TOP + 4}" text-anchor="end">${peak.toLocaleString('en-US')}</text>`);
   parts.push('</svg>');

@@ -1,0 +1,283 @@
+// `trimfree spread FILE`: how far production units of a design will spread. Loads and resolves the design file
+// (filling "auto" values the same way `design` does), runs the analysis (worst case, RSS, Monte Carlo) and prints
+// the terminal report, or JSON; optionally writes the samples as CSV and the HTML review report.
+// Thin: the engine (src/analysis) computes, src/report renders; this module wires options to them. Exports the
+// pieces `design` reuses: runSpread, spreadReportJson, renderSpreadRunText, renderSpreadRunHtml, writeSpreadFiles.
+import { existsSync } from 'node:fs';
+import { Command, Option } from 'commander';
+import { analyze } from '../analysis/analyze.js';
+import type { Model } from '../analysis/model.js';
+import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
+import type { AnalysisResult } from '../analysis/result.js';
+import { firstTrials } from '../analysis/trial-values.js';
+import type { BomLine } from '../design/bom.js';
+import { loadDesignFile } from '../design/load.js';
+import { DEFAULT_SEED, resolveDesign, type ResolvedDesign } from '../design/resolve.js';
+import { InputError } from '../errors.js';
+import type { BomRow } from '../report/html-report.js';
+import { renderHtmlReport } from '../report/html-report.js';
+import { spreadJson, stringifyReport, type SpreadJson } from '../report/json.js';
+import { renderSamplesCsv } from '../report/samples-csv.js';
+import { renderSpreadText } from '../report/spread-text.js';
+import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
+import { integerOption } from './option-parsers.js';
+import { writeOutputFile } from './output-file.js';
+import { createProgress } from './progress.js';
+import { VERSION } from './version.js';
+
+/** Monte Carlo trials when neither the file nor the command line says: the adaptive procedure of JCGM 101:2008 7.9. */
+export const DEFAULT_SPREAD_TRIALS = 'auto' as const;
+/** Rows written to the samples CSV unless --sample-rows says otherwise (about 40 MB for a typical design). */
+export const DEFAULT_SAMPLE_ROWS = 100_000;
+/** Largest seed a design file accepts; the command line takes the same range. */
+const MAX_SEED = 2 ** 32 - 1;
+
+export interface AnalysisChoice {
+  trials: number | 'auto';
+  seed: number;
+  workers?: number;
+  /** Draw a progress line on stderr (only when it is a terminal and the run takes over a second). */
+  progress: boolean;
+}
+
+export interface CommandLineAnalysis {
+  trials?: number | 'auto';
+  seed?: number;
+  workers?: number;
+}
+
+/** The command line wins over the design file's `analysis` section, which wins over the defaults. */
+export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysis, defaultTrials: number | 'auto'): AnalysisChoice {
+  const choice: AnalysisChoice = {
+    trials: cli.trials ?? resolved.analysis.trials ?? defaultTrials,
+    seed: cli.seed ?? resolved.analysis.seed ?? DEFAULT_SEED,
+    progress: true,
+  };
+  const workers = cli.workers ?? resolved.analysis.workers;
+  if (workers !== undefined) choice.workers = workers;
+  return choice;
+}
+
+export interface SpreadRun {
+  resolved: ResolvedDesign;
+  choice: AnalysisChoice;
+  model: Model;
+  result: AnalysisResult;
+  /** Adjustable output: the same analysis with the pot at the bottom of its travel. */
+  lowEnd?: { model: Model; result: AnalysisResult };
+}
+
+async function analyzeWithProgress(spec: SupplySpec, choice: AnalysisChoice, label: string): Promise<AnalysisResult> {
+  const progress = createProgress({ label });
+  try {
+    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
+    if (choice.workers !== undefined) options.workers = choice.workers;
+    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
+    return await analyze(spec, options);
+  } finally {
+    progress.finish();
+  }
+}
+
+/** Runs the analysis of a resolved design (and of its low end when the output is adjustable). */
+export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice): Promise<SpreadRun> {
+  const model = buildSupplyModel(resolved.spec);
+  const result = await analyzeWithProgress(resolved.spec, choice, 'spread');
+  const run: SpreadRun = { resolved, choice, model, result };
+  if (resolved.lowEnd) {
+    run.lowEnd = { model: buildSupplyModel(resolved.lowEnd), result: await analyzeWithProgress(resolved.lowEnd, choice, 'spread, low end') };
+  }
+  return run;
+}
+
+export interface SpreadReportJson extends SpreadJson {
+  notes: string[];
+  /** Adjustable output: the pot at the bottom of its travel. */
+  lowEnd?: SpreadJson;
+}
+
+export function spreadReportJson(run: SpreadRun): SpreadReportJson {
+  const json: SpreadReportJson = { ...spreadJson(run.result, { version: VERSION, cautions: run.resolved.cautions }), notes: run.resolved.notes.slice() };
+  if (run.lowEnd) json.lowEnd = spreadJson(run.lowEnd.result, { version: VERSION });
+  return json;
+}
+
+export function renderSpreadRunText(run: SpreadRun, subject: string): string {
+  const partNames = run.model.parts.map((p) => p.name);
+  let text = renderSpreadText(run.result, { version: VERSION, subject, partNames });
+  if (run.lowEnd) {
+    text += `\n${renderSpreadText(run.lowEnd.result, { version: VERSION, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
+  }
+  if (run.resolved.notes.length > 0) text += `\ndesign notes:\n${run.resolved.notes.map((n) => `  - ${n}`).join('\n')}\n`;
+  if (run.resolved.cautions.length > 0) text += `\ncaution:\n${run.resolved.cautions.map((c) => `  ! ${c}`).join('\n')}\n`;
+  return text;
+}
+
+/** The design layer's BOM lines, formatted for the report. */
+export function bomRows(bom: BomLine[]): BomRow[] {
+  return bom.map((line) => {
+    const row: BomRow = {
+      designator: line.designator,
+      value: formatEngineering(line.ohms, 'Ω', 4),
+      code: line.code,
+      series: line.series,
+      tolerance: formatPercent(line.tolerance, line.tolerance < 0.01 ? 2 : 1),
+      tcr: formatPpmPerK(line.tcrPerK),
+      power: `${formatEngineering(line.powerW, 'W')}${line.ratingW !== undefined ? ` of ${formatEngineering(line.ratingW, 'W')} rated` : ''}`,
+      note: `${line.role}; power at ${line.powerAt}`,
+    };
+    return row;
+  });
+}
+
+export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: string): string {
+  const input: Parameters<typeof renderHtmlReport>[0] = {
+    title: `trimfree spread report: ${subject}`,
+    subject,
+    version: VERSION,
+    result: run.result,
+    parts: run.model.parts,
+    bom: bomRows(run.resolved.bom),
+    cautions: run.resolved.cautions,
+    designNotes: run.resolved.notes,
+  };
+  if (command) input.command = command;
+  return renderHtmlReport(input);
+}
+
+/** The first `rows` trials of the run (the engine's own trials, same seed), parts and outputs, as CSV. */
+export function renderSpreadSamplesCsv(run: SpreadRun, rows: number): string {
+  const stream = {
+    seed: run.result.seed,
+    chunkSize: run.result.chunkSize,
+    runTrials: run.choice.trials === 'auto' ? 0 : run.result.trials,
+  };
+  const values = firstTrials(run.model, stream, Math.min(rows, run.result.trials));
+  return renderSamplesCsv({
+    ...values,
+    partUnits: run.model.parts.map((p) => p.unit),
+    outputUnits: run.model.outputs.map((o) => o.unit),
+  });
+}
+
+export interface SpreadFiles {
+  samples?: string;
+  sampleRows?: number;
+  report?: string;
+  force: boolean;
+  subject: string;
+  command?: string;
+}
+
+/** Writes the CSV and HTML files asked for; refuses to overwrite without force (before any analysis runs). */
+export function checkOutputPaths(files: SpreadFiles): void {
+  if (files.samples !== undefined && files.report !== undefined && files.samples === files.report) {
+    throw new InputError('--report', 'the same file as --samples', 'two different file names');
+  }
+}
+
+export function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): string[] {
+  const written: string[] = [];
+  if (files.samples !== undefined) {
+    writeOutputFile(files.samples, renderSpreadSamplesCsv(run, files.sampleRows ?? DEFAULT_SAMPLE_ROWS), { force: files.force, where: '--samples' });
+    written.push(files.samples);
+  }
+  if (files.report !== undefined) {
+    writeOutputFile(files.report, renderSpreadRunHtml(run, files.subject, files.command), { force: files.force, where: '--report' });
+    written.push(files.report);
+  }
+  return written;
+}
+
+/** Loads and resolves a design file (shared with `grades`). */
+export function loadResolved(path: string): ResolvedDesign {
+  return resolveDesign(loadDesignFile(path));
+}
+
+// ---- command-line options ------------------------------------------------------------------------------------
+
+export function trialsOption(name: string): (value: string) => number | 'auto' {
+  const whole = integerOption(name, 100, 1e10);
+  return (value: string) => {
+    if (value.trim() === 'auto') return 'auto';
+    try {
+      return whole(value);
+    } catch (error) {
+      if (error instanceof InputError) throw new InputError(name, error.message, `${error.accepted}, or auto (adaptive, JCGM 101:2008 7.9)`);
+      throw error;
+    }
+  };
+}
+
+export const seedOption = (name: string): ((value: string) => number) => integerOption(name, 0, MAX_SEED);
+export const workersOption = (name: string): ((value: string) => number) => integerOption(name, 1, 256);
+
+/** Refuses existing output files before the (possibly long) run, so nothing is computed for nothing. */
+export function refuseExisting(path: string | undefined, where: string, force: boolean): void {
+  if (path === undefined || force) return;
+  // writeOutputFile checks again when it writes; this early check only saves a wasted run.
+  if (existsSync(path)) throw new InputError(where, `${path} already exists and would be overwritten`, 'a new file name, or --force to replace it');
+}
+
+interface SpreadCliOptions {
+  json?: boolean;
+  samples?: string;
+  sampleRows?: number;
+  report?: string;
+  force?: boolean;
+  seed?: number;
+  trials?: number | 'auto';
+  workers?: number;
+}
+
+async function run(file: string, options: SpreadCliOptions): Promise<void> {
+  const force = options.force ?? false;
+  refuseExisting(options.samples, '--samples', force);
+  refuseExisting(options.report, '--report', force);
+  const files: SpreadFiles = { force, subject: file, command: `trimfree spread ${process.argv.slice(3).join(' ')}`.trim() };
+  if (options.samples !== undefined) files.samples = options.samples;
+  if (options.report !== undefined) files.report = options.report;
+  if (options.sampleRows !== undefined) files.sampleRows = options.sampleRows;
+  checkOutputPaths(files);
+  const resolved = loadResolved(file);
+  const cli: CommandLineAnalysis = {};
+  if (options.trials !== undefined) cli.trials = options.trials;
+  if (options.seed !== undefined) cli.seed = options.seed;
+  if (options.workers !== undefined) cli.workers = options.workers;
+  const result = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS));
+  const written = writeSpreadFiles(result, files);
+  if (options.json) {
+    process.stdout.write(stringifyReport(spreadReportJson(result)));
+  } else {
+    process.stdout.write(renderSpreadRunText(result, file));
+  }
+  for (const path of written) process.stderr.write(`wrote ${path}\n`);
+}
+
+export function spreadCommand(): Command {
+  return new Command('spread')
+    .description('worst case, RSS and Monte Carlo spread of a design file: yield, Cpk, contributors, histogram')
+    .configureOutput({ outputError: () => undefined })
+    .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
+    .option('--json', 'print JSON: { seed, trials, version, outputs: { NAME: { nominal, mean, sigma, interval95, worstCase, rss, yieldPct, cpk, contributions, … } } }')
+    .addOption(new Option('--samples <file.csv>', 'write the Monte Carlo trials (parts and outputs, SI units) as CSV'))
+    .addOption(new Option('--sample-rows <n>', 'trials written to the samples CSV').argParser(integerOption('--sample-rows', 1, 10_000_000)).default(DEFAULT_SAMPLE_ROWS, '100000'))
+    .addOption(new Option('--report <file.html>', 'write the HTML review report (one self-contained file)'))
+    .option('--force', 'overwrite existing output files', false)
+    .addOption(new Option('--seed <n>', 'random seed (default: the file\'s, else 1)').argParser(seedOption('--seed')))
+    .addOption(new Option('--trials <n|auto>', 'Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file\'s, else auto)').argParser(trialsOption('--trials')))
+    .addOption(new Option('--workers <n>', 'worker threads; results do not depend on it (default: the file\'s, else every core)').argParser(workersOption('--workers')))
+    .addHelpText(
+      'after',
+      `
+Monte Carlo per JCGM 101:2008 (same seed, same numbers for any worker count); worst case over every tolerance
+extreme and temperature corner; RSS by JCGM 100:2008 5.1.2. Yield counts the trials inside each output's spec
+window, with a 95 % Wilson interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.
+
+Examples:
+  $ trimfree spread examples/charger-2s.json
+  $ trimfree spread examples/charger-2s.json --trials 1000000 --seed 7 --json
+  $ trimfree spread examples/led-driver.json --report led.html --samples led.csv --force`,
+    )
+    .action((file: string, options: SpreadCliOptions) => run(file, options));
+}
