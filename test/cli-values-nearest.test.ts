@@ -128,6 +128,10 @@ describe('trimfree nearest (subprocess)', () => {
   it('a target beyond orderable parts is refused', () => {
     expectOneLineError(cli('nearest', '1p'), /outside the span of orderable resistors/);
   });
+  it("commander's own errors are one line too: missing argument, unknown option", () => {
+    expectOneLineError(cli('nearest'), /missing required argument 'value'/);
+    expectOneLineError(cli('values', 'E24', '--bogus'), /unknown option '--bogus'/);
+  });
   it('a bad --count is refused', () => {
     expectOneLineError(cli('nearest', '1k', '--count', '0'), /--count: 0 is out of range/);
   });
