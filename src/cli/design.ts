@@ -1,0 +1,110 @@
+// `trimfree design FILE`: the everyday flow. Loads the design file, fills every "auto" value with the pickers,
+// prints the BOM, runs the spread (worst case, RSS, Monte Carlo) and the grade comparison, and writes the HTML
+// report when asked. Thin: src/design resolves, src/analysis computes, src/report renders (through the `spread`
+// and `grades` commands' exported pieces, so the three commands agree).
+import Table from 'cli-table3';
+import { Command, Option } from 'commander';
+import { loadDesignFile } from '../design/load.js';
+import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
+import { stringifyReport } from '../report/json.js';
+import {
+  analysisChoice,
+  bomRows,
+  checkOutputPaths,
+  refuseExisting,
+  renderSpreadRunText,
+  runSpread,
+  seedOption,
+  spreadReportJson,
+  trialsOption,
+  workersOption,
+  writeSpreadFiles,
+  type CommandLineAnalysis,
+  type SpreadFiles,
+} from './spread.js';
+import { COMPACT_TABLE } from './values.js';
+
+/** Monte Carlo trials for `design` when neither the file nor the command line says: adaptive (JCGM 101:2008 7.9). */
+export const DEFAULT_DESIGN_TRIALS = 'auto' as const;
+
+interface DesignCliOptions {
+  json?: boolean;
+  report?: string;
+  force?: boolean;
+  seed?: number;
+  trials?: number | 'auto';
+  workers?: number;
+}
+
+/** The BOM as a terminal table. */
+export function renderBomText(resolved: ResolvedDesign): string {
+  const table = new Table({
+    head: ['part', 'value', 'code', 'series', 'tol', 'TCR', 'power (rating)', 'role'],
+    colAligns: ['left', 'right', 'left', 'left', 'right', 'right', 'right', 'left'],
+    ...COMPACT_TABLE,
+  });
+  const rows = bomRows(resolved.bom);
+  resolved.bom.forEach((line, i) => {
+    const row = rows[i]!;
+    table.push([row.designator, row.value, row.code, row.series, row.tolerance, row.tcr, row.power, line.role]);
+  });
+  const at = [...new Set(resolved.bom.map((l) => `${l.designator}: ${l.powerAt}`))];
+  return `bill of materials\n${table.toString()}\npower taken ${summarisePowerBasis(at)}\n`;
+}
+
+function summarisePowerBasis(lines: string[]): string {
+  const byBasis = new Map<string, string[]>();
+  for (const line of lines) {
+    const [designator, basis] = line.split(': ') as [string, string];
+    byBasis.set(basis, [...(byBasis.get(basis) ?? []), designator]);
+  }
+  return [...byBasis].map(([basis, names]) => `${basis} (${names.join(', ')})`).join('; ');
+}
+
+async function run(file: string, options: DesignCliOptions): Promise<void> {
+  const force = options.force ?? false;
+  refuseExisting(options.report, '--report', force);
+  const files: SpreadFiles = { force, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
+  if (options.report !== undefined) files.report = options.report;
+  checkOutputPaths(files);
+
+  const resolved = resolveDesign(loadDesignFile(file));
+  const cli: CommandLineAnalysis = {};
+  if (options.trials !== undefined) cli.trials = options.trials;
+  if (options.seed !== undefined) cli.seed = options.seed;
+  if (options.workers !== undefined) cli.workers = options.workers;
+  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_DESIGN_TRIALS));
+  const written = writeSpreadFiles(spread, files);
+
+  if (options.json) {
+    process.stdout.write(stringifyReport({ bom: resolved.bom, spread: spreadReportJson(spread) }));
+  } else {
+    process.stdout.write(`${renderBomText(resolved)}\n${renderSpreadRunText(spread, file)}`);
+  }
+  for (const path of written) process.stderr.write(`wrote ${path}\n`);
+}
+
+export function designCommand(): Command {
+  return new Command('design')
+    .description('fill "auto" values with the pickers, then BOM, spread and grade comparison, and the HTML report')
+    .configureOutput({ outputError: () => undefined })
+    .argument('<file>', 'design file (JSON); `trimfree init` writes a starter')
+    .option('--json', 'print JSON: { bom: [{ designator, ohms, code, series, tolerance, tcrPerK, powerW, ratingW? }], spread: { seed, trials, outputs, … } }')
+    .addOption(new Option('--report <file.html>', 'write the HTML review report (one self-contained file)'))
+    .option('--force', 'overwrite an existing report file', false)
+    .addOption(new Option('--seed <n>', "random seed (default: the file's, else 1)").argParser(seedOption('--seed')))
+    .addOption(new Option('--trials <n|auto>', "Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)").argParser(trialsOption('--trials')))
+    .addOption(new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers')))
+    .addHelpText(
+      'after',
+      `
+"auto" values are picked as \`divider\` and \`sense\` pick them (their best candidate); the BOM gives the power each
+part handles at the operating point. The spread is the same as \`spread\` gives for the filled-in design.
+
+Examples:
+  $ trimfree design examples/charger-2s-liion.json
+  $ trimfree design examples/led-driver-highside.json --report led.html --force
+  $ trimfree design examples/bench-adjustable.json --json --trials 100000 --seed 7`,
+    )
+    .action((file: string, options: DesignCliOptions) => run(file, options));
+}

@@ -1,0 +1,86 @@
+// Starter design files written by `trimfree init`, one per kind of supply. Each is valid as written (a test checks
+// it), uses "auto" wherever trimfree can pick, and explains each section in its notes. The figures are placeholders
+// of our own, typical of the parts' class: replace them with your datasheets' numbers.
+import type { DesignInput } from './schema.js';
+
+export const STARTER_KINDS = ['charger', 'bench', 'led'] as const;
+export type StarterKind = (typeof STARTER_KINDS)[number];
+
+const COMMON_NOTES = [
+  'Starter written by `trimfree init`: the figures are PLACEHOLDERS, replace each with your part datasheets\' values.',
+  'Values take notation ("4K7", "12 V", "1%", "100ppm") or plain numbers in SI units (percent for tolerances, ppm/K for TCRs). `trimfree schema` prints the JSON Schema for editors.',
+  'reference: the voltage the regulator holds its feedback pin at, and its tolerance.',
+  'voltage: the output set-point: target, spec window, the feedback divider ("auto" picks standard values), feedback-pin bias current.',
+  'current: the current limit: target, window, topology (direct, noninv, diff), shunt, amplifier offsets, threshold, gain resistors.',
+  'resistors: the default grade (5%, 1%, 0.5%, 0.1%) with per-designator overrides (RTOP, RBOT, RS, RF, RG, R1-R4, RT1, RT2).',
+  'temperature: ambient range for TCRs and drifts. analysis: Monte Carlo trials ("auto" or a number) and seed. costs: relative cost per grade (defaults illustrative).',
+];
+
+const TEMPLATES: Record<StarterKind, DesignInput> = {
+  charger: {
+    notes: [
+      ...COMMON_NOTES,
+      'CAUTION: a lithium cell\'s charge-voltage window comes from the cell datasheet. Check the worst-case maximum output against it and keep independent pack protection.',
+    ],
+    application: 'charger',
+    reference: { voltage: '1.25 V', tolerance: '0.5%', notes: 'Charger references are usually 0.5 % or better; the CV window needs it.' },
+    voltage: { target: '8.4 V', window: '±0.75%', divider: 'auto', feedbackBias: '50 nA', notes: 'Two cells at 4.20 V each.' },
+    current: {
+      target: '1.5 A',
+      window: '±10%',
+      topology: 'noninv',
+      shunt: { value: 'auto', rating: '1 W', tcr: '75ppm', thermalResistance: '60 K/W' },
+      amplifier: { vos: '2 mV', vosDrift: '5 µV/K', biasCurrent: '100 nA', rail: '5 V', headroom: '0.2 V' },
+      compareOffset: '1 mV',
+      threshold: { voltage: '1.0 V', tolerance: '1%' },
+      gain: 'auto',
+      notes: 'Low-side shunt into a non-inverting amplifier compared with a fixed 1.0 V threshold.',
+    },
+    resistors: { grade: '1%', overrides: { RTOP: { grade: '0.1%' }, RBOT: { grade: '0.1%' } } },
+    temperature: { min: '0 °C', max: '45 °C' },
+    analysis: { trials: 'auto', seed: 1 },
+  },
+  bench: {
+    notes: [...COMMON_NOTES, 'Adjustable output: a pot in the top leg of the divider, chosen so every unit covers the target range.'],
+    application: 'bench',
+    reference: { voltage: '1.25 V', tolerance: '1%' },
+    voltage: { target: '1.5..20 V', pot: { value: '10k', tolerance: '20%', leg: 'top' }, divider: 'auto', search: { bottom: '200..2k' }, feedbackBias: '100 nA' },
+    current: {
+      target: '3 A',
+      window: '±10%',
+      topology: 'noninv',
+      shunt: { value: 'auto', rating: '2 W', tcr: '100ppm', thermalResistance: '40 K/W' },
+      amplifier: { vos: '2 mV', biasCurrent: '100 nA', rail: '5 V', headroom: '0.2 V' },
+      threshold: { voltage: '1.2 V', tolerance: '1%' },
+      gain: 'auto',
+    },
+    resistors: { grade: '1%' },
+    temperature: { min: '10 °C', max: '40 °C' },
+    analysis: { trials: 'auto', seed: 1 },
+  },
+  led: {
+    notes: [...COMMON_NOTES, 'LED driver: the current loop sets the LED current; the voltage loop only clamps the output if the string opens. High-side sensing with a difference amplifier.'],
+    application: 'led',
+    reference: { voltage: '0.8 V', tolerance: '1%' },
+    voltage: { target: '24 V', window: '±4%', divider: 'auto', feedbackBias: '50 nA' },
+    current: {
+      target: '700 mA',
+      window: '±5%',
+      topology: 'diff',
+      commonMode: '19 V',
+      shunt: { value: 'auto', rating: '0.5 W', tcr: '50ppm', thermalResistance: '80 K/W' },
+      amplifier: { vos: '2 mV', biasCurrent: '50 nA', rail: '24 V', headroom: '0.5 V' },
+      threshold: { voltage: '1.0 V', tolerance: '1%' },
+      gain: 'auto',
+      notes: 'The shunt sits between the supply and the LED string; commonMode is the string\'s anode voltage.',
+    },
+    resistors: { grade: '1%', overrides: { R1: { grade: '0.1%' }, R2: { grade: '0.1%' }, R3: { grade: '0.1%' }, R4: { grade: '0.1%' } } },
+    temperature: { min: '-20 °C', max: '60 °C' },
+    analysis: { trials: 'auto', seed: 1 },
+  },
+};
+
+/** The starter design of a kind, as the JSON text `init` writes. */
+export function starterText(kind: StarterKind): string {
+  return `${JSON.stringify(TEMPLATES[kind], null, 2)}\n`;
+}

@@ -1,0 +1,158 @@
+// The design file's loader: notation converted to SI, and every bad file answered with one InputError that names
+// the field path, what was given and what is accepted. Expected SI values: the notation's definition (IEC 60062
+// letter code 4K7 = 4.7 kΩ; 1 % = 0.01; 100 ppm/K = 1e-4 per kelvin).
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { ImpossibleError, InputError, describeError } from '../src/errors.js';
+import { loadDesignFile, parseDesignText, validateDesign } from '../src/design/load.js';
+import { baseDesign } from './design-fixture.js';
+
+function errorOf(mutate: (d: Record<string, any>) => void): InputError {
+  const design = baseDesign();
+  mutate(design);
+  try {
+    validateDesign(design, 'test.json');
+  } catch (error) {
+    if (error instanceof InputError) return error;
+    throw error;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('design values in SI units', () => {
+  it('converts notation and plain numbers', () => {
+    const d = baseDesign();
+    d.voltage.divider = { top: '4K7', bottom: 1000 };
+    d.resistors = { tolerance: 0.5, tcr: 100, series: 'e96' };
+    d.current.amplifier.biasCurrent = '50 nA';
+    d.current.amplifier.vosDrift = '5 µV/K';
+    d.current.shunt.thermalResistance = '60 °C/W';
+    const design = validateDesign(d);
+    expect(design.voltage.divider).toEqual({ top: 4700, bottom: 1000 });
+    expect(design.reference.voltage).toBe(1.25);
+    expect(design.reference.tolerance).toBeCloseTo(0.01, 15);
+    expect(design.resistors.tolerance).toBeCloseTo(0.005, 15); // a bare number is percent
+    expect(design.resistors.tcr).toBeCloseTo(1e-4, 15); // a bare number is ppm/K
+    expect(design.resistors.series).toBe('E96');
+    expect(design.current.amplifier!.biasCurrent).toBeCloseTo(50e-9, 20);
+    expect(design.current.amplifier!.vosDrift).toBeCloseTo(5e-6, 18);
+    expect(design.current.shunt.thermalResistance).toBe(60);
+    expect(design.current.shunt.value).toBeCloseTo(0.1, 15);
+    expect(design.voltage.target).toEqual([5, 5]);
+    expect(design.voltage.window).toEqual({ kind: 'relative', minus: 0.02, plus: 0.02 });
+    expect(design.temperature).toEqual({ min: 0, max: 50 });
+  });
+
+  it('reads absolute and asymmetric windows, and "auto"', () => {
+    const d = baseDesign();
+    d.voltage.window = '4.9..5.1 V';
+    d.current.window = '-5%/+10%';
+    d.current.shunt.value = 'auto';
+    d.current.gain = 'auto';
+    const design = validateDesign(d);
+    expect(design.voltage.window).toEqual({ kind: 'absolute', lo: 4.9, hi: 5.1 });
+    expect(design.current.window).toEqual({ kind: 'relative', minus: 0.05, plus: 0.1 });
+    expect(design.current.shunt.value).toBe('auto');
+    expect(design.current.gain).toBe('auto');
+  });
+});
+
+// Each bad file: the field path the error must name, and a pattern its one line must match.
+const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
+  ['unknown field, with suggestion', (d) => (d.current.topolgy = 'noninv'), 'current.topolgy', /unknown field 'topolgy' \(did you mean 'topology'\?\).*accepted: the fields of current: target, window, topology/],
+  ['unknown nested field', (d) => (d.voltage.divider = { top: '30k', botom: '10k' }), 'voltage.divider.botom', /did you mean 'bottom'/],
+  ['unknown field in an override', (d) => (d.resistors.overrides = { RS: { tolerence: '1%' } }), 'resistors.overrides.RS.tolerence', /did you mean 'tolerance'/],
+  ['unknown top-level field', (d) => (d.refrence = {}), 'refrence', /did you mean 'reference'/],
+  ['unknown designator in overrides', (d) => (d.resistors.overrides = { RZ: { grade: '1%' } }), 'resistors.overrides.RZ', /no part 'RZ'.*did you mean 'RS'.*RTOP, RBOT, RS, RF, RG/],
+  ['wrong type', (d) => (d.reference.voltage = true), 'reference.voltage', /wrong type: got boolean true; accepted: .*a voltage/],
+  ['object expected', (d) => (d.current.shunt = '50m'), 'current.shunt', /wrong type: got text "50m"; accepted: an object with fields value, rating/],
+  ['bad notation', (d) => (d.current.amplifier.vos = '2mX'), 'current.amplifier.vos', /unexpected character 'X' at position 3 in '2mX'; accepted: .*800mV/],
+  ['bad resistance code', (d) => (d.voltage.divider.top = '4K7K'), 'voltage.divider.top', /4K7K.*accepted: .*4K7/],
+  ['missing required field', (d) => delete d.reference.voltage, 'reference.voltage', /missing required field; accepted: .*voltage/],
+  ['missing section', (d) => delete d.current, 'current', /missing required field/],
+  ['window inverted', (d) => (d.voltage.window = '5.1..4.9'), 'voltage.window', /inverted/],
+  ['window as a list, inverted', (d) => (d.voltage.window = [5.1, 4.9]), 'voltage.window', /inverted/],
+  ['target outside the window', (d) => (d.voltage.window = '5.5..6'), 'voltage.window', /target 5 V lies outside the window/],
+  ['enum with suggestion', (d) => (d.current.topology = 'nonin'), 'current.topology', /"nonin" is not one of the choices \(did you mean 'noninv'\?\); accepted: "direct", "noninv", "diff"/],
+  ['near-miss of "auto"', (d) => (d.voltage.divider = 'atuo'), 'voltage.divider', /did you mean "auto"/],
+  ['series name', (d) => (d.resistors.series = 'E97'), 'resistors.series', /unknown series 'E97'; accepted: E3, E6, E12, E24, E48, E96, E192/],
+  ['grade not in the table', (d) => (d.resistors.grade = '2%'), 'resistors.grade', /"2%" is not one of the choices/],
+  ['no grade and no tolerance', (d) => (d.resistors = {}), 'resistors.grade', /give a grade or a tolerance/],
+  ['negative resistance', (d) => (d.voltage.divider.top = -30000), 'voltage.divider.top', /greater than zero/],
+  ['tolerance above 50 %', (d) => (d.reference.tolerance = '80%'), 'reference.tolerance', /out of range/],
+  ['trials not positive', (d) => (d.analysis = { trials: 0 }), 'analysis.trials', /out of range/],
+  ['temperature reversed', (d) => (d.temperature = { min: 60, max: -20 }), 'temperature.min', /above max/],
+  ['gain resistor of another topology', (d) => (d.current.gain.r1 = '1k'), 'current.gain.r1', /does not belong to the noninv topology/],
+  ['missing gain resistor', (d) => delete d.current.gain.ground, 'current.gain.ground', /missing required field/],
+  ['direct with an amplifier', (d) => { d.current.topology = 'direct'; delete d.current.gain; }, 'current.amplifier', /no amplifier/],
+  ['common mode on a low-side topology', (d) => (d.current.commonMode = '12 V'), 'current.commonMode', /diff topology only/],
+  ['adjustable target without a pot', (d) => (d.voltage.target = '3..12 V'), 'voltage.pot', /needs a pot/],
+  ['threshold divider without reference', (d) => (d.current.threshold = { tolerance: '1%', top: 'auto', bottom: 'auto' }), 'current.threshold.voltage', /missing required field/],
+  ['notes of the wrong type', (d) => (d.notes = 5), 'notes', /wrong type/],
+];
+
+describe('bad design files name the field path', () => {
+  for (const [label, mutate, path, pattern] of BAD) {
+    it(label, () => {
+      const error = errorOf(mutate);
+      expect(error.where).toBe(path);
+      const line = describeError(error);
+      expect(line).toMatch(pattern);
+      expect(line).not.toMatch(/\n|NaN|Infinity|undefined/);
+    });
+  }
+});
+
+describe('files and JSON', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'trimfree-design-'));
+  it('a missing file', () => {
+    expect(() => loadDesignFile(join(dir, 'none.json'))).toThrow(/no such file/);
+  });
+  it('a folder', () => {
+    try {
+      loadDesignFile(dir);
+      throw new Error('expected an error');
+    } catch (error) {
+      expect(error).toBeInstanceOf(InputError);
+      expect((error as InputError).message).toMatch(/folder/);
+    }
+  });
+  it('bad JSON gives line and column (counted by hand from the text)', () => {
+    // Line 3 is `  "voltage" "1"`: the colon is missing after the name, which ends at column 12.
+    const text = '{\n "reference": {\n  "voltage" "1"\n }\n}';
+    try {
+      parseDesignText(text, 'f.json');
+      throw new Error('expected an error');
+    } catch (error) {
+      expect(error).toBeInstanceOf(InputError);
+      expect((error as InputError).where).toBe('f.json:3:13');
+      expect((error as InputError).message).toMatch(/not valid JSON/);
+    }
+    expect(() => parseDesignText('{"a": 1,}', 'g.json')).toThrow(InputError);
+    try {
+      parseDesignText('', 'e.json');
+    } catch (error) {
+      expect((error as InputError).message).toMatch(/ends too early/);
+    }
+  });
+  it('a JSON list instead of an object', () => {
+    const path = join(dir, 'list.json');
+    writeFileSync(path, '[1, 2]');
+    try {
+      loadDesignFile(path);
+      throw new Error('expected an error');
+    } catch (error) {
+      expect(describeError(error as InputError)).toMatch(/wrong type: got a list; accepted: an object with fields \$schema, notes, application, reference/);
+    }
+  });
+  it('a byte-order mark is accepted', () => {
+    const path = join(dir, 'bom.json');
+    writeFileSync(path, `\uFEFF${JSON.stringify(baseDesign())}`);
+    expect(loadDesignFile(path).reference.voltage).toBe(1.25);
+  });
+  it('ImpossibleError is not used for malformed input', () => {
+    expect(errorOf((d) => (d.reference.voltage = 'x'))).not.toBeInstanceOf(ImpossibleError);
+  });
+});
