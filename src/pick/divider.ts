@@ -71,7 +71,8 @@ export interface DividerSettings {
   vrefTolerance: number;
   maxError: number;
   sources: string[];
-  window: BottomWindow;
+  /** The bottom-leg window actually searched, ohms (middle: its geometric middle). */
+  window: { lo: number; hi: number; middle: number };
 }
 
 export interface FixedDividerResult {
@@ -146,17 +147,24 @@ export function pickDivider(request: DividerRequest): DividerResult {
     vrefTolerance: request.vrefTolerance,
     maxError: request.maxError ?? tolerance,
     sources: allowed.sources,
-    window,
+    window: { lo: window.lo, hi: window.hi, middle: window.middle },
   };
   return request.pot
-    ? pickAdjustable(request, request.pot, settings, allowed)
-    : pickFixed(request, settings, allowed);
+    ? pickAdjustable(request, request.pot, settings, allowed, window)
+    : pickFixed(request, settings, allowed, window);
 }
 
-function pickFixed(request: DividerRequest, settings: DividerSettings, allowed: AllowedValues): FixedDividerResult {
+function pickFixed(request: DividerRequest, settings: DividerSettings, allowed: AllowedValues, window: BottomWindow): FixedDividerResult {
   const { vref, ifb } = request;
   const target = request.vout.lo;
-  const ranked = searchFixedDividers({ vref, vout: target, ifb, allowed, window: settings.window, maxParts: request.maxParts, count: request.count });
+  const ranked = searchFixedDividers({ vref, vout: target, ifb, allowed, window, maxParts: request.maxParts, count: request.count });
+  if (ranked.length === 0) {
+    throw new ImpossibleError(
+      '--bottom',
+      `no allowed ${request.maxParts === 2 ? 'value' : 'value or pair'} lies in the bottom window ${formatEngineering(window.lo, 'Ω')}..${formatEngineering(window.hi, 'Ω')}`,
+      'widen --bottom or --current, raise --max, or add values to the stock list',
+    );
+  }
   const context = {
     vref,
     target,
@@ -188,6 +196,7 @@ function pickAdjustable(
   pot: PotRequest,
   settings: DividerSettings,
   allowed: AllowedValues,
+  window: BottomWindow,
 ): AdjustableDividerResult {
   const { vref, ifb, vout } = request;
   const ranked = searchAdjustableDividers({
@@ -195,7 +204,7 @@ function pickAdjustable(
     vout,
     ifb,
     allowed,
-    window: settings.window,
+    window,
     pot: { ohms: pot.ohms, leg: pot.leg },
     tolerances: { resistor: settings.tolerance, pot: pot.tolerance, vref: settings.vrefTolerance },
     count: request.count,
