@@ -3,8 +3,9 @@
 // part over its band, which holds for dividers and current-sense transfers. Vertices are evaluated a block at a
 // time through the model's own loop (the scalar `cornerExtremes` in corners.ts is the reference it is tested
 // against). Beyond `maxVariables` varying parts (2^20 ≈ 1e6 vertices by default), the vertex given by the signs of
-// the sensitivity coefficients is taken and then checked by flipping one part at a time until no single flip
-// improves it (a local search; exact again for outputs monotonic in each part).
+// the sensitivity coefficients is taken (at each temperature corner, see below) and then checked by flipping one
+// part at a time until no single flip improves it: a local search, not a proof, so the result says which method
+// gave it.
 import { partHigh, partLow, partVaries } from '../tolerance/part.js';
 import { partMean } from '../tolerance/sample.js';
 import { evaluateOutputs, type Model } from './model.js';
@@ -84,7 +85,18 @@ function enumerate(model: Model, varying: number[]): WorstCaseOutput[] {
 
 function bySensitivitySigns(model: Model, varying: number[]): WorstCaseOutput[] {
   const parts = model.parts;
-  const c = sensitivities(model, parts.map(partMean));
+  // Temperature multiplies every coefficient (R·(1 + α·ΔT)): at 25 °C the coefficients' sensitivities vanish and at
+  // the mean coefficient (0) the temperature's does. So the temperature corners are enumerated, and the sign
+  // vertex of the other parts is taken with the sensitivities at each corner.
+  const corners = varying.filter((i) => parts[i]!.kind === 'temperature');
+  const cornerCount = 2 ** corners.length;
+  const base = parts.map(partMean);
+  const signSets: number[][][] = [];
+  for (let corner = 0; corner < cornerCount; corner++) {
+    const point = base.slice();
+    corners.forEach((i, b) => (point[i] = (corner >>> b) & 1 ? partHigh(parts[i]!) : partLow(parts[i]!)));
+    signSets.push(sensitivities(model, point));
+  }
   const point = parts.map((part) => Float64Array.of(part.nominal));
   const out = new Float64Array(1);
   return model.outputs.map((output, o) => {
@@ -95,8 +107,13 @@ function bySensitivitySigns(model: Model, varying: number[]): WorstCaseOutput[] 
       evaluations++;
       return out[0]!;
     };
-    const search = (sign: 1 | -1): { value: number; bits: number[] } => {
-      const bits: number[] = varying.map((i) => (sign * c[o]![i]! >= 0 ? 1 : 0));
+    const search = (sign: 1 | -1, corner: number): { value: number; bits: number[] } => {
+      const c = signSets[corner]![o]!;
+      const bits: number[] = varying.map((i) => {
+        const b = corners.indexOf(i);
+        if (b >= 0) return (corner >>> b) & 1;
+        return sign * c[i]! >= 0 ? 1 : 0;
+      });
       let value = sign * at(bits);
       for (let round = 0, improved = true; improved && round < 10; round++) {
         improved = false;
@@ -113,8 +130,14 @@ function bySensitivitySigns(model: Model, varying: number[]): WorstCaseOutput[] 
       }
       return { value: sign * value, bits };
     };
-    const high = search(1);
-    const low = search(-1);
+    let high = search(1, 0);
+    let low = search(-1, 0);
+    for (let corner = 1; corner < cornerCount; corner++) {
+      const h = search(1, corner);
+      if (h.value > high.value) high = h;
+      const l = search(-1, corner);
+      if (l.value < low.value) low = l;
+    }
     return {
       name: output.name,
       min: low.value,

@@ -1,0 +1,221 @@
+// Worst case against brute-force enumeration, RSS against Monte Carlo and against closed forms, and the supply
+// model's fast loop against a clear per-trial reference written straight from the circuit formulas.
+import { describe, expect, it } from 'vitest';
+import { cornerExtremes } from '../src/analysis/corners.js';
+import { evaluateAt, nominalOutputs, type Model } from '../src/analysis/model.js';
+import { buildSupplyModel, hotShunt, type SupplySpec } from '../src/analysis/models/supply.js';
+import { monteCarlo } from '../src/analysis/monte-carlo.js';
+import { rss } from '../src/analysis/rss.js';
+import { worstCase } from '../src/analysis/worst-case.js';
+import { chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
+import { partFromBound, partHigh, partLow, partVaries } from '../src/tolerance/part.js';
+import { partFromUnit } from '../src/tolerance/sample.js';
+import { InputError } from '../src/errors.js';
+
+/** A high-side LED driver invented for the tests: diff amplifier at 24 V common mode, divided threshold. */
+const DIFF_SUPPLY: SupplySpec = {
+  reference: { nominal: 0.8, tolerance: 0.015, tempcoPerK: 30e-6 },
+  divider: {
+    top: { resistors: [{ name: 'R1', nominal: 200e3, tolerance: 0.01, tcrPerK: 100e-6 }, { name: 'R1B', nominal: 1e6, tolerance: 0.05 }], arrangement: 'parallel' },
+    bottom: { resistors: [{ name: 'R2', nominal: 10e3, tolerance: 0.01 }], potentiometer: { name: 'VR1', nominal: 5e3, tolerance: 0.2, wiper: 0.3 } },
+    feedbackBias: { nominal: 10e-9, plusMinus: 40e-9 },
+  },
+  temperature: { minC: -20, maxC: 60, monteCarlo: { fixedC: 25 } },
+  sense: {
+    topology: 'diff',
+    shunt: { name: 'RS', nominal: 0.1, tolerance: 0.01, tcrPerK: 200e-6, thermalResistanceKPerW: 80, powerRatingW: 1 },
+    r1: { name: 'R3', nominal: 1e3, tolerance: 0.01 },
+    r2: { name: 'R4', nominal: 10e3, tolerance: 0.01 },
+    r3: { name: 'R5', nominal: 1e3, tolerance: 0.01 },
+    r4: { name: 'R6', nominal: 10e3, tolerance: 0.01 },
+    commonModeV: 24,
+    amplifier: { offsetMax: 0.5e-3, biasCurrent: { nominal: 0, plusMinus: 50e-9 }, railV: 12 },
+    threshold: { kind: 'divided', source: 'regulator-reference', top: { name: 'R7', nominal: 3e3, tolerance: 0.01 }, bottom: { name: 'R8', nominal: 12e3, tolerance: 0.01 } },
+    compareOffset: { nominal: 0, plusMinus: 1e-3 },
+    limitTarget: 0.64,
+  },
+  windows: { vout: [14, 16], ilimit: [0.55, 0.75] },
+};
+
+describe('supply model: the fast loop against a per-trial reference from the circuit formulas', () => {
+  const model = buildSupplyModel(DIFF_SUPPLY);
+  const index = (name: string): number => model.parts.findIndex((p) => p.name === name);
+
+  /** Reference: one trial, straight formulas, self-heating by plain fixed-point iteration to convergence. */
+  function reference(v: (name: string) => number): Record<string, number> {
+    const dT = v('T ambient') - 25;
+    const r = (name: string, tcr = true): number => v(name) * (model.parts[index(`${name} TCR`)] && tcr ? 1 + v(`${name} TCR`) * dT : 1);
+    const vref = v('Vref') * (1 + v('Vref tempco') * dT);
+    const r1 = r('R1');
+    const r1b = r('R1B');
+    const top = (r1 * r1b) / (r1 + r1b);
+    const bottom = r('R2') + 0.3 * r('VR1');
+    const vout = vref * (1 + top / bottom) + v('Ifb') * top;
+    const vth = (vref * r('R8')) / (r('R7') + r('R8'));
+    const [a1, a2, a3, a4] = [r('R3'), r('R4'), r('R5'), r('R6')];
+    const ib = v('Ib amp');
+    const plus = (a4 / (a3 + a4)) * (1 + a2 / a1);
+    const offset = (1 + a2 / a1) * (v('Vos amp') - ib * ((a3 * a4) / (a3 + a4))) + ib * a2;
+    const rsAmbient = r('RS');
+    let rs = rsAmbient;
+    let current = 0;
+    for (let k = 0; k < 200; k++) {
+      // Vo = plus·(Vcm + I·Rs) − (R4/R3)·Vcm + offset = Vth − Vos_cmp, solved for I.
+      current = (vth - v('Vos cmp') - (plus - a2 / a1) * 24 - offset) / (plus * rs);
+      rs = rsAmbient * (1 + v('RS TCR') * 80 * current * current * rs);
+    }
+    const ampOutput = plus * (24 + current * rs) - (a2 / a1) * 24 + offset;
+    return { vout, dividerCurrent: vref / bottom, ilimit: current, shuntLoss: current * current * rs, ampOutput };
+  }
+
+  it('2000 random trials: every output agrees to 1e-12 relative', () => {
+    const n = 2000;
+    const p = model.parts.map(() => new Float64Array(n));
+    const state = chunkState('reference', 0);
+    model.parts.forEach((part, i) => {
+      fillXor128(state, p[i]!, n);
+      partFromUnit(part, p[i]!, n);
+    });
+    // Spread the temperature over the range too (Monte Carlo holds it fixed in this design).
+    for (let j = 0; j < n; j++) p[index('T ambient')]![j] = -20 + (80 * j) / (n - 1);
+    const outs = model.outputs.map(() => new Float64Array(n));
+    model.evaluateAll!(p, outs, n);
+    for (let j = 0; j < n; j += 7) {
+      const expected = reference((name) => p[index(name)]![j]!);
+      model.outputs.forEach((o, k) => expect(outs[k]![j]! / expected[o.name]! - 1).toBeCloseTo(0, 12));
+    }
+    // Each output's own evaluate gives the same numbers as evaluateAll.
+    model.outputs.forEach((o, k) => {
+      const single = new Float64Array(n);
+      o.evaluate(p, single, n);
+      expect(single).toEqual(outs[k]);
+    });
+  });
+
+  it('nominal output by hand: 0.8·(1 + (200k∥1M)/(10k + 0.3·5k)) + 10 nA·166.67 kΩ = 12.3971 V', () => {
+    const top = (200e3 * 1e6) / 1.2e6;
+    expect(nominalOutputs(model).vout).toBeCloseTo(0.8 * (1 + top / 11.5e3) + 10e-9 * top, 10);
+    // Threshold 0.8·12/15 = 0.64 V, gain 10, 0.1 Ω: 0.64 A when everything is nominal, less the heating (α = 0 at nominal).
+    expect(nominalOutputs(model).ilimit).toBeCloseTo(0.64, 10);
+  });
+
+  it('hotShunt solves R = Ra·(1 + α·θ·K²/R) exactly', () => {
+    const r = hotShunt(0.05, 200e-6, 60, 0.1);
+    expect(r).toBeCloseTo(0.05 * (1 + (200e-6 * 60 * 0.01) / r), 15);
+  });
+
+  it('bad values name the field: a wiper outside 0..1, two resistors without arrangement, reversed temperatures', () => {
+    const bad = structuredClone(DIFF_SUPPLY);
+    bad.divider.bottom.potentiometer!.wiper = 1.5;
+    expect(() => buildSupplyModel(bad)).toThrow(InputError);
+    expect(() => buildSupplyModel(bad)).toThrow(/wiper|track/);
+    const two = structuredClone(DIFF_SUPPLY);
+    delete two.divider.top.arrangement;
+    expect(() => buildSupplyModel(two)).toThrowError(expect.objectContaining({ where: 'supply.divider.top.arrangement' }));
+    const reversed = structuredClone(DIFF_SUPPLY);
+    reversed.temperature = { minC: 50, maxC: 0, monteCarlo: 'uniform' };
+    expect(() => buildSupplyModel(reversed)).toThrowError(expect.objectContaining({ where: 'supply.temperature' }));
+  });
+});
+
+describe('worst case against brute-force enumeration (corners.ts, one scalar evaluation per vertex)', () => {
+  const model = buildSupplyModel(DIFF_SUPPLY);
+  const varying = model.parts.map((p, i) => (partVaries(p) ? i : -1)).filter((i) => i >= 0);
+
+  it(`every output: the same min, max and vertices (${2 ** 18} vertices)`, () => {
+    // Drop the TCRs and the temperature from the brute force to keep it quick: hold them at nominal in both.
+    const reduced: Model = {
+      ...model,
+      parts: model.parts.map((p) => (p.kind === 'temperature coefficient' || p.kind === 'temperature' ? { ...p, minus: 0, plus: 0 } : p)),
+    };
+    const vary = reduced.parts.map((p, i) => (partVaries(p) ? i : -1)).filter((i) => i >= 0);
+    const fast = worstCase(reduced);
+    reduced.outputs.forEach((output, o) => {
+      const values = reduced.parts.map((p) => p.nominal);
+      const brute = cornerExtremes(
+        (x) => {
+          vary.forEach((i, v) => (values[i] = x[v]!));
+          return evaluateAt(output, values);
+        },
+        vary.map((i) => partLow(reduced.parts[i]!)),
+        vary.map((i) => partHigh(reduced.parts[i]!)),
+      );
+      expect(fast[o]!.min).toBe(brute.min);
+      expect(fast[o]!.max).toBe(brute.max);
+      const bits = (vertex: number): Record<string, 'low' | 'high'> =>
+        Object.fromEntries(vary.map((i, v) => [reduced.parts[i]!.name, (vertex >>> v) & 1 ? 'high' : 'low'])) as Record<string, 'low' | 'high'>;
+      expect(fast[o]!.minVertex).toEqual(bits(brute.minVertex));
+      expect(fast[o]!.maxVertex).toEqual(bits(brute.maxVertex));
+    });
+  });
+
+  it('the sensitivity-sign vertex, checked by single flips, finds the enumerated extremes (low-side, monotonic)', () => {
+    // At 24 V common mode this design's limit can cross zero, where the loss I²R is not monotonic (its minimum is
+    // inside the box, which no vertex method finds); low-side sensing keeps every output monotonic in every part.
+    const lowSide = structuredClone(DIFF_SUPPLY);
+    if (lowSide.sense?.topology === 'diff') lowSide.sense.commonModeV = 0;
+    const monotonic = buildSupplyModel(lowSide);
+    expect(varying.length).toBe(20); // 2^20 vertices enumerated, against the sign vertex plus flips
+    const enumerated = worstCase(monotonic, { maxVariables: 30 });
+    const signs = worstCase(monotonic, { maxVariables: 0 });
+    expect(enumerated[0]!.method).toBe('enumeration');
+    expect(signs[0]!.method).toBe('sensitivity-signs');
+    model.outputs.forEach((_o, k) => {
+      expect(signs[k]!.min / enumerated[k]!.min - 1).toBeCloseTo(0, 12);
+      expect(signs[k]!.max / enumerated[k]!.max - 1).toBeCloseTo(0, 12);
+    });
+  }, 60_000);
+
+  it('worst case of the limit falls as the threshold divider top goes high (a sign a designer can check)', () => {
+    const wc = worstCase(model);
+    const ilimit = wc[model.outputs.findIndex((o) => o.name === 'ilimit')]!;
+    expect(ilimit.minVertex.R7).toBe('high');
+    expect(ilimit.maxVertex.R7).toBe('low');
+    expect(ilimit.min).toBeLessThan(nominalOutputs(model).ilimit!);
+  });
+});
+
+describe('RSS (JCGM 100:2008 5.1.2) against closed forms and Monte Carlo', () => {
+  it('sum of uniforms: mean Σ(a+b)/2, variance Σ(b−a)²/12, exactly by RSS and within MC error', async () => {
+    const widths = [1, 2, 3, 5];
+    const parts = widths.map((w, i) => partFromBound({ name: `U${i}`, kind: 'offset', nominal: i, plusMinus: w / 2 }));
+    const model: Model = {
+      parts,
+      outputs: [{ name: 's', unit: 'V', evaluate: (p, out, n) => { for (let j = 0; j < n; j++) out[j] = p[0]![j]! + p[1]![j]! + p[2]![j]! + p[3]![j]!; } }],
+    };
+    const variance = widths.reduce((s, w) => s + (w * w) / 12, 0); // 39/12 = 3.25
+    expect(rss(model)[0]!.rss.sigma).toBeCloseTo(Math.sqrt(variance), 10);
+    expect(rss(model)[0]!.rss.center).toBeCloseTo(6, 12);
+    // Tolerance half-widths in quadrature: √(0.25 + 1 + 2.25 + 6.25).
+    expect(rss(model)[0]!.rss.halfWidth).toBeCloseTo(Math.sqrt(9.75), 10);
+    const mc = await monteCarlo(model, { trials: 500_000, seed: 'sum', workers: 1 });
+    // SE of the mean √(3.25/5e5) = 2.5e-3; of σ about σ/√(2n) = 1.8e-3.
+    expect(Math.abs(mc.outputs[0]!.mean - 6)).toBeLessThan(0.0125);
+    expect(Math.abs(mc.outputs[0]!.sigma - Math.sqrt(variance))).toBeLessThan(0.01);
+    // Worst case of a sum: every part at its band end, Σ w/2 = 5.5 either side of 6.
+    const wc = worstCase(model)[0]!;
+    expect(wc.min).toBeCloseTo(0.5, 12);
+    expect(wc.max).toBeCloseTo(11.5, 12);
+  });
+
+  it('near-linear divider with 0.1 % parts: RSS σ within 1 % of the Monte Carlo σ, shares add to 1', async () => {
+    const spec: SupplySpec = {
+      reference: { nominal: 1.25, tolerance: 0.002, distribution: { kind: 'normal' } },
+      divider: { top: { resistors: [{ name: 'R1', nominal: 28.7e3, tolerance: 0.001 }] }, bottom: { resistors: [{ name: 'R2', nominal: 3.3e3, tolerance: 0.001 }] } },
+      temperature: { minC: 25, maxC: 25, monteCarlo: 'uniform' },
+    };
+    const model = buildSupplyModel(spec);
+    const propagated = rss(model)[0]!;
+    const mc = await monteCarlo(model, { trials: 1_000_000, seed: 'divider', workers: 1 });
+    // MC σ has relative standard error 1/√(2n) ≈ 7e-4; linearisation error is second order in 0.1 %: ~1e-3 relative.
+    expect(mc.outputs[0]!.sigma / propagated.rss.sigma - 1).toBeLessThan(0.01);
+    expect(mc.outputs[0]!.sigma / propagated.rss.sigma - 1).toBeGreaterThan(-0.01);
+    expect(propagated.contributions.reduce((s, c) => s + c.varianceShare, 0)).toBeCloseTo(1, 12);
+    // Ranked largest first; R1 and R2 have the same relative sensitivity magnitude (Rtop/Rbottom ratio).
+    const shares = propagated.contributions.map((c) => c.varianceShare);
+    expect([...shares].sort((a, b) => b - a)).toEqual(shares);
+    // Hand: ∂V/∂R1·u(R1) = (Vref/R2)·R1·0.001/√3; same magnitude for R2.
+    const r1 = propagated.contributions.find((c) => c.part === 'R1')!;
+    expect(Math.abs(r1.sensitivity * r1.standardUncertainty)).toBeCloseTo((1.25 / 3.3e3) * 28.7 / Math.sqrt(3), 8);
+  });
+});
