@@ -55,7 +55,9 @@ export const DIVIDER_DEFAULTS = {
   minOhms: 1,
   maxOhms: 1e6,
   biasRatio: 100,
+  /** A typical regulator reference accuracy over temperature (from memory): use the datasheet's figure. */
   vrefTolerance: 0.01,
+  /** Carbon and cermet trimmers are commonly sold at ±20 % (common practice). */
   potTolerance: 0.2,
   count: 10,
   /** Used for a stock list, whose series (and so its usual tolerance) is unknown. */
