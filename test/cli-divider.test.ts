@@ -29,7 +29,7 @@ describe('trimfree divider (subprocess)', () => {
     expect(r.status).toBe(0);
     const rows = r.stdout.split('\n').filter((line) => /^│ [12] /.test(line));
     expect(rows[0]).toMatch(/28\.7 kΩ 28K7 .*3\.30 kΩ 3K3 .*12\.121 V .*\+1\.010 %/);
-    expect(rows[1]).toMatch(/28\.0 kΩ 28K .*11\.856 V .*-1\.199 %/);
+    expect(rows[1]).toMatch(/28\.0 kΩ 28K0 .*11\.856 V .*-1\.199 %/);
     expect(r.stdout).toMatch(/regulator's datasheet/);
     expect(r.stdout).not.toMatch(/NaN|Infinity/);
   });

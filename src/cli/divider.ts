@@ -9,7 +9,7 @@ import { readStockFile } from '../series/stock.js';
 import {
   formatEngineering,
   formatPercent,
-  formatRkm,
+  formatRkmDigits,
   formatSignedPercent,
   parseResistance,
   parseVoltage,
@@ -56,12 +56,17 @@ function seriesListOption(text: string): SeriesName[] {
   return names.map((name) => parseSeriesName(name, '--series'));
 }
 
+/** IEC 60062 code with three significant digits for E48 and finer (28K0), two otherwise (3K3). */
+function rkm(part: { ohms: number; series: string }): string {
+  return formatRkmDigits(part.ohms, /^E(48|96|192)$/.test(part.series) ? 3 : 2);
+}
+
 function legText(c: DividerCandidate, leg: 'top' | 'bottom'): string {
-  const parts = c.parts.filter((p) => p.leg === leg).map((p) => p.ohms);
+  const parts = c.parts.filter((p) => p.leg === leg);
   const kind = leg === 'top' ? c.topKind : c.bottomKind;
-  if (parts.length === 1) return `${ohms(parts[0]!)} ${formatRkm(parts[0]!)}`;
+  if (parts.length === 1) return `${ohms(parts[0]!.ohms)} ${rkm(parts[0]!)}`;
   const joint = kind === 'series' ? ' + ' : ' ∥ ';
-  return `${parts.map(ohms).join(joint)}\n= ${formatEngineering(leg === 'top' ? c.top : c.bottom, 'Ω', 5)} (${parts.map(formatRkm).join(joint.trim())})`;
+  return `${parts.map((p) => ohms(p.ohms)).join(joint)}\n= ${formatEngineering(leg === 'top' ? c.top : c.bottom, 'Ω', 5)} (${parts.map(rkm).join(joint.trim())})`;
 }
 
 function powerText(watts: number): string {
@@ -107,8 +112,8 @@ function printAdjustable(result: AdjustableDividerResult): void {
   result.candidates.forEach((c, i) => {
     table.push([
       String(i + 1),
-      c.top > 0 ? `${ohms(c.top)} ${formatRkm(c.top)}` : 'none',
-      `${ohms(c.bottom)} ${formatRkm(c.bottom)}`,
+      c.top > 0 ? `${ohms(c.top)} ${rkm(c.parts.find((p) => p.leg === 'top')!)}` : 'none',
+      `${ohms(c.bottom)} ${rkm(c.parts.find((p) => p.leg === 'bottom')!)}`,
       c.series,
       `${volts(c.nominal.low)} … ${volts(c.nominal.high)}`,
       `${volts(c.guaranteed.low)} … ${volts(c.guaranteed.high)}`,
