@@ -138,8 +138,8 @@ export function coarseHistogram(h: FineHistogram, target = 60): Histogram {
     edges.push(to);
     counts.push(c);
   }
-  // The first and last edges reach the observed extremes.
-  edges[0] = Math.min(edges[0]!, h.min);
-  edges[edges.length - 1] = Math.max(edges[edges.length - 1]!, h.max);
+  // The outer edges are the observed extremes (the first and last bins hold them, so this only trims empty space).
+  edges[0] = h.min;
+  edges[edges.length - 1] = h.max;
   return { edges, counts };
 }
