@@ -61,6 +61,17 @@ describe('cheapest grade mix (best-first over the grade lattice) against exhaust
     }
   });
 
+  it('two dominant parts out of five: the bounds step leaves few assignments (1024 in the lattice)', async () => {
+    const sensitivities = [1, 1, 0.01, 0.01, 0.01];
+    const options = sensitivities.map(() => GRADES);
+    const evaluate = linearYield(sensitivities, 0.004);
+    const reference = exhaustive(options, 0.999, evaluate);
+    const found = await cheapestGradeMix({ options, target: 0.999, evaluate });
+    expect(found.cost).toBeCloseTo(reference!.cost, 12);
+    // 1 tightest run + at most 5 × 3 bound probes + a handful of best-first steps.
+    expect(found.evaluations).toBeLessThanOrEqual(25);
+  });
+
   it('the negligible part stays at the cheapest grade, the dominant part is tightened first', async () => {
     const sensitivities = [1, 0.05];
     const options = sensitivities.map(() => GRADES);

@@ -3,6 +3,7 @@
 import type { Command } from 'commander';
 import { designCommand } from './design.js';
 import { dividerCommand } from './divider.js';
+import { gradesCommand } from './grades.js';
 import { initCommand } from './init.js';
 import { nearestCommand } from './nearest.js';
 import { schemaCommand } from './schema.js';
@@ -10,4 +11,4 @@ import { senseCommand } from './sense.js';
 import { spreadCommand } from './spread.js';
 import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand, spreadCommand, designCommand, initCommand, schemaCommand];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand, spreadCommand, gradesCommand, designCommand, initCommand, schemaCommand];

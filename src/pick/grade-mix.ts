@@ -2,17 +2,18 @@
 // the most yield per unit cost. Pure: the caller supplies `evaluate`, which returns the yield (a fraction) of one
 // assignment; the CLI runs a same-seed Monte Carlo there, so any two assignments are compared on paired trials.
 //
-// How the search works (exact, best-first over the grade lattice):
-// - Each part's grades are put in order of cost. Assignments are visited in order of total cost, cheapest first,
-//   with a priority queue seeded with "every part at its cheapest grade"; each visited assignment queues the ones
-//   that move a single part one grade up its cost list (every assignment is reachable this way, and none costs less
-//   than the one that queued it, so the visiting order is by non-decreasing cost).
-// - The first visited assignment whose yield reaches the target is the cheapest one that does.
-// - Pruning (monotone yield, the usual case when the nominal sits inside the spec window): an assignment whose every
-//   part is at a grade no tighter than one already seen to fail is not evaluated — it is counted as failing. This
-//   assumption is stated in the result; `prune: false` turns it off and the search is then exhaustive in cost order.
-// - Ties in cost are broken by the tighter assignment first (more margin for the same money), then by the order of
-//   the parts, so the answer is deterministic.
+// How the search works (exact under monotone yield; exhaustive in cost order without it):
+// 1. Bounds (monotone yield: tightening a part never lowers the yield, the usual case with the nominal inside the
+//    spec window). The all-tightest assignment is the best any assignment can do: if it fails, nothing passes.
+//    For each part, the loosest grade that passes with every OTHER part at its tightest is the loosest grade that
+//    part can have in any passing assignment; looser grades are dropped. At most parts × (grades − 1) runs.
+// 2. Best-first over what is left: assignments are visited in order of total cost, cheapest first, from a priority
+//    queue seeded with "every part at its cheapest remaining grade"; each visited assignment queues those that move
+//    one part one step up its cost-ordered list (every assignment is reachable, none costs less than the one that
+//    queued it, so the visiting order is by non-decreasing cost). The first that reaches the target is the cheapest.
+//    An assignment no tighter, part by part, than one already seen to fail is skipped (monotone yield again).
+// Ties in cost go to the tighter assignment (more margin for the same money), then by the order of the parts.
+// `prune: false` drops the monotone assumption: no bounds, no skipping, plain cost-ordered enumeration.
 
 /** One grade a part may be ordered in. `tightness` orders grades: a larger number is a tighter tolerance. */
 export interface GradeOption {
@@ -62,9 +63,47 @@ export async function cheapestGradeMix(request: GradeMixRequest): Promise<GradeM
     const y = await evaluate([]);
     return { found: y >= target, assignment: y >= target ? [] : null, cost: y >= target ? 0 : null, yield: y, evaluations: 1, skipped: 0 };
   }
-  // Per part, option indices sorted by cost, then tighter first.
-  const sorted = options.map((list) =>
-    list.map((_, i) => i).sort((a, b) => list[a].cost - list[b].cost || list[b].tightness - list[a].tightness),
+  const failures: number[][] = []; // tightness vectors of assignments seen to fail
+  const dominatedByFailure = (assignment: number[]): boolean =>
+    failures.some((failed) => assignment.every((option, p) => options[p][option].tightness <= failed[p]));
+  let evaluations = 0;
+  let skipped = 0;
+  const stop = (reason: GradeMixResult['reason']): GradeMixResult =>
+    ({ found: false, assignment: null, cost: null, yield: null, evaluations, skipped, ...(reason ? { reason } : {}) });
+  const run = async (assignment: number[]): Promise<number> => {
+    evaluations += 1;
+    const y = await evaluate(assignment);
+    if (y < target) failures.push(assignment.map((option, p) => options[p][option].tightness));
+    return y;
+  };
+
+  // 1. Bounds from the tightest assignment (monotone yield).
+  const allowed = options.map((list) => list.map(() => true));
+  if (prune) {
+    const tightest = options.map((list) => list.reduce((best, o, i) => (o.tightness > list[best].tightness ? i : best), 0));
+    if ((await run(tightest)) < target) return stop('target-unreachable');
+    for (let p = 0; p < options.length; p += 1) {
+      const byTightness = options[p].map((_, i) => i).sort((a, b) => options[p][a].tightness - options[p][b].tightness);
+      for (const option of byTightness) {
+        if (options[p][option].tightness >= options[p][tightest[p]].tightness) break;
+        if (evaluations >= maxEvaluations) return stop('evaluation-limit');
+        const probe = tightest.slice();
+        probe[p] = option;
+        if ((await run(probe)) >= target) break;
+        // Fails even with every other part at its tightest: this grade and every looser one are out for part p.
+        options[p].forEach((o, i) => {
+          if (o.tightness <= options[p][option].tightness) allowed[p][i] = false;
+        });
+      }
+    }
+  }
+
+  // 2. Best-first in cost order over the allowed grades (cheapest first, then tighter).
+  const sorted = options.map((list, p) =>
+    list
+      .map((_, i) => i)
+      .filter((i) => allowed[p][i])
+      .sort((a, b) => list[a].cost - list[b].cost || list[b].tightness - list[a].tightness),
   );
   const toAssignment = (rank: number[]): number[] => rank.map((r, p) => sorted[p][r]);
   const entryFor = (rank: number[]): QueueEntry => {
@@ -77,37 +116,20 @@ export async function cheapestGradeMix(request: GradeMixRequest): Promise<GradeM
     });
     return { cost, tightness, rank };
   };
-  const failures: number[][] = []; // tightness vectors of assignments seen to fail
-  const dominatedByFailure = (assignment: number[]): boolean =>
-    failures.some((failed) => assignment.every((option, p) => options[p][option].tightness <= failed[p]));
-
   const queue = new MinQueue<QueueEntry>((a, b) => a.cost - b.cost || b.tightness - a.tightness || compareRanks(a.rank, b.rank));
   const seen = new Set<string>();
   const start = options.map(() => 0);
   queue.push(entryFor(start));
   seen.add(start.join(','));
-  let evaluations = 0;
-  let skipped = 0;
-  if (prune) {
-    // Under monotone yield the tightest assignment bounds every other: if it fails, nothing passes.
-    const tightest = options.map((list) => list.reduce((best, o, i) => (o.tightness > list[best].tightness ? i : best), 0));
-    evaluations += 1;
-    const y = await evaluate(tightest);
-    if (y < target) return { found: false, assignment: null, cost: null, yield: null, evaluations, skipped, reason: 'target-unreachable' };
-  }
   while (queue.size > 0) {
     const entry = queue.pop();
     const assignment = toAssignment(entry.rank);
     if (prune && dominatedByFailure(assignment)) {
       skipped += 1;
     } else {
-      if (evaluations >= maxEvaluations) {
-        return { found: false, assignment: null, cost: null, yield: null, evaluations, skipped, reason: 'evaluation-limit' };
-      }
-      evaluations += 1;
-      const y = await evaluate(assignment);
+      if (evaluations >= maxEvaluations) return stop('evaluation-limit');
+      const y = await run(assignment);
       if (y >= target) return { found: true, assignment, cost: entry.cost, yield: y, evaluations, skipped };
-      failures.push(assignment.map((option, p) => options[p][option].tightness));
     }
     for (let p = 0; p < entry.rank.length; p += 1) {
       if (entry.rank[p] + 1 >= sorted[p].length) continue;
@@ -119,7 +141,7 @@ export async function cheapestGradeMix(request: GradeMixRequest): Promise<GradeM
       queue.push(entryFor(next));
     }
   }
-  return { found: false, assignment: null, cost: null, yield: null, evaluations, skipped, reason: 'target-unreachable' };
+  return stop('target-unreachable');
 }
 
 export interface UpgradeRequest {

@@ -1,0 +1,403 @@
+// `trimfree grades FILE`: the design's resistors ordered in each tolerance grade side by side (spread, yield, Cpk
+// for each output with a spec window, and the yield of a unit that must meet every window at once), then the
+// cheapest per-part grade assignment that reaches --target-yield, and the single upgrade that buys the most yield
+// per unit cost. Thin: src/analysis computes (analyze, jointYield, gradedSpec), src/pick/grade-mix.ts searches,
+// this module wires them and prints. `design` reuses runGrades, gradesJson and renderGradesText.
+import { Command, Option } from 'commander';
+import { analyze } from '../analysis/analyze.js';
+import { gradableResistors, gradedSpec, type GradableResistor, type ResistorGrade } from '../analysis/graded-spec.js';
+import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
+import type { AnalysisResult } from '../analysis/result.js';
+import { jointYield, type JointYield } from '../analysis/trial-values.js';
+import { GRADES, GRADES_SOURCE, type Grade, type GradeName } from '../design/grades.js';
+import type { ResolvedDesign } from '../design/resolve.js';
+import { InputError } from '../errors.js';
+import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
+import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from '../report/format-value.js';
+import { stringifyReport } from '../report/json.js';
+import { textTable } from '../report/text-table.js';
+import { parsePercent } from '../units/index.js';
+import { integerOption } from './option-parsers.js';
+import { createProgress } from './progress.js';
+import { analysisChoice, loadResolved, seedOption, trialsOption, workersOption, type AnalysisChoice, type CommandLineAnalysis } from './spread.js';
+import { VERSION } from './version.js';
+
+/** Trials of each side-by-side run when neither the file nor the command line says. */
+export const DEFAULT_GRADES_TRIALS = 100_000;
+/** Trials of each assignment the search evaluates (same seed for all, so the comparisons are paired). */
+export const DEFAULT_SEARCH_TRIALS = 20_000;
+/** Yield the cheapest mix must reach unless --target-yield says otherwise, %. */
+export const DEFAULT_TARGET_YIELD_PCT = 99.9;
+/** Assignments the search may evaluate before it gives up (and says so). */
+export const MAX_SEARCH_EVALUATIONS = 400;
+
+export interface GradesOptions {
+  targetYieldPct: number;
+  searchTrials: number;
+}
+
+export interface GradeRow {
+  grade: Grade;
+  cost: number;
+  result: AnalysisResult;
+  joint: JointYield;
+}
+
+export interface GradeMixAnswer {
+  found: boolean;
+  reason?: string;
+  /** Designator → grade, when found. */
+  assignment?: Record<string, GradeName>;
+  cost?: number;
+  /** Joint yield in the search's paired trials, %. */
+  searchYieldPct?: number;
+  /** The answer re-run with the full trial count, %. */
+  verified?: JointYield;
+  evaluations: number;
+  skipped: number;
+}
+
+export interface UpgradeAnswer {
+  part: string;
+  from: GradeName;
+  to: GradeName;
+  yieldBeforePct: number;
+  yieldAfterPct: number;
+  extraCost: number;
+  /** Yield points (%) per unit of extra cost; null when the upgrade costs nothing extra. */
+  pctPerCost: number | null;
+}
+
+export interface GradesRun {
+  resolved: ResolvedDesign;
+  choice: AnalysisChoice;
+  options: GradesOptions;
+  parts: GradableResistor[];
+  /** Each part's grade as designed (nearest table grade where the design's tolerance is not in the table). */
+  designed: Record<string, GradeName>;
+  designedNotes: string[];
+  rows: GradeRow[];
+  mix: GradeMixAnswer;
+  upgrade: UpgradeAnswer | null;
+  /** Yield of the design as graded (table TCRs), in the search's paired trials, %. */
+  designedYieldPct: number;
+  designedCost: number;
+}
+
+/** The table grade a tolerance belongs to: the exact one, else the nearest on a log scale. */
+function nearestGrade(tolerance: number): { grade: Grade; exact: boolean } {
+  const exact = GRADES.find((g) => Math.abs(g.tolerance - tolerance) <= 1e-9);
+  if (exact) return { grade: exact, exact: true };
+  const distance = (g: Grade): number => Math.abs(Math.log(g.tolerance) - Math.log(Math.max(tolerance, 1e-9)));
+  return { grade: [...GRADES].sort((a, b) => distance(a) - distance(b))[0]!, exact: false };
+}
+
+function gradeOf(grade: Grade): ResistorGrade {
+  return { tolerance: grade.tolerance, tcrPerK: grade.tcrPerK };
+}
+
+function specWith(spec: SupplySpec, parts: GradableResistor[], grades: readonly Grade[]): SupplySpec {
+  const map: Record<string, ResistorGrade> = {};
+  parts.forEach((p, i) => {
+    map[p.name] = gradeOf(grades[i]!);
+  });
+  return gradedSpec(spec, map);
+}
+
+function costOf(grades: readonly Grade[], costs: Record<GradeName, number>): number {
+  return grades.reduce((sum, g) => sum + costs[g.name], 0);
+}
+
+async function analyzeGrade(spec: SupplySpec, choice: AnalysisChoice, label: string): Promise<AnalysisResult> {
+  const progress = createProgress({ label });
+  try {
+    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
+    if (choice.workers !== undefined) options.workers = choice.workers;
+    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
+    return await analyze(spec, options);
+  } finally {
+    progress.finish();
+  }
+}
+
+/** Joint yield of a spec over the same trials an engine run with this seed and trial count uses. */
+function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): JointYield {
+  return jointYield(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
+}
+
+export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions): Promise<GradesRun> {
+  const spec = resolved.spec;
+  const parts = gradableResistors(spec);
+  const costs = resolved.costs;
+  const seed = String(choice.seed);
+
+  // Side by side: every resistor in one grade.
+  const rows: GradeRow[] = [];
+  for (const grade of GRADES) {
+    const graded = specWith(spec, parts, parts.map(() => grade));
+    const result = await analyzeGrade(graded, choice, `grades ${grade.name}`);
+    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
+  }
+
+  // The design as it stands, mapped onto the table.
+  const designedNotes: string[] = [];
+  const designedGrades = parts.map((p) => {
+    const { grade, exact } = nearestGrade(p.tolerance);
+    if (!exact) designedNotes.push(`${p.name}: ±${(p.tolerance * 100).toPrecision(3)} % is not a table grade; taken as ${grade.name}.`);
+    return grade;
+  });
+  const designed: Record<string, GradeName> = {};
+  parts.forEach((p, i) => {
+    designed[p.name] = designedGrades[i]!.name;
+  });
+
+  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached).
+  const gradeOptions: GradeOption[][] = parts.map(() => GRADES.map((g, i) => ({ name: g.name, cost: costs[g.name], tightness: i })));
+  const cache = new Map<string, number>();
+  const progress = createProgress({ label: 'grade search' });
+  const evaluate = (assignment: readonly number[]): number => {
+    const key = assignment.join(',');
+    const known = cache.get(key);
+    if (known !== undefined) return known;
+    const y = jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false).pct / 100;
+    cache.set(key, y);
+    progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
+    return y;
+  };
+  let mix: GradeMixAnswer;
+  let upgrade: UpgradeAnswer | null = null;
+  const base = designedGrades.map((g) => GRADES.indexOf(g));
+  let designedYieldPct: number;
+  try {
+    const found = await cheapestGradeMix({ options: gradeOptions, target: options.targetYieldPct / 100, evaluate, maxEvaluations: MAX_SEARCH_EVALUATIONS });
+    mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
+    if (found.reason) mix.reason = found.reason;
+    if (found.found && found.assignment) {
+      const chosen = found.assignment.map((i) => GRADES[i]!);
+      mix.assignment = {};
+      parts.forEach((p, i) => {
+        mix.assignment![p.name] = chosen[i]!.name;
+      });
+      mix.cost = found.cost!;
+      mix.searchYieldPct = found.yield! * 100;
+      const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
+      mix.verified = jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
+    }
+    const up = await bestSingleUpgrade({ options: gradeOptions, base, evaluate });
+    designedYieldPct = up.baseYield * 100;
+    if (up.best) {
+      upgrade = {
+        part: parts[up.best.part]!.name,
+        from: designedGrades[up.best.part]!.name,
+        to: GRADES[up.best.option]!.name,
+        yieldBeforePct: up.baseYield * 100,
+        yieldAfterPct: up.best.yield * 100,
+        extraCost: up.best.extraCost,
+        pctPerCost: up.best.yieldPerCost === null ? null : up.best.yieldPerCost * 100,
+      };
+    }
+  } finally {
+    progress.finish();
+  }
+  return {
+    resolved,
+    choice,
+    options,
+    parts,
+    designed,
+    designedNotes,
+    rows,
+    mix,
+    upgrade,
+    designedYieldPct,
+    designedCost: costOf(designedGrades, costs),
+  };
+}
+
+// ---- output ----------------------------------------------------------------------------------------------------
+
+export const SEARCH_METHOD =
+  'Every assignment is evaluated by Monte Carlo on the same seed and trials, so any two are compared on paired ' +
+  'trials. Taking yield not to fall when a part is tightened (the usual case with the nominal inside the window): ' +
+  'if every part at 0.1 % fails, nothing passes; for each part, grades that fail even with every other part at ' +
+  '0.1 % are ruled out; the remaining assignments are then visited in order of total cost, cheapest first, and the ' +
+  'first that reaches the target is the cheapest (assignments no tighter than a known failure are skipped). The ' +
+  'answer is re-run with the full trial count.';
+
+function specOutputs(run: GradesRun): string[] {
+  const first = run.rows[0]!.result;
+  return Object.values(first.outputs).filter((o) => o.spec !== undefined).map((o) => o.name);
+}
+
+export function gradesJson(run: GradesRun): unknown {
+  const names = specOutputs(run);
+  return {
+    seed: run.rows[0]!.result.seed,
+    trials: run.rows.map((r) => r.result.trials),
+    version: VERSION,
+    parts: run.parts.map((p) => ({ name: p.name, kind: p.kind, nominal: p.nominal, designedGrade: run.designed[p.name] })),
+    costs: run.resolved.costs,
+    costsSource: GRADES_SOURCE,
+    grades: run.rows.map((row) => ({
+      grade: row.grade.name,
+      tolerance: row.grade.tolerance,
+      tcrPerK: row.grade.tcrPerK,
+      cost: row.cost,
+      trials: row.result.trials,
+      allSpecsYieldPct: row.joint.pct,
+      allSpecsYieldInterval95: row.joint.interval,
+      outputs: Object.fromEntries(
+        names.map((name) => {
+          const o = row.result.outputs[name]!;
+          return [name, { sigma: o.sigma, interval95: o.interval95, worstCase: { min: o.worstCase.min, max: o.worstCase.max }, yieldPct: o.yield?.pct ?? null, cpk: o.cpk !== undefined && Number.isFinite(o.cpk) ? o.cpk : null }];
+        }),
+      ),
+    })),
+    targetYieldPct: run.options.targetYieldPct,
+    searchTrials: run.options.searchTrials,
+    designed: { grades: run.designed, cost: run.designedCost, allSpecsYieldPct: run.designedYieldPct, notes: run.designedNotes },
+    cheapest: {
+      found: run.mix.found,
+      reason: run.mix.reason ?? null,
+      grades: run.mix.assignment ?? null,
+      cost: run.mix.cost ?? null,
+      searchYieldPct: run.mix.searchYieldPct ?? null,
+      verifiedYieldPct: run.mix.verified?.pct ?? null,
+      verifiedYieldInterval95: run.mix.verified?.interval ?? null,
+      verifiedTrials: run.mix.verified?.trials ?? null,
+      evaluations: run.mix.evaluations,
+      skipped: run.mix.skipped,
+      method: SEARCH_METHOD,
+    },
+    bestUpgrade: run.upgrade,
+    notes: [
+      'Every grade brings its usual TCR (common practice); the shunt takes the grade\'s tolerance and keeps its own TCR.',
+      `"all specs" yield: share of trials in which every output with a spec window (${names.join(', ')}) is inside it.`,
+    ],
+  };
+}
+
+function costText(cost: number): string {
+  return Number.isInteger(cost) ? String(cost) : cost.toFixed(2);
+}
+
+export function renderGradesText(run: GradesRun, subject: string): string {
+  const names = specOutputs(run);
+  const out: string[] = [];
+  const trials = [...new Set(run.rows.map((r) => r.result.trials))].map((t) => t.toLocaleString('en-US')).join('/');
+  out.push(`${subject}: every resistor in each grade; Monte Carlo ${trials} trials, seed ${JSON.stringify(run.rows[0]!.result.seed)}; trimfree ${VERSION}`);
+  out.push(`resistors graded: ${run.parts.map((p) => `${p.name} (as designed ${run.designed[p.name]})`).join(', ')}`);
+  out.push('');
+  const rows: string[][] = [];
+  for (const row of run.rows) {
+    names.forEach((name, i) => {
+      const o = row.result.outputs[name]!;
+      const d = outputDigits(o);
+      rows.push([
+        i === 0 ? `${row.grade.name} (${Math.round(row.grade.tcrPerK * 1e6)} ppm/K)` : '',
+        i === 0 ? costText(row.cost) : '',
+        name,
+        formatSpread(o.sigma, o.unit),
+        `${formatValue(o.interval95.low, o.unit, d)} … ${formatValue(o.interval95.high, o.unit, d)}`,
+        o.yield ? formatYieldPct(o.yield.pct) : MISSING,
+        formatIndex(o.cpk),
+      ]);
+    });
+    rows.push(['', '', 'all specs', '', '', formatYieldPct(row.joint.pct), '']);
+  }
+  out.push(textTable(['grade (TCR)', 'cost', 'output', 'σ', '95 % interval', 'yield', 'Cpk'], rows, [false, true, false, true, true, true, true]));
+  out.push(`cost: relative, summed over the ${run.parts.length} graded resistors (${GRADES_SOURCE}).`);
+  out.push('');
+  out.push(`as designed: cost ${costText(run.designedCost)}, all-specs yield ${formatYieldPct(run.designedYieldPct)} (${run.options.searchTrials.toLocaleString('en-US')} paired trials)`);
+  for (const note of run.designedNotes) out.push(`  ${note}`);
+  const target = `${run.options.targetYieldPct} %`;
+  if (run.mix.found && run.mix.assignment) {
+    out.push(`cheapest grades reaching ${target} of units inside every spec window: cost ${costText(run.mix.cost!)}`);
+    out.push(textTable(['part', 'grade', 'as designed'], run.parts.map((p) => [p.name, run.mix.assignment![p.name]!, run.designed[p.name]!])));
+    const v = run.mix.verified!;
+    out.push(
+      `  yield ${formatYieldPct(run.mix.searchYieldPct!)} in the search; re-run with ${v.trials.toLocaleString('en-US')} trials: ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)})`,
+    );
+    if (v.interval.low < run.options.targetYieldPct) out.push('  the re-run\'s interval reaches below the target: check with more --trials and --search-trials.');
+  } else if (run.mix.reason === 'target-unreachable') {
+    out.push(`no grade mix reaches ${target}: even 0.1 % everywhere falls short. The reference, offsets or the spec window limit the yield; no resistor grade can fix that.`);
+  } else {
+    out.push(`the search stopped after ${run.mix.evaluations} evaluations without reaching ${target}; try fewer parts to grade or a lower target.`);
+  }
+  out.push(`  search: ${run.mix.evaluations} assignment${run.mix.evaluations === 1 ? '' : 's'} evaluated, ${run.mix.skipped} skipped as no tighter than a failure.`);
+  if (run.upgrade) {
+    const u = run.upgrade;
+    out.push(
+      `best single upgrade from the design as it stands: ${u.part} ${u.from} → ${u.to}, all-specs yield ${formatYieldPct(u.yieldBeforePct)} → ${formatYieldPct(u.yieldAfterPct)} for ${costText(u.extraCost)} more` +
+        (u.pctPerCost === null ? ' (no extra cost)' : ` (${u.pctPerCost.toPrecision(3)} yield points per unit cost)`),
+    );
+  } else {
+    out.push('no single grade upgrade raises the yield of the design as it stands.');
+  }
+  out.push('');
+  out.push(`how the search works: ${SEARCH_METHOD}`);
+  out.push("Each grade brings its usual TCR (common practice); the shunt takes the grade's tolerance and keeps its own TCR.");
+  if (run.resolved.cautions.length > 0) {
+    out.push('');
+    out.push('caution:');
+    for (const c of run.resolved.cautions) out.push(`  ! ${c}`);
+  }
+  return `${out.join('\n')}\n`;
+}
+
+// ---- command ---------------------------------------------------------------------------------------------------
+
+function targetYieldOption(value: string): number {
+  const accepted = 'a yield between 50 % and 100 % (exclusive), e.g. 99.9% or 99.9';
+  const fraction = parsePercent(value, '--target-yield');
+  if (!(fraction >= 0.5 && fraction < 1)) throw new InputError('--target-yield', `${value} is out of range`, accepted);
+  return fraction * 100;
+}
+
+interface GradesCliOptions {
+  json?: boolean;
+  targetYield: number;
+  searchTrials: number;
+  seed?: number;
+  trials?: number | 'auto';
+  workers?: number;
+}
+
+async function run(file: string, options: GradesCliOptions): Promise<void> {
+  const resolved = loadResolved(file);
+  const cli: CommandLineAnalysis = {};
+  if (options.trials !== undefined) cli.trials = options.trials;
+  if (options.seed !== undefined) cli.seed = options.seed;
+  if (options.workers !== undefined) cli.workers = options.workers;
+  const result = await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), {
+    targetYieldPct: options.targetYield,
+    searchTrials: options.searchTrials,
+  });
+  process.stdout.write(options.json ? stringifyReport(gradesJson(result)) : renderGradesText(result, file));
+}
+
+export function gradesCommand(): Command {
+  return new Command('grades')
+    .description('tolerance grades side by side; the cheapest per-part grade mix that meets a yield target')
+    .configureOutput({ outputError: () => undefined })
+    .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
+    .addOption(new Option('--target-yield <pct>', 'share of units that must meet every spec window').argParser(targetYieldOption).default(DEFAULT_TARGET_YIELD_PCT, '99.9 %'))
+    .addOption(new Option('--search-trials <n>', 'Monte Carlo trials per assignment the search evaluates').argParser(integerOption('--search-trials', 1000, 10_000_000)).default(DEFAULT_SEARCH_TRIALS, '20000'))
+    .addOption(new Option('--seed <n>', 'random seed (default: the file\'s, else 1)').argParser(seedOption('--seed')))
+    .addOption(new Option('--trials <n|auto>', 'Monte Carlo trials per grade (default: the file\'s, else 100000)').argParser(trialsOption('--trials')))
+    .addOption(new Option('--workers <n>', 'worker threads; results do not depend on it (default: the file\'s, else every core)').argParser(workersOption('--workers')))
+    .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
+    .addHelpText(
+      'after',
+      `
+Grades: 5 %, 1 %, 0.5 %, 0.1 % (IEC 60062:2016 letters J, F, D, B), each with the TCR it usually comes with
+(common practice); relative costs are illustrative unless the design file's "costs" gives yours.
+${SEARCH_METHOD}
+
+Examples:
+  $ trimfree grades examples/charger-2s-liion.json
+  $ trimfree grades examples/charger-2s-liion.json --target-yield 99.99% --search-trials 50000
+  $ trimfree grades examples/led-driver-highside.json --json`,
+    )
+    .action((file: string, options: GradesCliOptions) => run(file, options));
+}
