@@ -18,6 +18,7 @@ import {
 } from '../src/analysis/statistics/histogram.js';
 import { chunkMoments, mergeMoments, momentsSigma } from '../src/analysis/statistics/moments.js';
 import { wilsonInterval } from '../src/analysis/statistics/wilson.js';
+import { OrderStatistics } from '../src/analysis/statistics/order-statistics.js';
 import { BENCH_SUPPLY } from '../src/bench/cvcc-spec.js';
 import { fillPart } from '../src/tolerance/sample.js';
 import { partFromBound } from '../src/tolerance/part.js';
@@ -109,6 +110,24 @@ describe('quantiles from the fine histogram stay within the stated bound of the 
     expect(coarse.edges[0]).toBe(h.min);
     expect(coarse.edges[coarse.edges.length - 1]).toBe(h.max);
     expect(coarse.counts.length).toBeLessThanOrEqual(61);
+  });
+});
+
+describe('exact order statistics from the gathered bins equal a full sort', () => {
+  it('triangular values in 7 uneven pieces, some outside the histogram range: every requested rank', () => {
+    const n = 50_000;
+    const x = new Float64Array(n);
+    fillPart(partFromBound({ name: 'x', kind: 'offset', nominal: 0, plusMinus: 1, distribution: { kind: 'triangular' } }), x, n, chunkRandom('order', 0));
+    const bins = 512;
+    // A deliberately narrow range, so both outer bins hold values too.
+    const h: FineHistogram = { lo: -0.8, hi: 0.7, bins, counts: new Float64Array(bins + 2), min: x.reduce((a, b) => Math.min(a, b)), max: x.reduce((a, b) => Math.max(a, b)) };
+    countInto(h.counts, bins, h.lo, h.hi, x, n);
+    const pieces = [0, 100, 7000, 7001, 20000, 33333, 49999, n].slice(1).map((end, i, ends) => x.subarray(i === 0 ? 0 : ends[i - 1]!, end));
+    const ranges: Array<[number, number]> = [[1, 2500], [47_501, n], [25_000, 25_000], [12_345, 12_400]];
+    const order = new OrderStatistics(pieces, h, ranges);
+    const sorted = x.slice().sort();
+    for (const [a, b] of ranges) for (let r = a; r <= b; r++) expect(order.at(r)).toBe(sorted[r - 1]);
+    expect(() => order.at(30_000)).toThrow(/not gathered/);
   });
 });
 

@@ -16,7 +16,8 @@ import type { Model } from './model.js';
 import type { ModelSource } from './model-source.js';
 import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
 import { processCapability } from './statistics/capability.js';
-import { shortestInterval, sortedPercentile, symmetricInterval } from './statistics/coverage.js';
+import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
+import { OrderStatistics } from './statistics/order-statistics.js';
 import {
   coarseHistogram,
   histogramPercentile,
@@ -342,19 +343,18 @@ function finishOutput(output: Model['outputs'][number], a: Accumulator, range: {
   let quantileMethod: 'exact' | 'histogram';
   let quantileBound: number;
   if (a.samples && a.sampleCount === n) {
-    const sorted = new Float64Array(n);
-    let offset = 0;
-    for (const s of a.samples) {
-      sorted.set(s, offset);
-      offset += s.length;
-    }
+    // Exact order statistics: only the tails and the bins of the middle percentiles are sorted.
+    const q95 = coverageCount(0.95, n);
+    const q9973 = coverageCount(0.9973, n);
+    const tail = Math.max(1, n - Math.min(q95, q9973));
+    const percentileRanks = REPORTED_PERCENTILES.map((pct) => nearestRank(pct, n));
+    const order = new OrderStatistics(a.samples, fine, [[1, tail], [n - tail + 1, n], ...percentileRanks.map((r) => [r, r] as [number, number])]);
     a.samples = null;
-    sorted.sort();
-    percentiles = REPORTED_PERCENTILES.map((pct) => ({ pct, value: sortedPercentile(sorted, pct) }));
-    interval95 = symmetricInterval(sorted, 0.95);
-    interval9973 = symmetricInterval(sorted, 0.9973);
-    shortest95 = shortestInterval(sorted, 0.95);
-    shortest9973 = shortestInterval(sorted, 0.9973);
+    percentiles = REPORTED_PERCENTILES.map((pct, i) => ({ pct, value: order.at(percentileRanks[i]!) }));
+    interval95 = symmetricIntervalOf((r) => order.at(r), n, 0.95);
+    interval9973 = symmetricIntervalOf((r) => order.at(r), n, 0.9973);
+    shortest95 = shortestIntervalOf((r) => order.at(r), n, 0.95);
+    shortest9973 = shortestIntervalOf((r) => order.at(r), n, 0.9973);
     quantileMethod = 'exact';
     quantileBound = 0;
   } else {

@@ -19,32 +19,44 @@ export function symmetricStartRank(p: number, m: number): number {
   return Math.max(1, Number.isInteger(half) ? half : Math.floor((m - q + 1) / 2));
 }
 
-export function symmetricInterval(sorted: Float64Array, p: number): Interval {
-  const m = sorted.length;
+/** The k-th smallest of M values (1-based), however they are stored. */
+export type OrderStatistic = (rank: number) => number;
+
+export function symmetricIntervalOf(y: OrderStatistic, m: number, p: number): Interval {
   const q = coverageCount(p, m);
   const r = symmetricStartRank(p, m);
-  return { low: sorted[r - 1]!, high: sorted[Math.min(m, r + q) - 1]! };
+  return { low: y(r), high: y(Math.min(m, r + q)) };
 }
 
-export function shortestInterval(sorted: Float64Array, p: number): Interval {
-  const m = sorted.length;
+export function shortestIntervalOf(y: OrderStatistic, m: number, p: number): Interval {
   const q = coverageCount(p, m);
-  if (q >= m) return { low: sorted[0]!, high: sorted[m - 1]! };
+  if (q >= m) return { low: y(1), high: y(m) };
   let best = 1;
   let bestWidth = Infinity;
   for (let r = 1; r + q <= m; r++) {
-    const width = sorted[r + q - 1]! - sorted[r - 1]!;
+    const width = y(r + q) - y(r);
     if (width < bestWidth) {
       bestWidth = width;
       best = r;
     }
   }
-  return { low: sorted[best - 1]!, high: sorted[best + q - 1]! };
+  return { low: y(best), high: y(best + q) };
 }
 
-/** Nearest-rank percentile: y_(⌈pct/100·M⌉) (at least the first value). */
+export function symmetricInterval(sorted: Float64Array, p: number): Interval {
+  return symmetricIntervalOf((r) => sorted[r - 1]!, sorted.length, p);
+}
+
+export function shortestInterval(sorted: Float64Array, p: number): Interval {
+  return shortestIntervalOf((r) => sorted[r - 1]!, sorted.length, p);
+}
+
+/** Nearest rank of a percentile: ⌈pct/100·M⌉, at least 1. */
+export function nearestRank(pct: number, m: number): number {
+  return Math.min(m, Math.max(1, Math.ceil((pct / 100) * m)));
+}
+
+/** Nearest-rank percentile: y_(⌈pct/100·M⌉). */
 export function sortedPercentile(sorted: Float64Array, pct: number): number {
-  const m = sorted.length;
-  const rank = Math.min(m, Math.max(1, Math.ceil((pct / 100) * m)));
-  return sorted[rank - 1]!;
+  return sorted[nearestRank(pct, sorted.length) - 1]!;
 }

@@ -1,0 +1,80 @@
+// `npm run bench`: trials per second and peak memory of the full analysis (worst case, RSS, Monte Carlo with every
+// statistic) of the CV/CC benchmark design, at 1e6 and 1e7 trials, on one worker and on every core.
+// Each case runs in its own child process so its peak resident memory is its own.
+//   npm run bench                 a table
+//   npm run bench -- --json       one JSON document: an array of {trials, workers, seconds, trialsPerSecond, peakRssMB}
+//   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
+// Figures depend on the machine and on what else it runs; they are measurements, not tests.
+import { execFileSync } from 'node:child_process';
+import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
+import { analyze } from '../analysis/analyze.js';
+import { BENCH_SUPPLY } from './cvcc-spec.js';
+
+interface BenchCase {
+  trials: number;
+  workers: number;
+  seconds: number;
+  trialsPerSecond: number;
+  peakRssMB: number;
+}
+
+async function runOne(trials: number, workers: number): Promise<BenchCase> {
+  const start = process.hrtime.bigint();
+  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers });
+  const seconds = Number(process.hrtime.bigint() - start) / 1e9;
+  if (result.trials !== trials) throw new Error(`ran ${result.trials} trials, expected ${trials}`);
+  // maxRSS is in kilobytes and covers the worker threads too (they share the process).
+  const peakRssMB = process.resourceUsage().maxRSS / 1024;
+  return { trials, workers: result.workers, seconds: round(seconds, 3), trialsPerSecond: Math.round(trials / seconds), peakRssMB: round(peakRssMB, 1) };
+}
+
+function round(value: number, decimals: number): number {
+  const f = 10 ** decimals;
+  return Math.round(value * f) / f;
+}
+
+function argValue(args: string[], name: string): string | undefined {
+  const i = args.indexOf(name);
+  return i >= 0 ? args[i + 1] : undefined;
+}
+
+async function main(): Promise<void> {
+  const args = process.argv.slice(2);
+  const one = argValue(args, '--case');
+  if (one) {
+    const [trials, workers] = one.split(',').map(Number);
+    process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!))}\n`);
+    return;
+  }
+  const custom = argValue(args, '--trials');
+  const trialCounts = custom ? [Number(custom)] : [1e6, 1e7];
+  if (trialCounts.some((t) => !Number.isInteger(t) || t < 1)) {
+    process.stderr.write(`--trials: ${custom} is not a whole number of trials; accepted: e.g. 1e6\n`);
+    process.exitCode = 2;
+    return;
+  }
+  const cores = availableParallelism();
+  const workerCounts = cores > 1 ? [1, cores] : [1];
+  const cases: BenchCase[] = [];
+  const self = fileURLToPath(import.meta.url);
+  for (const trials of trialCounts) {
+    for (const workers of workerCounts) {
+      const out = execFileSync(process.execPath, [self, '--case', `${trials},${workers}`], { encoding: 'utf8', maxBuffer: 1 << 20 });
+      cases.push(JSON.parse(out.trim()) as BenchCase);
+    }
+  }
+  if (args.includes('--json')) {
+    process.stdout.write(`${JSON.stringify(cases)}\n`);
+    return;
+  }
+  process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
+  process.stdout.write('trials      workers  seconds  trials/s      peak RSS\n');
+  for (const c of cases) {
+    process.stdout.write(
+      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${c.peakRssMB.toFixed(0)} MB\n`,
+    );
+  }
+}
+
+await main();
