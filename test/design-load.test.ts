@@ -4,9 +4,11 @@
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { ImpossibleError, InputError, describeError } from '../src/errors.js';
 import { loadDesignFile, parseDesignText, validateDesign } from '../src/design/load.js';
+import { resolveDesign } from '../src/design/resolve.js';
 import { baseDesign } from './design-fixture.js';
 
 function errorOf(mutate: (d: Record<string, any>) => void): InputError {
@@ -154,5 +156,81 @@ describe('files and JSON', () => {
   });
   it('ImpossibleError is not used for malformed input', () => {
     expect(errorOf((d) => (d.reference.voltage = 'x'))).not.toBeInstanceOf(ImpossibleError);
+  });
+});
+
+describe('random and mutated design files (property test)', () => {
+  /** Every path to a leaf or object in a JSON value. */
+  function paths(value: unknown, prefix: string[] = []): string[][] {
+    if (value === null || typeof value !== 'object') return [prefix];
+    const out: string[][] = [prefix];
+    for (const [k, v] of Object.entries(value as Record<string, unknown>)) out.push(...paths(v, [...prefix, k]));
+    return out;
+  }
+  const allPaths = paths(baseDesign()).filter((p) => p.length > 0);
+  const junk = fc.oneof(
+    fc.string({ maxLength: 12 }),
+    fc.double(),
+    fc.integer(),
+    fc.boolean(),
+    fc.constant(null),
+    fc.constantFrom('auto', '4K7', '-1%', '1e999', '±', '..', 'NaN', 'Infinity', '0', '1..', '5..1', [], {}, [1, 2, 3], { x: 1 }),
+  );
+
+  it('never crash: each mutation either validates or gives one InputError line with a field path', () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...allPaths), junk, fc.boolean(), (path, value, remove) => {
+        const design = baseDesign();
+        let here: Record<string, any> = design;
+        for (const key of path.slice(0, -1)) here = here[key];
+        if (remove) delete here[path.at(-1)!];
+        else here[path.at(-1)!] = value;
+        try {
+          const parsed = validateDesign(design, 'prop.json');
+          const numbers: number[] = [];
+          JSON.stringify(parsed, (_k, v: unknown) => {
+            if (typeof v === 'number') numbers.push(v);
+            return v;
+          });
+          expect(numbers.every(Number.isFinite)).toBe(true);
+          // A design that validates resolves, or is explained as impossible; never a crash.
+          try {
+            const resolved = resolveDesign(parsed);
+            expect(resolved.bom.every((l) => Number.isFinite(l.powerW) && Number.isFinite(l.ohms))).toBe(true);
+          } catch (error) {
+            expect(error instanceof InputError || error instanceof ImpossibleError).toBe(true);
+          }
+        } catch (error) {
+          expect(error).toBeInstanceOf(InputError);
+          const line = describeError(error as InputError);
+          expect(line).not.toMatch(/\n/);
+          // The given value is echoed in quotes; outside them no NaN, Infinity or undefined may appear.
+          const unquoted = line.replace(/"[^"]*"|'[^']*'/g, '');
+          expect(unquoted).not.toMatch(/NaN|undefined|\[object Object\]/);
+          expect((error as InputError).where.length).toBeGreaterThan(0);
+        }
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  it('unknown fields anywhere are refused, with the path of the field', () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...paths(baseDesign()).filter((p) => { let v: any = baseDesign(); for (const k of p) v = v[k]; return v !== null && typeof v === 'object' && !Array.isArray(v) && p.at(-1) !== 'overrides'; })), fc.stringMatching(/^[a-z]{3,10}$/), (path, name) => {
+        const design = baseDesign();
+        let here: Record<string, any> = design;
+        for (const key of path) here = here[key];
+        if (name in here) return;
+        here[name] = 1;
+        try {
+          validateDesign(design);
+        } catch (error) {
+          expect((error as InputError).where).toBe([...path, name].join('.'));
+          return;
+        }
+        throw new Error(`unknown field ${[...path, name].join('.')} was accepted`);
+      }),
+      { numRuns: 300 },
+    );
   });
 });

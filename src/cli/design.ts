@@ -5,8 +5,12 @@
 import Table from 'cli-table3';
 import { Command, Option } from 'commander';
 import { loadDesignFile } from '../design/load.js';
+import { InputError } from '../errors.js';
 import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { stringifyReport } from '../report/json.js';
+import { parsePercent } from '../units/index.js';
+import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, renderGradesText, runGrades } from './grades.js';
+import { integerOption } from './option-parsers.js';
 import {
   analysisChoice,
   bomRows,
@@ -29,11 +33,21 @@ export const DEFAULT_DESIGN_TRIALS = 'auto' as const;
 
 interface DesignCliOptions {
   json?: boolean;
+  grades: boolean;
+  targetYield: number;
+  searchTrials: number;
   report?: string;
   force?: boolean;
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+}
+
+/** A yield target from "99.9%" or "99.9" (percent), strictly between 50 % and 100 %. */
+function targetYieldOption(value: string): number {
+  const fraction = parsePercent(value, '--target-yield');
+  if (!(fraction >= 0.5 && fraction < 1)) throw new InputError('--target-yield', `${value} is out of range`, 'a yield from 50 % up to but not including 100 %, e.g. 99.9%');
+  return fraction * 100;
 }
 
 /** The BOM as a terminal table. */
@@ -74,12 +88,17 @@ async function run(file: string, options: DesignCliOptions): Promise<void> {
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
   const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_DESIGN_TRIALS));
+  const grades = options.grades
+    ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials })
+    : undefined;
   const written = writeSpreadFiles(spread, files);
 
   if (options.json) {
-    process.stdout.write(stringifyReport({ bom: resolved.bom, spread: spreadReportJson(spread) }));
+    process.stdout.write(stringifyReport({ bom: resolved.bom, spread: spreadReportJson(spread), grades: grades ? gradesJson(grades) : null }));
   } else {
-    process.stdout.write(`${renderBomText(resolved)}\n${renderSpreadRunText(spread, file)}`);
+    // The spread already printed the cautions; the grade table follows without repeating them.
+    const gradesText = grades ? `\n${renderGradesText({ ...grades, resolved: { ...resolved, cautions: [] } }, file)}` : '';
+    process.stdout.write(`${renderBomText(resolved)}\n${renderSpreadRunText(spread, file)}${gradesText}`);
   }
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
 }
@@ -89,9 +108,12 @@ export function designCommand(): Command {
     .description('fill "auto" values with the pickers, then BOM, spread and grade comparison, and the HTML report')
     .configureOutput({ outputError: () => undefined })
     .argument('<file>', 'design file (JSON); `trimfree init` writes a starter')
-    .option('--json', 'print JSON: { bom: [{ designator, ohms, code, series, tolerance, tcrPerK, powerW, ratingW? }], spread: { seed, trials, outputs, … } }')
+    .option('--json', 'print JSON: { bom: [{ designator, ohms, code, series, tolerance, tcrPerK, powerW, ratingW? }], spread: { seed, trials, outputs, … }, grades: { … } | null }')
     .addOption(new Option('--report <file.html>', 'write the HTML review report (one self-contained file)'))
     .option('--force', 'overwrite an existing report file', false)
+    .option('--no-grades', 'skip the grade comparison and the cheapest-grade search')
+    .addOption(new Option('--target-yield <pct>', 'share of units the cheapest grade mix must bring inside every spec window').argParser(targetYieldOption).default(DEFAULT_TARGET_YIELD_PCT, '99.9 %'))
+    .addOption(new Option('--search-trials <n>', 'Monte Carlo trials per grade assignment the search evaluates').argParser(integerOption('--search-trials', 1000, 10_000_000)).default(DEFAULT_SEARCH_TRIALS, '20000'))
     .addOption(new Option('--seed <n>', "random seed (default: the file's, else 1)").argParser(seedOption('--seed')))
     .addOption(new Option('--trials <n|auto>', "Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)").argParser(trialsOption('--trials')))
     .addOption(new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers')))

@@ -35,12 +35,23 @@ export function fieldIssue(ctx: Ctx, input: unknown, problem: string, accepted: 
 
 const textOrNumber = z.union([z.string(), z.number()]);
 
+/** Magnitudes trimfree accepts at all (beyond them, arithmetic could overflow to Infinity or lose all precision). */
+const LARGEST = 1e12;
+const SMALLEST = 1e-12;
+
 function parseWith(parse: Parser, input: string | number, ctx: Ctx): number | undefined {
+  let value: number;
   try {
-    return parse(typeof input === 'number' ? String(input) : input, '');
+    value = parse(typeof input === 'number' ? String(input) : input, '');
   } catch (error) {
     return report(ctx, input, error);
   }
+  const size = Math.abs(value);
+  if (size > LARGEST || (size !== 0 && size < SMALLEST)) {
+    fieldIssue(ctx, input, `${JSON.stringify(input)} is out of range`, 'a magnitude from 1e-12 to 1e12 in SI units (or zero)');
+    return undefined;
+  }
+  return value;
 }
 
 interface Bounds {
@@ -66,29 +77,57 @@ export function quantity(parse: Parser, description: string, bounds: Bounds = {}
 }
 
 /** The literal "auto", or a quantity: output is the number or 'auto'. */
-export function autoOr(parse: Parser, description: string) {
+export function autoOr(parse: Parser, description: string, bounds: Bounds = LIMITS.resistance) {
   return textOrNumber
     .transform((input, ctx): number | 'auto' => {
       if (typeof input === 'string' && input.trim().toLowerCase() === 'auto') return 'auto';
       const value = parseWith(parse, input, ctx);
-      return value === undefined ? z.NEVER : value;
+      if (value === undefined) return z.NEVER;
+      if ((bounds.min !== undefined && value < bounds.min) || (bounds.max !== undefined && value > bounds.max)) {
+        fieldIssue(ctx, input, `${JSON.stringify(input)} is out of range`, `"auto", or ${description}, ${bounds.text ?? ''}`.replace(/, $/, ''));
+        return z.NEVER;
+      }
+      return value;
     })
     .meta({ description: `"auto" (picked by trimfree), or ${description}` });
 }
 
 // ---- the quantities ----------------------------------------------------------------------------------------------
+// Each has outer limits far beyond any supply trimfree is for, so that no value (a denormal 5e-324 Ω, 1e300 V) can
+// carry an Infinity or NaN into the analysis; a field may narrow them.
+const LIMITS = {
+  resistance: { min: 1e-6, max: 1e12, text: '1 µΩ to 1 TΩ' },
+  voltage: { min: -1e5, max: 1e5, text: '-100 kV to 100 kV' },
+  current: { min: -1e4, max: 1e4, text: '-10 kA to 10 kA' },
+  power: { min: 0, max: 1e5, text: 'up to 100 kW' },
+  percent: { min: 0, max: 1, text: '0 % to 100 %' },
+  ppmPerK: { min: 0, max: 1e-2, text: '0 to 10000 ppm/K' },
+} satisfies Record<string, Bounds>;
+
+/** The field's own bounds within the quantity's outer limits. */
+function within(limits: Bounds, bounds: Bounds = {}): Bounds {
+  const out: Bounds = {
+    min: Math.max(limits.min ?? -Infinity, bounds.min ?? -Infinity),
+    max: Math.min(limits.max ?? Infinity, bounds.max ?? Infinity),
+  };
+  const text = bounds.text ?? limits.text;
+  if (text !== undefined) out.text = text;
+  return out;
+}
+
 export const resistance = (bounds?: Bounds) =>
-  quantity(parseResistance, 'a resistance: 4K7, 4.7k, 4.7 kΩ, 10m, or a number of ohms', bounds);
-export const voltage = (bounds?: Bounds) => quantity(parseVoltage, 'a voltage: 12 V, 800mV, 3V3, or a number of volts', bounds);
+  quantity(parseResistance, 'a resistance: 4K7, 4.7k, 4.7 kΩ, 10m, or a number of ohms', within(LIMITS.resistance, bounds));
+export const voltage = (bounds?: Bounds) =>
+  quantity(parseVoltage, 'a voltage: 12 V, 800mV, 3V3, or a number of volts', within(LIMITS.voltage, bounds));
 export const current = (bounds?: Bounds) =>
-  quantity(parseCurrent, 'a current: 1.5 A, 150mA, 50 nA, or a number of amperes', bounds);
-export const power = (bounds?: Bounds) => quantity(parsePower, 'a power: 1 W, 250mW, or a number of watts', bounds);
+  quantity(parseCurrent, 'a current: 1.5 A, 150mA, 50 nA, or a number of amperes', within(LIMITS.current, bounds));
+export const power = (bounds?: Bounds) => quantity(parsePower, 'a power: 1 W, 250mW, or a number of watts', within(LIMITS.power, bounds));
 /** A fraction from "1%" / "0.5 %" / 1 (a bare number is percent). */
 export const percent = (bounds?: Bounds) =>
-  quantity(parsePercent, 'a percentage: 1%, 0.5 %, or a number of percent', bounds);
+  quantity(parsePercent, 'a percentage: 1%, 0.5 %, or a number of percent', within(LIMITS.percent, bounds));
 /** Per kelvin from "100ppm/K" / "100ppm" / 100 (a bare number is ppm/K). */
 export const ppmPerK = (bounds?: Bounds) =>
-  quantity(parsePpmPerK, 'a temperature coefficient: 100ppm/K, 25 ppm, or a number of ppm/K', bounds);
+  quantity(parsePpmPerK, 'a temperature coefficient: 100ppm/K, 25 ppm, or a number of ppm/K', within(LIMITS.ppmPerK, bounds));
 
 // ---- per-kelvin and thermal quantities (a unit suffix on top of src/units) -------------------------------------
 const PER_KELVIN = /\s*\/\s*(K|°C|degC)$/i;
@@ -103,7 +142,7 @@ function parseVoltagePerK(text: string, where: string): number {
   return parseVoltage(bare.replace(PER_KELVIN, ''), where);
 }
 export const voltagePerK = () =>
-  quantity(parseVoltagePerK, 'a voltage drift: 5 µV/K, 5uV/°C, or a number of volts per kelvin');
+  quantity(parseVoltagePerK, 'a voltage drift: 5 µV/K, 5uV/°C, or a number of volts per kelvin', { min: -1, max: 1, text: 'within ±1 V/K' });
 
 /** Thermal resistance θ, "60 K/W", "60 °C/W" or 60, in K/W. */
 function parseThermalResistance(text: string, where: string): number {
@@ -114,7 +153,7 @@ function parseThermalResistance(text: string, where: string): number {
   return value;
 }
 export const thermalResistance = () =>
-  quantity(parseThermalResistance, 'a thermal resistance: 60 K/W, 60 °C/W, or a number of K/W', { min: 0 });
+  quantity(parseThermalResistance, 'a thermal resistance: 60 K/W, 60 °C/W, or a number of K/W', { min: 0, max: 1e4, text: '0 to 10000 K/W' });
 
 /** Temperature in °C, "-20 °C", "85C", or a number. */
 function parseCelsius(text: string, where: string): number {
@@ -125,7 +164,7 @@ function parseCelsius(text: string, where: string): number {
   if (value < -273.15) throw new InputError(where, `'${text}' is below absolute zero`, accepted);
   return value;
 }
-export const celsius = () => quantity(parseCelsius, 'a temperature: -20 °C, 85C, or a number of degrees Celsius');
+export const celsius = () => quantity(parseCelsius, 'a temperature: -20 °C, 85C, or a number of degrees Celsius', { min: -273.15, max: 1000, text: '-273.15 °C to 1000 °C' });
 
 // ---- windows ----------------------------------------------------------------------------------------------------
 

@@ -97,6 +97,7 @@ function valueAt(data: unknown, path: Path): { found: boolean; value: unknown } 
 
 /** Short rendering of a given value for the message. */
 function shown(value: unknown): string {
+  if (value === undefined) return 'nothing';
   if (value === null) return 'null';
   if (Array.isArray(value)) return `a list of ${value.length}`;
   if (typeof value === 'object') return 'an object';
@@ -183,7 +184,7 @@ function issueToError(issue: Issue, data: unknown, source: string): InputError {
       return issueToError({ ...inner, path: [...path, ...inner.path] } as Issue, data, source);
     }
   }
-  if (!given.found && path.length > 0 && (issue.code === 'invalid_type' || issue.code === 'invalid_union')) {
+  if (!given.found && path.length > 0 && issue.code !== 'custom' && issue.code !== 'unrecognized_keys') {
     return new InputError(where, 'missing required field', accepted);
   }
   switch (issue.code) {

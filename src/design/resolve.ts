@@ -101,6 +101,10 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const bomParts: BomPart[] = [...divider.bomParts, ...senseBomParts(design, sense.parts, sense.grades, nominal)];
   const bom = bomParts.map(bomLine);
+  const notFinite = [...Object.entries(nominal), ...bom.map((l) => [`${l.designator} power`, l.powerW] as const)].find(([, v]) => !Number.isFinite(v));
+  if (notFinite) {
+    throw new ImpossibleError('design', `the ${notFinite[0]} of this design is not a finite number`, 'check the values for extremes (a resistance near zero, a threshold at an offset)');
+  }
   for (const grade of [divider.grades.top, divider.grades.bottom, ...Object.values(sense.grades)]) {
     if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
   }
