@@ -30,7 +30,7 @@ function expectOneLineError(result: ReturnType<typeof spread>, where: RegExp): v
   expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
 }
 
-describe('trimfree spread on every example (subprocess)', () => {
+describe('trimfree spread on every example (subprocess)', { timeout: 120_000 }, () => {
   it('there are examples to run', () => expect(EXAMPLES.length).toBeGreaterThanOrEqual(3));
 
   for (const file of EXAMPLES) {
@@ -57,7 +57,7 @@ describe('trimfree spread on every example (subprocess)', () => {
   }
 });
 
-describe('spread agrees with the engine', () => {
+describe('spread agrees with the engine', { timeout: 120_000 }, () => {
   it('the JSON figures are the engine’s, run in-process on the resolved design with the same seed and trials', async () => {
     const r = spread(CHARGER, '--trials', '30000', '--seed', '5', '--json');
     expect(r.status).toBe(0);
@@ -92,7 +92,7 @@ describe('spread agrees with the engine', () => {
   });
 });
 
-describe('spread output files', () => {
+describe('spread output files', { timeout: 120_000 }, () => {
   it('--report and --samples write an HTML page whose figures equal the JSON, and a CSV of the first trials', () => {
     const dir = mkdtempSync(join(tmpdir(), 'trimfree-spread-'));
     const html = join(dir, 'r.html');

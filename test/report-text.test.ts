@@ -45,6 +45,7 @@ describe('terminal report', () => {
   it('a yield short of 100 % never rounds to 100 % (99.99996 % keeps its digits)', () => {
     expect(formatYieldPct(99.99996)).toBe('99.999960 %');
     expect(formatYieldPct(100)).toBe('100.00 %');
+    expect(formatYieldPct(99.99999999999999)).toBe('100.00 %'); // a Wilson bound of 1 − 1e-16, not a shortfall
     expect(formatYieldPct(98.764)).toBe('98.76 %');
   });
 

@@ -6,7 +6,7 @@ import { firstTrials, jointYield } from '../src/analysis/trial-values.js';
 import { renderSamplesCsv } from '../src/report/samples-csv.js';
 import { testSupply } from './report-supply-fixture.js';
 
-describe('trial values drawn as the engine draws them', () => {
+describe('trial values drawn as the engine draws them', { timeout: 120_000 }, () => {
   const spec = testSupply();
   const model = buildSupplyModel(spec);
 

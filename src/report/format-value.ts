@@ -31,8 +31,9 @@ export function formatSpread(value: number | null | undefined, unit: string): st
 export function formatYieldPct(pct: number | null | undefined): string {
   if (pct === null || pct === undefined || !Number.isFinite(pct)) return MISSING;
   // Enough decimals that a yield short of 100 % never rounds to 100 % (99.99996 % → "99.999960 %").
+  // A shortfall below 1e-9 % is floating-point rounding of 100 % (a Wilson bound computed as 0.9999999999999999).
   const out = 100 - pct;
-  const decimals = out <= 0 ? 2 : Math.min(6, Math.max(2, Math.ceil(-Math.log10(out)) + 1));
+  const decimals = out <= 1e-9 ? 2 : Math.min(6, Math.max(2, Math.ceil(-Math.log10(out)) + 1));
   return formatPercent(pct / 100, decimals);
 }
 
