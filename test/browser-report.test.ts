@@ -8,12 +8,29 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { groupingFactor } from '../src/report/display-bins.js';
 import { renderHtmlReport } from '../src/report/html-report.js';
 import { HISTOGRAM_MAX_BINS } from '../src/report/svg-histogram.js';
+import { gradesReportTables, runGrades } from '../src/cli/grades.js';
+import { renderSpreadRunHtml, runSpread } from '../src/cli/spread.js';
+import { loadDesignFile } from '../src/design/load.js';
+import { resolveDesign } from '../src/design/resolve.js';
+import { PROJECT_ROOT } from '../src/project-root.js';
 import { FIXTURE_PARTS, FIXTURE_RESULT } from './report-fixture.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 /** The SVG/DOM geometry used below (the project's TypeScript settings carry no DOM library). */
 type Graphic = { getBBox(): { width: number }; getBoundingClientRect(): { left: number; width: number; height: number } };
 export const SCREENSHOT = join(tmpdir(), 'trimfree-report.png');
+export const EXAMPLE_SCREENSHOT = join(tmpdir(), 'trimfree-report-example.png');
+const LAUNCH_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+
+/** A fresh Chromium with its own profile folder; fails with a clear message when the browser is missing. */
+async function launch(): Promise<{ context: BrowserContext; profile: string }> {
+  if (!existsSync(CHROMIUM)) {
+    throw new Error(`${CHROMIUM} is missing: install it with 'apt-get install -y chromium' (.ci/run does this under CI=true)`);
+  }
+  const profile = mkdtempSync(join(tmpdir(), 'trimfree-chromium-profile-'));
+  const context = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM, headless: true, viewport: { width: 1200, height: 900 }, args: LAUNCH_ARGS });
+  return { context, profile };
+}
 
 describe('HTML report in headless Chromium', () => {
   let context: BrowserContext | undefined;
@@ -21,22 +38,13 @@ describe('HTML report in headless Chromium', () => {
   let page: Awaited<ReturnType<BrowserContext['newPage']>>;
 
   beforeAll(async () => {
-    if (!existsSync(CHROMIUM)) {
-      throw new Error(`${CHROMIUM} is missing: install it with 'apt-get install -y chromium' (.ci/run does this under CI=true)`);
-    }
     const folder = mkdtempSync(join(tmpdir(), 'trimfree-browser-'));
     const file = join(folder, 'report.html');
     writeFileSync(
       file,
       renderHtmlReport({ title: 'Spread report', subject: 'fixture.json', version: '0.0.0', result: FIXTURE_RESULT, parts: FIXTURE_PARTS, cautions: ['test caution'] }),
     );
-    profile = mkdtempSync(join(tmpdir(), 'trimfree-chromium-profile-'));
-    context = await chromium.launchPersistentContext(profile, {
-      executablePath: CHROMIUM,
-      headless: true,
-      viewport: { width: 1200, height: 900 },
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
+    ({ context, profile } = await launch());
     page = await context.newPage();
     const requests: string[] = [];
     page.on('request', (r) => requests.push(r.url()));
@@ -99,4 +107,40 @@ describe('HTML report in headless Chromium', () => {
     await page.screenshot({ path: SCREENSHOT, fullPage: true });
     expect(existsSync(SCREENSHOT)).toBe(true);
   });
+});
+
+describe('the report of an example design (adjustable bench module) in headless Chromium', () => {
+  it('histograms for both ends of the pot travel, the grade tables, and a screenshot of the whole page', async () => {
+    const file = join(PROJECT_ROOT, 'examples', 'bench-adjustable.json');
+    const resolved = resolveDesign(loadDesignFile(file));
+    const choice = { trials: 20000, seed: 1, workers: 1, progress: false } as const;
+    const run = await runSpread(resolved, { ...choice });
+    const graded = await runGrades(resolved, { ...choice }, { targetYieldPct: 99, searchTrials: 4000 });
+    expect(run.lowEnd).toBeDefined();
+    const folder = mkdtempSync(join(tmpdir(), 'trimfree-browser-'));
+    const html = join(folder, 'bench.html');
+    writeFileSync(html, renderSpreadRunHtml(run, 'examples/bench-adjustable.json', 'trimfree design examples/bench-adjustable.json --report bench.html', gradesReportTables(graded)));
+    const { context, profile } = await launch();
+    try {
+      const page = await context.newPage();
+      await page.goto(`file://${html}`);
+      const outputs = Object.keys(run.result.outputs).length + Object.keys(run.lowEnd!.result.outputs).length;
+      expect(await page.locator('svg.histogram').count()).toBe(outputs);
+      expect(await page.locator('section[id^="lowend-output-"] svg.histogram').count()).toBe(Object.keys(run.lowEnd!.result.outputs).length);
+      for (const svg of await page.locator('svg.histogram').all()) {
+        const bins = await svg.locator('rect.bin').count();
+        expect(bins).toBe(Number(await svg.getAttribute('data-bins')));
+        expect(bins).toBeGreaterThan(10);
+        expect(await svg.locator('[data-marker="interval95-low"]').count()).toBe(1);
+        expect(await svg.locator('[data-marker="worst-max"]').count()).toBe(1);
+      }
+      expect(await page.locator('#grades tbody tr').count()).toBe(4);
+      expect(await page.locator('tr[data-designator="RS"]').count()).toBe(1);
+      await page.screenshot({ path: EXAMPLE_SCREENSHOT, fullPage: true });
+      expect(existsSync(EXAMPLE_SCREENSHOT)).toBe(true);
+    } finally {
+      await context.close();
+      rmSync(profile, { recursive: true, force: true });
+    }
+  }, 120_000);
 });

@@ -14,6 +14,7 @@ import type { ResolvedDesign } from '../design/resolve.js';
 import { InputError } from '../errors.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from '../report/format-value.js';
+import type { ReportTable } from '../report/html-report.js';
 import { stringifyReport } from '../report/json.js';
 import { textTable } from '../report/text-table.js';
 import { parsePercent } from '../units/index.js';
@@ -343,6 +344,40 @@ export function renderGradesText(run: GradesRun, subject: string): string {
     for (const c of run.resolved.cautions) out.push(`  ! ${c}`);
   }
   return `${out.join('\n')}\n`;
+}
+
+/** The grade comparison and the search's answer as tables for the HTML report (`design` passes them to writeSpreadFiles). */
+export function gradesReportTables(run: GradesRun): ReportTable[] {
+  const names = specOutputs(run);
+  const rows = run.rows.map((row) => [
+    `${row.grade.name} (${Math.round(row.grade.tcrPerK * 1e6)} ppm/K)`,
+    costText(row.cost),
+    ...names.map((name) => {
+      const o = row.result.outputs[name]!;
+      return `σ ${formatSpread(o.sigma, o.unit)} · ${o.yield ? formatYieldPct(o.yield.pct) : MISSING} · Cpk ${formatIndex(o.cpk)}`;
+    }),
+    formatYieldPct(row.joint.pct),
+  ]);
+  const tables: ReportTable[] = [
+    {
+      id: 'grades',
+      title: 'Tolerance grades side by side (every resistor in one grade)',
+      head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield'],
+      rows,
+      notes: [`Cells: σ · yield · Cpk. Costs: ${GRADES_SOURCE}.`, "Each grade brings its usual TCR (common practice); the shunt keeps its own TCR."],
+    },
+  ];
+  if (run.mix.found && run.mix.assignment) {
+    const v = run.mix.verified!;
+    tables.push({
+      id: 'grade-mix',
+      title: `Cheapest grades reaching ${run.options.targetYieldPct} % (cost ${costText(run.mix.cost!)}; as designed ${costText(run.designedCost)})`,
+      head: ['part', 'grade', 'as designed'],
+      rows: run.parts.map((p) => [p.name, run.mix.assignment![p.name]!, run.designed[p.name]!]),
+      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, ${v.trials.toLocaleString('en-US')} trials).`, SEARCH_METHOD],
+    });
+  }
+  return tables;
 }
 
 // ---- command ---------------------------------------------------------------------------------------------------

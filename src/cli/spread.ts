@@ -14,7 +14,7 @@ import type { BomLine } from '../design/bom.js';
 import { loadDesignFile } from '../design/load.js';
 import { DEFAULT_SEED, resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { InputError } from '../errors.js';
-import type { BomRow } from '../report/html-report.js';
+import type { BomRow, ReportTable } from '../report/html-report.js';
 import { renderHtmlReport } from '../report/html-report.js';
 import { spreadJson, stringifyReport, type SpreadJson } from '../report/json.js';
 import { renderSamplesCsv } from '../report/samples-csv.js';
@@ -130,7 +130,7 @@ export function bomRows(bom: BomLine[]): BomRow[] {
   });
 }
 
-export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: string): string {
+export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: string, tables?: ReportTable[]): string {
   const input: Parameters<typeof renderHtmlReport>[0] = {
     title: `trimfree spread report: ${subject}`,
     subject,
@@ -142,6 +142,8 @@ export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: s
     designNotes: run.resolved.notes,
   };
   if (command) input.command = command;
+  if (tables) input.tables = tables;
+  if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };
   return renderHtmlReport(input);
 }
 
@@ -167,6 +169,8 @@ export interface SpreadFiles {
   force: boolean;
   subject: string;
   command?: string;
+  /** Further tables for the HTML report (e.g. `design` adds the grade comparison: see gradesReportTables). */
+  tables?: ReportTable[];
 }
 
 /** Writes the CSV and HTML files asked for; refuses to overwrite without force (before any analysis runs). */
@@ -183,7 +187,7 @@ export function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): string[] {
     written.push(files.samples);
   }
   if (files.report !== undefined) {
-    writeOutputFile(files.report, renderSpreadRunHtml(run, files.subject, files.command), { force: files.force, where: '--report' });
+    writeOutputFile(files.report, renderSpreadRunHtml(run, files.subject, files.command, files.tables), { force: files.force, where: '--report' });
     written.push(files.report);
   }
   return written;

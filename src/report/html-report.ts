@@ -40,6 +40,19 @@ export interface HtmlReportInput {
   designNotes?: string[];
   /** The command line that produced the report (for reproduction). */
   command?: string;
+  /** A second analysis of the same design (an adjustable output with the pot at the bottom of its travel). */
+  lowEnd?: { title: string; result: AnalysisResult };
+  /** Further tables (e.g. the grade comparison), shown after the summary; cells already formatted. */
+  tables?: ReportTable[];
+}
+
+export interface ReportTable {
+  title: string;
+  head: string[];
+  rows: string[][];
+  notes?: string[];
+  /** Stable id for the section (letters, digits, '-'). */
+  id: string;
 }
 
 const STYLE = `
@@ -111,7 +124,13 @@ function summaryTable(result: AnalysisResult): string {
   return table(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk'], rows);
 }
 
-function outputSection(output: OutputResult): string {
+function extraTable(t: ReportTable): string {
+  const rows = t.rows.map((r) => `<tr>${r.map((c, i) => cell(c, i === 0 ? '' : 'num')).join('')}</tr>`);
+  const notes = (t.notes ?? []).map((n) => `<p class="meta">${escapeHtml(n)}</p>`).join('\n');
+  return `<section class="table" id="${escapeHtml(t.id)}"><h2>${escapeHtml(t.title)}</h2>\n${table(t.head, rows)}\n${notes}</section>`;
+}
+
+function outputSection(output: OutputResult, idPrefix = '', titleSuffix = ''): string {
   const figures = outputFigures(output).map(
     (f) =>
       `<tr><th scope="row">${escapeHtml(f.label)}</th><td class="num" data-field="${f.field}" data-value="${f.values.map(exact).join(' ')}">${escapeHtml(f.text)}</td></tr>`,
@@ -119,8 +138,8 @@ function outputSection(output: OutputResult): string {
   const quantileNote = output.quantileMethod === 'exact'
     ? 'Quantiles and intervals from every sample (exact).'
     : `Quantiles and intervals from a fine histogram, each within ±${escapeHtml(formatSpread(output.quantileBound, output.unit))}.`;
-  return `<section class="output" id="output-${escapeHtml(output.name)}" data-output="${escapeHtml(output.name)}">
-<h2>${escapeHtml(outputTitle(output.name))}</h2>
+  return `<section class="output" id="${idPrefix}output-${escapeHtml(output.name)}" data-output="${escapeHtml(output.name)}">
+<h2>${escapeHtml(outputTitle(output.name) + titleSuffix)}</h2>
 <table class="figures"><tbody>
 ${figures.join('\n')}
 </tbody></table>
@@ -162,7 +181,9 @@ ${summaryTable(r)}
 ${partsTable(input.parts)}
 ${input.bom && input.bom.length > 0 ? `<h2>Bill of materials</h2>\n${bomTable(input.bom)}` : ''}
 ${input.designNotes && input.designNotes.length > 0 ? `<h2>Design notes</h2><ul>${input.designNotes.map((n) => `<li>${escapeHtml(n)}</li>`).join('')}</ul>` : ''}
-${Object.values(r.outputs).map(outputSection).join('\n')}
+${(input.tables ?? []).map(extraTable).join('\n')}
+${Object.values(r.outputs).map((o) => outputSection(o)).join('\n')}
+${input.lowEnd ? `<h2>${escapeHtml(input.lowEnd.title)}</h2>\n${summaryTable(input.lowEnd.result)}\n${Object.values(input.lowEnd.result.outputs).map((o) => outputSection(o, 'lowend-', `, ${input.lowEnd!.title}`)).join('\n')}` : ''}
 <h2>How it was obtained</h2>
 <ul id="method">${method.map((m) => `<li>${escapeHtml(m)}</li>`).join('')}</ul>
 ${input.command ? `<p class="meta">Command: <code>${escapeHtml(input.command)}</code></p>` : ''}
