@@ -219,3 +219,27 @@ describe('RSS (JCGM 100:2008 5.1.2) against closed forms and Monte Carlo', () =>
     expect(Math.abs(r1.sensitivity * r1.standardUncertainty)).toBeCloseTo((1.25 / 3.3e3) * 28.7 / Math.sqrt(3), 8);
   });
 });
+
+describe('analyze: cautions and loud failures', () => {
+  it('a high-side design whose limit can reach zero carries a caution note', async () => {
+    const { analyze } = await import('../src/analysis/analyze.js');
+    const result = await analyze(DIFF_SUPPLY, { trials: 20_000, seed: 1, workers: 1 });
+    expect(result.outputs.ilimit!.worstCase.min).toBeLessThanOrEqual(0);
+    expect(result.notes.some((n) => n.startsWith('Caution: at some tolerance corners the current limit falls to zero'))).toBe(true);
+    // The fixed Monte Carlo temperature is reported.
+    expect(result.notes.some((n) => n.includes('holds the ambient at 25 °C'))).toBe(true);
+  });
+  it('a resistor tolerance of 100 % is refused with the field path', () => {
+    const bad = structuredClone(DIFF_SUPPLY);
+    bad.divider.bottom.resistors[0].tolerance = 1;
+    expect(() => buildSupplyModel(bad)).toThrowError(expect.objectContaining({ where: 'supply.divider.bottom.resistors[0].tolerance' }));
+  });
+  it('a model that yields NaN fails with ImpossibleError instead of reporting NaN', async () => {
+    const { analyze } = await import('../src/analysis/analyze.js');
+    const model: Model = {
+      parts: [partFromBound({ name: 'x', kind: 'offset', nominal: 0, plusMinus: 1 })],
+      outputs: [{ name: 'y', unit: 'V', evaluate: (p, out, n) => { for (let j = 0; j < n; j++) out[j] = Math.sqrt(p[0]![j]!); } }],
+    };
+    await expect(analyze(model, { trials: 1000, seed: 1, workers: 1 })).rejects.toThrow(/finite|NaN/);
+  });
+});

@@ -1,5 +1,6 @@
 // The whole tolerance analysis of a design: nominal, worst case, RSS with contributions, and Monte Carlo with
 // yield and capability, for every output, in one AnalysisResult (plain JSON for the reports).
+import { ImpossibleError } from '../errors.js';
 import { describeDistribution } from '../tolerance/sample.js';
 import { partVaries } from '../tolerance/part.js';
 import { nominalOutputs, type Model } from './model.js';
@@ -76,5 +77,26 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     'RSS: law of propagation of uncertainty, first order, sensitivities by central differences (JCGM 100:2008 5.1.2).',
     ...mc.notes,
   ];
-  return { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs };
+  const ilimit = outputs.ilimit;
+  if (ilimit && ilimit.worstCase.min <= 0) {
+    notes.push(
+      'Caution: at some tolerance corners the current limit falls to zero or below: the offsets or the common-mode error exceed the threshold there. Raise the shunt voltage at the limit or tighten the parts that lead the contributions.',
+    );
+  }
+  const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs };
+  assertFinite(result, 'analysis');
+  return result;
+}
+
+/** Fails loudly, naming the field, rather than hand a NaN or an infinity to a report. */
+function assertFinite(value: unknown, path: string): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) {
+      throw new ImpossibleError(path, `the analysis produced ${value}`, 'check for a part whose band reaches 0 Ω or a gain or threshold that leaves no signal');
+    }
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => assertFinite(v, `${path}[${i}]`));
+  } else if (value !== null && typeof value === 'object') {
+    for (const [key, v] of Object.entries(value)) assertFinite(v, `${path}.${key}`);
+  }
 }

@@ -70,36 +70,47 @@ export class ChunkRunner {
       partFromUnit(model.parts[i]!, p[i]!, n);
     }
     evaluateOutputs(model, p, this.outs, n);
-    const outputs = this.outs.map((x, o) => this.reduce(o, x, n));
+    // One buffer for every output's histogram counts (one allocation, one transfer).
+    const stride = config.bins + 2;
+    const allCounts = new Uint32Array(stride * model.outputs.length);
+    const outputs = this.outs.map((x, o) => this.reduce(o, x, n, allCounts.subarray(o * stride, (o + 1) * stride)));
     if (config.keepSamples) this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
     return { k, outputs };
   }
 
-  /** One pass for extremes, sum, spec count and histogram; a second for the squared deviations. */
-  private reduce(o: number, x: Float64Array, n: number): OutputChunk {
+  /** One pass for extremes, sum and histogram (and the spec count when there is a window); one for the deviations. */
+  private reduce(o: number, x: Float64Array, n: number, counts: Uint32Array): OutputChunk {
     const { config } = this;
     const spec = config.specs[o];
-    const specLo = spec ? spec[0] : -Infinity;
-    const specHi = spec ? spec[1] : Infinity;
     const bins = config.bins;
     const lo = config.ranges[o]!.lo;
     const scale = bins / (config.ranges[o]!.hi - lo);
-    const counts = new Uint32Array(bins + 2);
+    const above = bins + 1;
     let min = Infinity;
     let max = -Infinity;
-    let nonFinite = 0;
-    let inSpec = 0;
     let sum = 0;
     for (let j = 0; j < n; j++) {
       const v = x[j]!;
       if (v < min) min = v;
       if (v > max) max = v;
-      if (v >= specLo && v <= specHi) inSpec++;
-      if (v - v !== 0) nonFinite++;
       sum += v;
       const b = Math.floor((v - lo) * scale);
-      counts[b < 0 ? 0 : b >= bins ? bins + 1 : b + 1]!++;
+      counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
     }
+    let inSpec = 0;
+    if (spec) {
+      const specLo = spec[0];
+      const specHi = spec[1];
+      for (let j = 0; j < n; j++) {
+        const v = x[j]!;
+        if (v >= specLo && v <= specHi) inSpec++;
+      }
+    } else {
+      inSpec = n;
+    }
+    // A NaN or an infinity makes the sum non-finite; only then count them (the run then fails loudly).
+    let nonFinite = 0;
+    if (!Number.isFinite(sum)) for (let j = 0; j < n; j++) if (!Number.isFinite(x[j]!)) nonFinite++;
     // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
     const mean = n > 0 ? sum / n : 0;
     let sq = 0;

@@ -8,12 +8,13 @@ export type ToWorker = { type: 'init'; source: ModelSource; config: ChunkConfig 
 export type FromWorker = { type: 'chunk'; summary: ChunkSummary } | { type: 'error'; message: string };
 
 function transferList(summary: ChunkSummary): ArrayBuffer[] {
-  const list: ArrayBuffer[] = [];
+  // Every output's counts share one buffer; list each buffer once.
+  const list = new Set<ArrayBuffer>();
   for (const o of summary.outputs) {
-    list.push(o.counts.buffer as ArrayBuffer);
-    if (o.samples) list.push(o.samples.buffer as ArrayBuffer);
+    list.add(o.counts.buffer as ArrayBuffer);
+    if (o.samples) list.add(o.samples.buffer as ArrayBuffer);
   }
-  return list;
+  return [...list];
 }
 
 if (parentPort) {

@@ -174,6 +174,7 @@ function checkFinite(value: number | undefined, where: string, accepted: string,
 function addResistor(list: PartList, r: ResistorSpec, where: string, kind: 'resistor' | 'shunt' | 'potentiometer' = 'resistor'): ResistorSlot {
   checkFinite(r.nominal, `${where}.nominal`, 'a resistance above 0 Ω', true);
   checkFinite(r.tolerance, `${where}.tolerance`, 'a tolerance fraction ≥ 0 (0.01 for 1 %)');
+  if (r.tolerance >= 1) throw new InputError(`${where}.tolerance`, `${r.tolerance} would let the resistance reach 0 Ω`, 'a tolerance fraction below 1 (0.01 for 1 %)');
   checkFinite(r.tcrPerK, `${where}.tcrPerK`, 'a TCR bound ≥ 0 per kelvin (1e-4 for 100 ppm/K)');
   checkFinite(r.drift, `${where}.drift`, 'a drift fraction ≥ 0');
   const input = { name: r.name, kind, nominal: r.nominal, tolerance: r.tolerance } as Parameters<typeof partFromTolerance>[0];

@@ -33,19 +33,31 @@ function binEdges(h: FineHistogram, b: number): [number, number] {
   return [h.lo + (b - 1) * width, h.lo + b * width];
 }
 
+/** Cumulative counts: cumulative[b] = values in bins before b (length bins + 3). */
+function cumulativeCounts(h: FineHistogram): Float64Array {
+  const cumulative = new Float64Array(h.counts.length + 1);
+  for (let b = 0; b < h.counts.length; b++) cumulative[b + 1] = cumulative[b]! + h.counts[b]!;
+  return cumulative;
+}
+
+/** Value of the rank-th smallest sample (1-based), interpolated within its bin (binary search on the cumulative). */
+function rankValue(h: FineHistogram, cumulative: Float64Array, rank: number): number {
+  let lo = 0;
+  let hi = h.counts.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (cumulative[mid + 1]! >= rank) hi = mid;
+    else lo = mid + 1;
+  }
+  const c = h.counts[lo]!;
+  if (c === 0) return h.max;
+  const [a, z] = binEdges(h, lo);
+  return a + ((rank - cumulative[lo]! - 0.5) / c) * (z - a);
+}
+
 /** Value of the rank-th smallest sample (1-based), interpolated within its bin. */
 export function histogramRankValue(h: FineHistogram, rank: number): number {
-  let cumulative = 0;
-  const last = h.bins + 1;
-  for (let b = 0; b <= last; b++) {
-    const c = h.counts[b]!;
-    if (c > 0 && cumulative + c >= rank) {
-      const [a, z] = binEdges(h, b);
-      return a + ((rank - cumulative - 0.5) / c) * (z - a);
-    }
-    cumulative += c;
-  }
-  return h.max;
+  return rankValue(h, cumulativeCounts(h), rank);
 }
 
 /** Largest error of a quantile read from this histogram: the widest bin that holds any value. */
@@ -64,10 +76,11 @@ export function histogramTotal(h: FineHistogram): number {
 
 /** Probabilistically symmetric interval (JCGM 101:2008 7.7.1) from the histogram. */
 export function histogramSymmetricInterval(h: FineHistogram, p: number): Interval {
-  const m = histogramTotal(h);
+  const cumulative = cumulativeCounts(h);
+  const m = cumulative[cumulative.length - 1]!;
   const q = coverageCount(p, m);
   const r = symmetricStartRank(p, m);
-  return { low: histogramRankValue(h, r), high: histogramRankValue(h, Math.min(m, r + q)) };
+  return { low: rankValue(h, cumulative, r), high: rankValue(h, cumulative, Math.min(m, r + q)) };
 }
 
 /**
@@ -75,7 +88,8 @@ export function histogramSymmetricInterval(h: FineHistogram, p: number): Interva
  * the interval starting at that bin's first rank; each end within one bin of the exact answer.
  */
 export function histogramShortestInterval(h: FineHistogram, p: number): Interval {
-  const m = histogramTotal(h);
+  const cumulative = cumulativeCounts(h);
+  const m = cumulative[cumulative.length - 1]!;
   const q = coverageCount(p, m);
   let best: Interval = { low: h.min, high: h.max };
   let bestWidth = Infinity;
@@ -85,8 +99,8 @@ export function histogramShortestInterval(h: FineHistogram, p: number): Interval
     if (c > 0) {
       const r = before + 1;
       if (r + q > m) break;
-      const low = histogramRankValue(h, r);
-      const high = histogramRankValue(h, r + q);
+      const low = rankValue(h, cumulative, r);
+      const high = rankValue(h, cumulative, r + q);
       if (high - low < bestWidth) {
         bestWidth = high - low;
         best = { low, high };
