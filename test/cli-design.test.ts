@@ -105,10 +105,12 @@ describe('trimfree design', () => {
     expect(json.grades).toBeNull();
   });
 
-  it('runs the grade comparison unless --no-grades', () => {
-    const r = cli('design', join(EXAMPLES, 'charger-2s-liion.json'), '--trials', '2000', '--search-trials', '1000', '--json');
+  it('runs the grade comparison unless --no-grades, and puts it in the report', () => {
+    const report = join(dir, 'graded.html');
+    const r = cli('design', join(EXAMPLES, 'charger-2s-liion.json'), '--trials', '2000', '--search-trials', '1000', '--json', '--report', report);
     expect(r.status).toBe(0);
     expect(JSON.parse(r.stdout).grades).not.toBeNull();
+    expect(readFileSync(report, 'utf8')).toMatch(/id="grades"/);
   }, 60_000);
 
   it('writes the report, refuses to overwrite it without --force', () => {
@@ -119,7 +121,7 @@ describe('trimfree design', () => {
     expectOneLineError(cli('design', join(EXAMPLES, 'bench-adjustable.json'), ...FAST, '--report', report), /--report: .*already exists/);
     expect(cli('design', join(EXAMPLES, 'bench-adjustable.json'), ...FAST, '--report', report, '--force').status).toBe(0);
     expect(readdirSync(dir).filter((f) => f.endsWith('.tmp'))).toEqual([]);
-  });
+  }, 60_000);
 
   it('a bad design file: one line with the field path, exit 2', () => {
     const d = baseDesign();

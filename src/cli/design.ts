@@ -9,7 +9,7 @@ import { InputError } from '../errors.js';
 import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { stringifyReport } from '../report/json.js';
 import { parsePercent } from '../units/index.js';
-import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, renderGradesText, runGrades } from './grades.js';
+import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, gradesReportTables, renderGradesText, runGrades } from './grades.js';
 import { integerOption } from './option-parsers.js';
 import {
   analysisChoice,
@@ -91,6 +91,7 @@ async function run(file: string, options: DesignCliOptions): Promise<void> {
   const grades = options.grades
     ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials })
     : undefined;
+  if (grades) files.tables = gradesReportTables(grades);
   const written = writeSpreadFiles(spread, files);
 
   if (options.json) {
