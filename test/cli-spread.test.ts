@@ -57,6 +57,22 @@ describe('trimfree spread on every example (subprocess)', { timeout: 120_000 }, 
   }
 });
 
+describe('help', { timeout: 120_000 }, () => {
+  for (const command of ['spread', 'grades']) {
+    it(`${command} --help: every example names a file that exists, and runs`, () => {
+      const help = spawnSync(process.execPath, [MAIN, command, '--help'], { encoding: 'utf8' }).stdout;
+      const examples = [...help.matchAll(/^ {2}\$ trimfree (.+)$/gm)].map((m) => m[1].split(' '));
+      expect(examples.length).toBeGreaterThanOrEqual(3);
+      for (const args of examples) {
+        expect(existsSync(join(PROJECT_ROOT, args[1])), args[1]).toBe(true);
+      }
+      // The first example runs as written (with fewer trials, from the project folder).
+      const first = spawnSync(process.execPath, [MAIN, ...examples[0], '--trials', '5000', ...(command === 'grades' ? ['--search-trials', '2000'] : [])], { encoding: 'utf8', cwd: PROJECT_ROOT });
+      expect(first.status).toBe(0);
+    });
+  }
+});
+
 describe('spread agrees with the engine', { timeout: 120_000 }, () => {
   it('the JSON figures are the engine’s, run in-process on the resolved design with the same seed and trials', async () => {
     const r = spread(CHARGER, '--trials', '30000', '--seed', '5', '--json');

@@ -217,11 +217,15 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
 
 // ---- output ----------------------------------------------------------------------------------------------------
 
+export const GRADING_NOTE =
+  "Each grade brings its usual TCR (common practice); the shunt takes the grade's tolerance and keeps its own TCR; " +
+  "resistor values stay as designed (a looser grade's usual series may not stock them).";
+
 export const SEARCH_METHOD =
   'Every assignment is evaluated by Monte Carlo on the same seed and trials, so any two are compared on paired ' +
   'trials. Taking yield not to fall when a part is tightened (the usual case with the nominal inside the window): ' +
-  'if every part at 0.1 % fails, nothing passes; for each part, grades that fail even with every other part at ' +
-  '0.1 % are ruled out; the remaining assignments are then visited in order of total cost, cheapest first, and the ' +
+  'if every part at 0.1 % fails, nothing passes; for each part, grades that fail even with every other part at ' +
+  '0.1 % are ruled out; the remaining assignments are then visited in order of total cost, cheapest first, and the ' +
   'first that reaches the target is the cheapest (assignments no tighter than a known failure are skipped). The ' +
   'answer is re-run with the full trial count.';
 
@@ -272,7 +276,7 @@ export function gradesJson(run: GradesRun): unknown {
     },
     bestUpgrade: run.upgrade,
     notes: [
-      'Every grade brings its usual TCR (common practice); the shunt takes the grade\'s tolerance and keeps its own TCR.',
+      GRADING_NOTE,
       `"all specs" yield: share of trials in which every output with a spec window (${names.join(', ')}) is inside it.`,
     ],
   };
@@ -333,11 +337,15 @@ export function renderGradesText(run: GradesRun, subject: string): string {
         (u.pctPerCost === null ? ' (no extra cost)' : ` (${u.pctPerCost.toPrecision(3)} yield points per unit cost)`),
     );
   } else {
-    out.push('no single grade upgrade raises the yield of the design as it stands.');
+    out.push(
+      run.designedYieldPct < 100
+        ? 'no single grade upgrade raises the yield of the design as it stands: the units it loses are set by parts that are not resistors (see the contributors in `trimfree spread`).'
+        : 'no single grade upgrade raises the yield of the design as it stands (every trial already meets every window).',
+    );
   }
   out.push('');
   out.push(`how the search works: ${SEARCH_METHOD}`);
-  out.push("Each grade brings its usual TCR (common practice); the shunt takes the grade's tolerance and keeps its own TCR.");
+  out.push(GRADING_NOTE);
   if (run.resolved.cautions.length > 0) {
     out.push('');
     out.push('caution:');
@@ -364,7 +372,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
       title: 'Tolerance grades side by side (every resistor in one grade)',
       head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield'],
       rows,
-      notes: [`Cells: σ · yield · Cpk. Costs: ${GRADES_SOURCE}.`, "Each grade brings its usual TCR (common practice); the shunt keeps its own TCR."],
+      notes: [`Cells: σ · yield · Cpk. Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
     },
   ];
   if (run.mix.found && run.mix.assignment) {
@@ -381,6 +389,20 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
 }
 
 // ---- command ---------------------------------------------------------------------------------------------------
+
+/** Breaks text into lines of at most `width` characters at spaces (for the help text). */
+function wrap(text: string, width: number): string {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(' ')) {
+    if (line !== '' && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = word;
+    } else line = line === '' ? word : `${line} ${word}`;
+  }
+  if (line !== '') lines.push(line);
+  return lines.join('\n');
+}
 
 function targetYieldOption(value: string): number {
   const accepted = 'a yield between 50 % and 100 % (exclusive), e.g. 99.9% or 99.9';
@@ -427,7 +449,8 @@ export function gradesCommand(): Command {
       `
 Grades: 5 %, 1 %, 0.5 %, 0.1 % (IEC 60062:2016 letters J, F, D, B), each with the TCR it usually comes with
 (common practice); relative costs are illustrative unless the design file's "costs" gives yours.
-${SEARCH_METHOD}
+
+${wrap(SEARCH_METHOD, 112)}
 
 Examples:
   $ trimfree grades examples/charger-2s-liion.json

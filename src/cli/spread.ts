@@ -279,9 +279,9 @@ extreme and temperature corner; RSS by JCGM 100:2008 5.1.2. Yield counts the tri
 window, with a 95 % Wilson interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.
 
 Examples:
-  $ trimfree spread examples/charger-2s.json
-  $ trimfree spread examples/charger-2s.json --trials 1000000 --seed 7 --json
-  $ trimfree spread examples/led-driver.json --report led.html --samples led.csv --force`,
+  $ trimfree spread examples/charger-2s-liion.json
+  $ trimfree spread examples/charger-2s-liion.json --trials 1000000 --seed 7 --json
+  $ trimfree spread examples/led-driver-highside.json --report led.html --samples led.csv --force`,
     )
     .action((file: string, options: SpreadCliOptions) => run(file, options));
 }
