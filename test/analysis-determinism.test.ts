@@ -58,6 +58,13 @@ describe('Monte Carlo reproducibility across worker counts', () => {
     expect(again).toEqual(a);
   });
 
+  it('pooled workers serve run after run: a fixed run right after an adaptive one that stopped early is unaffected', async () => {
+    await analyze(spec, { trials: 'auto', seed: 'first', significantDigits: 1, workers: 2 });
+    const pooled = await analyze(spec, { trials: 150_000, seed: 'second', workers: 2 });
+    const alone = await analyze(spec, { trials: 150_000, seed: 'second', workers: 1 });
+    expect({ ...pooled, workers: 0 }).toEqual({ ...alone, workers: 0 });
+  }, 120_000);
+
   it('progress reaches the planned trial count, in order', async () => {
     const seen: number[] = [];
     await analyze(spec, { trials: 200_000, seed: 1, workers: 2, onProgress: (p) => seen.push(p.trialsDone) });

@@ -91,10 +91,12 @@ export class ChunkRunner {
     let sum = 0;
     for (let j = 0; j < n; j++) {
       const v = x[j]!;
-      if (v < min) min = v;
-      if (v > max) max = v;
+      min = Math.min(min, v);
+      max = Math.max(max, v);
       sum += v;
-      const b = Math.floor((v - lo) * scale);
+    }
+    for (let j = 0; j < n; j++) {
+      const b = Math.floor((x[j]! - lo) * scale);
       counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
     }
     let inSpec = 0;

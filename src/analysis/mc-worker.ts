@@ -4,8 +4,9 @@ import { parentPort } from 'node:worker_threads';
 import { ChunkRunner, type ChunkConfig, type ChunkSummary } from './chunk.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
 
-export type ToWorker = { type: 'init'; source: ModelSource; config: ChunkConfig } | { type: 'chunk'; k: number } | { type: 'stop' };
-export type FromWorker = { type: 'chunk'; summary: ChunkSummary } | { type: 'error'; message: string };
+/** Every message names its run: a pooled worker serves run after run. */
+export type ToWorker = { type: 'init'; run: number; source: ModelSource; config: ChunkConfig } | { type: 'chunk'; run: number; k: number };
+export type FromWorker = { type: 'chunk'; run: number; summary: ChunkSummary } | { type: 'error'; run: number; message: string };
 
 function transferList(summary: ChunkSummary): ArrayBuffer[] {
   // Every output's counts share one buffer; list each buffer once.
@@ -20,19 +21,20 @@ function transferList(summary: ChunkSummary): ArrayBuffer[] {
 if (parentPort) {
   const port = parentPort;
   let runner: ChunkRunner | null = null;
+  let runnerRun = -1;
   port.on('message', (message: ToWorker) => {
     try {
       if (message.type === 'init') {
         runner = new ChunkRunner(buildFromSource(message.source), message.config);
-      } else if (message.type === 'chunk') {
-        if (!runner) throw new Error('chunk before init');
-        const summary = runner.run(message.k);
-        port.postMessage({ type: 'chunk', summary } satisfies FromWorker, transferList(summary));
+        runnerRun = message.run;
       } else {
-        port.close();
+        // A chunk of a run that has since been replaced is skipped (its answer would be ignored anyway).
+        if (message.run !== runnerRun || !runner) return;
+        const summary = runner.run(message.k);
+        port.postMessage({ type: 'chunk', run: message.run, summary } satisfies FromWorker, transferList(summary));
       }
     } catch (error) {
-      port.postMessage({ type: 'error', message: error instanceof Error ? error.message : String(error) } satisfies FromWorker);
+      port.postMessage({ type: 'error', run: message.run, message: error instanceof Error ? error.message : String(error) } satisfies FromWorker);
     }
   });
 }

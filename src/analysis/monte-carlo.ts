@@ -3,17 +3,14 @@
 // they fit the memory cap), and the reductions merged strictly in chunk order. Hence the same seed gives
 // bit-identical results for 1, 2 or 16 workers. With workers = 1 (or a Model that has no JSON source) the chunks
 // run on the calling thread.
-import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { ImpossibleError, InputError } from '../errors.js';
-import { PROJECT_ROOT } from '../project-root.js';
 import { ChunkRunner, DEFAULT_CHUNK_SIZE, type ChunkConfig, type ChunkSummary, type OutputChunk } from './chunk.js';
 import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
 import type { ModelSource } from './model-source.js';
+import { checkOutWorkers, giveBackWorkers } from './worker-pool.js';
 import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
 import { processCapability } from './statistics/capability.js';
 import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
@@ -124,14 +121,6 @@ class Accumulator {
       this.sampleCount += c.n;
     }
   }
-}
-
-function workerScript(): URL {
-  const here = fileURLToPath(import.meta.url);
-  // Running from TypeScript source (tests): a Worker needs the compiled JavaScript in dist/.
-  const file = here.endsWith('.ts') ? join(PROJECT_ROOT, 'dist', 'src', 'analysis', 'mc-worker.js') : join(here, '..', 'mc-worker.js');
-  if (!existsSync(file)) throw new Error(`Monte Carlo worker ${file} is missing: build first (npx tsc -p ${PROJECT_ROOT})`);
-  return pathToFileURL(file);
 }
 
 function checkOptions(options: MonteCarloOptions): void {
@@ -258,6 +247,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   return { seed, trials: trialsDone, workers, chunkSize, notes, outputs: results };
 }
 
+let runCounter = 0;
+
 function runOnWorkers(
   source: ModelSource,
   config: ChunkConfig,
@@ -266,17 +257,18 @@ function runOnWorkers(
   merge: (summary: ChunkSummary) => void,
   isStopped: () => boolean,
 ): Promise<void> {
-  const script = workerScript();
+  const pool = checkOutWorkers(workerCount);
+  // Replies carry the run's id: a pooled worker may still answer chunks of a run that stopped early.
+  const run = ++runCounter;
   return new Promise((resolve, reject) => {
     const pending = new Map<number, ChunkSummary>();
     let nextToSend = 0;
     let nextToMerge = 0;
     let finished = false;
-    const pool: Worker[] = [];
     const finish = (error?: Error): void => {
       if (finished) return;
       finished = true;
-      for (const w of pool) void w.terminate();
+      giveBackWorkers(pool, !error);
       if (error) reject(error);
       else resolve();
     };
@@ -286,16 +278,14 @@ function runOnWorkers(
     const inFlight = new Map<Worker, number>();
     const send = (worker: Worker): void => {
       while (!isStopped() && nextToSend < chunkCount && pending.size <= 4 * workerCount && inFlight.get(worker)! < inFlightLimit) {
-        worker.postMessage({ type: 'chunk', k: nextToSend++ } satisfies ToWorker);
+        worker.postMessage({ type: 'chunk', run, k: nextToSend++ } satisfies ToWorker);
         inFlight.set(worker, inFlight.get(worker)! + 1);
       }
     };
-    for (let i = 0; i < workerCount; i++) {
-      const worker = new Worker(script);
-      pool.push(worker);
+    for (const worker of pool) {
       inFlight.set(worker, 0);
       worker.on('message', (message: FromWorker) => {
-        if (finished) return;
+        if (finished || message.run !== run) return;
         inFlight.set(worker, inFlight.get(worker)! - 1);
         if (message.type === 'error') {
           finish(new ImpossibleError('Monte Carlo', message.message, 'check the design values; this trial could not be evaluated'));
@@ -317,7 +307,7 @@ function runOnWorkers(
         if (nextToMerge >= chunkCount) finish();
       });
       worker.on('error', (error) => finish(error));
-      worker.postMessage({ type: 'init', source, config } satisfies ToWorker);
+      worker.postMessage({ type: 'init', run, source, config } satisfies ToWorker);
       send(worker);
     }
   });

@@ -6,7 +6,7 @@
 //   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
 // Figures depend on the machine and on what else it runs; they are measurements, not tests.
 import { execFileSync } from 'node:child_process';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { analyze } from '../analysis/analyze.js';
 import { BENCH_SUPPLY } from './cvcc-spec.js';
@@ -17,16 +17,23 @@ interface BenchCase {
   seconds: number;
   trialsPerSecond: number;
   peakRssMB: number;
+  /** CPU time of the process (all threads), s: compare with seconds × workers to see contention. */
+  cpuSeconds: number;
+  /** One-minute load average when the case started: other jobs on the machine slow every figure. */
+  loadAverage: number;
 }
 
 async function runOne(trials: number, workers: number): Promise<BenchCase> {
+  const loadAverage = round(loadavg()[0]!, 2);
+  const cpuStart = process.cpuUsage();
   const start = process.hrtime.bigint();
   const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers });
   const seconds = Number(process.hrtime.bigint() - start) / 1e9;
+  const cpu = process.cpuUsage(cpuStart);
   if (result.trials !== trials) throw new Error(`ran ${result.trials} trials, expected ${trials}`);
   // maxRSS is in kilobytes and covers the worker threads too (they share the process).
   const peakRssMB = process.resourceUsage().maxRSS / 1024;
-  return { trials, workers: result.workers, seconds: round(seconds, 3), trialsPerSecond: Math.round(trials / seconds), peakRssMB: round(peakRssMB, 1) };
+  return { trials, workers: result.workers, seconds: round(seconds, 3), trialsPerSecond: Math.round(trials / seconds), peakRssMB: round(peakRssMB, 1), cpuSeconds: round((cpu.user + cpu.system) / 1e6, 3), loadAverage };
 }
 
 function round(value: number, decimals: number): number {
@@ -69,10 +76,10 @@ async function main(): Promise<void> {
     return;
   }
   process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
-  process.stdout.write('trials      workers  seconds  trials/s      peak RSS\n');
+  process.stdout.write('trials      workers  seconds  trials/s      peak RSS  CPU s   load avg\n');
   for (const c of cases) {
     process.stdout.write(
-      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${c.peakRssMB.toFixed(0)} MB\n`,
+      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.loadAverage.toFixed(2)}\n`,
     );
   }
 }
