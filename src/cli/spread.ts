@@ -124,7 +124,7 @@ export function bomRows(bom: BomLine[]): BomRow[] {
       tolerance: formatPercent(line.tolerance, line.tolerance < 0.01 ? 2 : 1),
       tcr: formatPpmPerK(line.tcrPerK),
       power: `${formatEngineering(line.powerW, 'W')}${line.ratingW !== undefined ? ` of ${formatEngineering(line.ratingW, 'W')} rated` : ''}`,
-      note: `${line.role}; power at ${line.powerAt}`,
+      note: `${line.role}; power ${/^at /.test(line.powerAt) ? '' : 'at '}${line.powerAt}`,
     };
     return row;
   });

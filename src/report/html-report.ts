@@ -94,12 +94,15 @@ function formatPartValue(value: number, unit: string): string {
   return formatEngineering(value, unit, 4);
 }
 
+/** Kinds whose band reads naturally as ± a percentage of the nominal value. */
+const RELATIVE_KINDS = new Set<Part['kind']>(['resistor', 'shunt', 'potentiometer', 'reference', 'threshold']);
+
 function partsTable(parts: Part[]): string {
   const rows = parts.map((p) => {
     const band = p.minus === 0 && p.plus === 0
       ? 'exact'
       : `${formatPartValue(p.nominal - p.minus, p.unit)} … ${formatPartValue(p.nominal + p.plus, p.unit)}`;
-    const relative = p.nominal !== 0 && p.minus === p.plus && p.minus > 0 && p.unit !== '°C' && p.unit !== '1/K'
+    const relative = RELATIVE_KINDS.has(p.kind) && p.nominal !== 0 && p.minus === p.plus && p.minus > 0
       ? ` (±${formatPercent(p.plus / Math.abs(p.nominal), 3)})`
       : '';
     return `<tr data-part="${escapeHtml(p.name)}">${cell(p.name)}${cell(p.kind)}${cell(formatPartValue(p.nominal, p.unit), 'num')}${cell(band + relative, 'num')}${cell(describeDistribution(p))}${cell(p.tcrPerK !== undefined ? formatPpmPerK(p.tcrPerK) : MISSING)}</tr>`;
