@@ -52,9 +52,14 @@ export class ChunkRunner {
   private readonly p: Float64Array[];
   private outs: Float64Array[];
 
+  /** With `reuse`, the counts buffer is reused for every chunk: only for a caller that consumes each summary
+   *  before asking for the next (the in-thread run), never when summaries are transferred to another thread. */
+  private counts: Uint32Array | null = null;
+
   constructor(
     private readonly model: Model,
     private readonly config: ChunkConfig,
+    private readonly reuse = false,
   ) {
     this.p = model.parts.map(() => new Float64Array(config.chunkSize));
     this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
@@ -72,7 +77,10 @@ export class ChunkRunner {
     evaluateOutputs(model, p, this.outs, n);
     // One buffer for every output's histogram counts (one allocation, one transfer).
     const stride = config.bins + 2;
-    const allCounts = new Uint32Array(stride * model.outputs.length);
+    let allCounts = this.counts;
+    if (allCounts === null || !this.reuse) allCounts = new Uint32Array(stride * model.outputs.length);
+    else allCounts.fill(0);
+    if (this.reuse) this.counts = allCounts;
     const outputs = this.outs.map((x, o) => this.reduce(o, x, n, allCounts.subarray(o * stride, (o + 1) * stride)));
     if (config.keepSamples) this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
     return { k, outputs };

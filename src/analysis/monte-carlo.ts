@@ -218,7 +218,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   const requested = options.workers ?? availableParallelism();
   const workers = options.source && requested > 1 ? Math.min(requested, chunkCount) : 1;
   if (workers <= 1) {
-    const runner = new ChunkRunner(model, config);
+    const runner = new ChunkRunner(model, config, true);
     for (let k = 0; !stopped; k++) {
       mergeChunk(runner.run(k));
       if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));

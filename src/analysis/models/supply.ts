@@ -240,32 +240,77 @@ function addReference(list: PartList, ref: ReferenceSpec, defaultName: string, w
 // ---------------------------------------------------------------------------------------------------------------
 // Per-trial values (small functions; V8 inlines them into the loops below).
 
-function resistorAt(p: Float64Array[], s: ResistorSlot, j: number, dT: number): number {
-  let r = p[s.value]![j]!;
-  if (s.drift !== NONE) r *= 1 + p[s.drift]![j]!;
-  if (s.tcr !== NONE) r *= 1 + p[s.tcr]![j]! * dT;
-  return r;
+// Each evaluation first resolves the slots to the part arrays themselves (once per block of trials), so the
+// per-trial code reads one typed array per value and tests null for the optional factors.
+
+interface ResistorColumns {
+  value: Float64Array;
+  tcr: Float64Array | null;
+  drift: Float64Array | null;
 }
 
-function legAt(p: Float64Array[], leg: LegSlots, j: number, dT: number): number {
-  let r = resistorAt(p, leg.a, j, dT);
-  if (leg.b !== null) {
-    const rb = resistorAt(p, leg.b, j, dT);
-    r = leg.parallel ? parallelResistance(r, rb) : seriesResistance(r, rb);
-  }
-  if (leg.pot !== null) r += leg.wiper * resistorAt(p, leg.pot, j, dT);
-  return r;
+interface LegColumns {
+  a: ResistorColumns;
+  b: ResistorColumns | null;
+  parallel: boolean;
+  pot: ResistorColumns | null;
+  wiper: number;
 }
 
-function referenceAt(p: Float64Array[], s: ReferenceSlot, j: number, dT: number): number {
-  let v = p[s.value]![j]!;
-  if (s.drift !== NONE) v *= 1 + p[s.drift]![j]!;
-  if (s.tempco !== NONE) v *= 1 + p[s.tempco]![j]! * dT;
+interface ReferenceColumns {
+  value: Float64Array;
+  tempco: Float64Array | null;
+  drift: Float64Array | null;
+}
+
+function column(p: Float64Array[], index: number): Float64Array | null {
+  return index === NONE ? null : p[index]!;
+}
+
+function resolveResistor(p: Float64Array[], s: ResistorSlot): ResistorColumns {
+  return { value: p[s.value]!, tcr: column(p, s.tcr), drift: column(p, s.drift) };
+}
+
+function resolveLeg(p: Float64Array[], leg: LegSlots): LegColumns {
+  return {
+    a: resolveResistor(p, leg.a),
+    b: leg.b === null ? null : resolveResistor(p, leg.b),
+    parallel: leg.parallel,
+    pot: leg.pot === null ? null : resolveResistor(p, leg.pot),
+    wiper: leg.wiper,
+  };
+}
+
+function resolveReference(p: Float64Array[], s: ReferenceSlot): ReferenceColumns {
+  return { value: p[s.value]!, tempco: column(p, s.tempco), drift: column(p, s.drift) };
+}
+
+function resistorAt(r: ResistorColumns, j: number, dT: number): number {
+  let v = r.value[j]!;
+  if (r.drift !== null) v *= 1 + r.drift[j]!;
+  if (r.tcr !== null) v *= 1 + r.tcr[j]! * dT;
   return v;
 }
 
-function valueOr(p: Float64Array[], index: number, j: number, otherwise: number): number {
-  return index === NONE ? otherwise : p[index]![j]!;
+function legAt(leg: LegColumns, j: number, dT: number): number {
+  let r = resistorAt(leg.a, j, dT);
+  if (leg.b !== null) {
+    const rb = resistorAt(leg.b, j, dT);
+    r = leg.parallel ? parallelResistance(r, rb) : seriesResistance(r, rb);
+  }
+  if (leg.pot !== null) r += leg.wiper * resistorAt(leg.pot, j, dT);
+  return r;
+}
+
+function referenceAt(s: ReferenceColumns, j: number, dT: number): number {
+  let v = s.value[j]!;
+  if (s.drift !== null) v *= 1 + s.drift[j]!;
+  if (s.tempco !== null) v *= 1 + s.tempco[j]! * dT;
+  return v;
+}
+
+function valueOr(c: Float64Array | null, j: number, otherwise: number): number {
+  return c === null ? otherwise : c[j]!;
 }
 
 /** One parameter object shape for every topology, so the limit functions see a single (monomorphic) shape. */
@@ -300,8 +345,11 @@ export function hotShunt(rAmbient: number, alpha: number, theta: number, k: numb
 
 /** What the sense path computes for one trial. */
 interface SenseEvaluator {
-  /** Fills q for trial j, sets q.shunt to the shunt at its own temperature, returns the limit current. */
-  limit(p: Float64Array[], q: SenseParams, j: number, dT: number): number;
+  /**
+   * Binds the part arrays of one block of trials; the function returned fills q for trial j, sets q.shunt to the
+   * shunt at its own temperature and returns the limit current.
+   */
+  bind(p: Float64Array[]): (q: SenseParams, j: number, dT: number) => number;
   /** Output of the amplifier (or the shunt voltage, `direct`) at a load current. */
   signal(q: SenseParams, current: number): number;
   ilimitSpec?: [number, number];
@@ -360,20 +408,25 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     const q = newSenseParams();
     const voutOut = outs[0]!;
     const dividerOut = outs[1]!;
+    const vrefColumns = resolveReference(p, vref);
+    const topColumns = resolveLeg(p, top);
+    const bottomColumns = resolveLeg(p, bottom);
+    const ifbColumn = column(p, ifb);
     for (let j = 0; j < n; j++) {
       const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-      const v = referenceAt(p, vref, j, dT);
-      const rBottom = legAt(p, bottom, j, dT);
-      voutOut[j] = dividerVout(v, legAt(p, top, j, dT), rBottom, valueOr(p, ifb, j, 0));
+      const v = referenceAt(vrefColumns, j, dT);
+      const rBottom = legAt(bottomColumns, j, dT);
+      voutOut[j] = dividerVout(v, legAt(topColumns, j, dT), rBottom, valueOr(ifbColumn, j, 0));
       dividerOut[j] = v / rBottom;
     }
     if (sense) {
       const limitOut = outs[2]!;
       const lossOut = outs[3]!;
       const ampOut = outs[4]!;
+      const limitAt = sense.bind(p);
       for (let j = 0; j < n; j++) {
         const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-        const current = sense.limit(p, q, j, dT);
+        const current = limitAt(q, j, dT);
         limitOut[j] = current;
         lossOut[j] = current * current * q.shunt;
         ampOut[j] = sense.signal(q, current);
@@ -469,45 +522,55 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   const signalOf: (q: SenseParams, current: number) => number =
     topology === 'direct' ? directSignal : topology === 'noninv' ? noninvOutput : diffOutput;
 
-  /** Fills q for trial j (everything but the shunt). */
-  function fill(p: Float64Array[], q: SenseParams, j: number, dT: number): void {
-    if (thFixed !== NONE) {
-      let v = p[thFixed]![j]!;
-      if (thTempco !== NONE) v *= 1 + p[thTempco]![j]! * dT;
-      q.threshold = v;
-    } else {
-      const rt = resistorAt(p, thTop!, j, dT);
-      const rb = resistorAt(p, thBottom!, j, dT);
-      q.threshold = (referenceAt(p, thSource!, j, dT) * rb) / (rt + rb);
-    }
-    q.compareOffset = valueOr(p, compareOffset, j, 0);
-    if (ampOffset !== NONE) {
-      q.amplifierOffset = p[ampOffset]![j]! + (ampDrift !== NONE ? p[ampDrift]![j]! * dT : 0);
-      q.biasCurrent = valueOr(p, ampBias, j, 0);
-    }
-    if (topology === 'noninv') {
-      q.feedback = resistorAt(p, gain[0]!, j, dT);
-      q.ground = resistorAt(p, gain[1]!, j, dT);
-    } else if (topology === 'diff') {
-      q.r1 = resistorAt(p, gain[0]!, j, dT);
-      q.r2 = resistorAt(p, gain[1]!, j, dT);
-      q.r3 = resistorAt(p, gain[2]!, j, dT);
-      q.r4 = resistorAt(p, gain[3]!, j, dT);
-      q.commonMode = commonMode;
-    }
-  }
   const selfHeating = theta > 0 && shunt.tcr !== NONE;
   if (theta > 0 && alphaMax === 0) notes.push('Shunt has a thermal resistance but no TCR: self-heating changes its loss, not its value.');
 
   const evaluator: SenseEvaluator = {
-    limit(p, q, j, dT) {
-      fill(p, q, j, dT);
-      const rAmbient = resistorAt(p, shunt, j, dT);
-      q.shunt = rAmbient;
-      const current = limitOf(q);
-      if (!selfHeating) return current;
-      q.shunt = hotShunt(rAmbient, p[shunt.tcr]![j]!, theta, current * rAmbient);
-      return limitOf(q);
+    bind(p) {
+      const threshold = column(p, thFixed);
+      const thresholdTempco = column(p, thTempco);
+      const source = thSource === null ? null : resolveReference(p, thSource);
+      const dividerTop = thTop === null ? null : resolveResistor(p, thTop);
+      const dividerBottom = thBottom === null ? null : resolveResistor(p, thBottom);
+      const compare = column(p, compareOffset);
+      const offset = column(p, ampOffset);
+      const drift = column(p, ampDrift);
+      const bias = column(p, ampBias);
+      const g = gain.map((slot) => resolveResistor(p, slot));
+      const shuntColumns = resolveResistor(p, shunt);
+      const alpha = shuntColumns.tcr;
+      return (q, j, dT) => {
+        if (threshold !== null) {
+          let v = threshold[j]!;
+          if (thresholdTempco !== null) v *= 1 + thresholdTempco[j]! * dT;
+          q.threshold = v;
+        } else {
+          const rt = resistorAt(dividerTop!, j, dT);
+          const rb = resistorAt(dividerBottom!, j, dT);
+          q.threshold = (referenceAt(source!, j, dT) * rb) / (rt + rb);
+        }
+        q.compareOffset = valueOr(compare, j, 0);
+        if (offset !== null) {
+          q.amplifierOffset = offset[j]! + (drift !== null ? drift[j]! * dT : 0);
+          q.biasCurrent = valueOr(bias, j, 0);
+        }
+        if (topology === 'noninv') {
+          q.feedback = resistorAt(g[0]!, j, dT);
+          q.ground = resistorAt(g[1]!, j, dT);
+        } else if (topology === 'diff') {
+          q.r1 = resistorAt(g[0]!, j, dT);
+          q.r2 = resistorAt(g[1]!, j, dT);
+          q.r3 = resistorAt(g[2]!, j, dT);
+          q.r4 = resistorAt(g[3]!, j, dT);
+          q.commonMode = commonMode;
+        }
+        const rAmbient = resistorAt(shuntColumns, j, dT);
+        q.shunt = rAmbient;
+        const current = limitOf(q);
+        if (!selfHeating) return current;
+        q.shunt = hotShunt(rAmbient, alpha![j]!, theta, current * rAmbient);
+        return limitOf(q);
+      };
     },
     signal: signalOf,
   };
