@@ -243,3 +243,78 @@ describe('analyze: cautions and loud failures', () => {
     await expect(analyze(model, { trials: 1000, seed: 1, workers: 1 })).rejects.toThrow(/finite|NaN/);
   });
 });
+
+describe('supply model, noninv and direct topologies, against per-trial formulas', () => {
+  const sample = (model: Model, n: number): Float64Array[] => {
+    const p = model.parts.map(() => new Float64Array(n));
+    const state = chunkState('topologies', 0);
+    model.parts.forEach((part, i) => {
+      fillXor128(state, p[i]!, n);
+      partFromUnit(part, p[i]!, n);
+    });
+    return p;
+  };
+
+  it('noninv with self-heating (the benchmark design): I = ((Vth − Vcmp − Ib·RF)/G − Vos)/Rs, Rs heated by θ·I²Rs', async () => {
+    const { BENCH_SUPPLY } = await import('../src/bench/cvcc-spec.js');
+    const model = buildSupplyModel(BENCH_SUPPLY);
+    const n = 1000;
+    const p = sample(model, n);
+    const outs = model.outputs.map(() => new Float64Array(n));
+    model.evaluateAll!(p, outs, n);
+    const v = (name: string, j: number): number => p[model.parts.findIndex((x) => x.name === name)]![j]!;
+    for (let j = 0; j < n; j += 13) {
+      const dT = v('T ambient', j) - 25;
+      const rf = v('RF', j);
+      const g = 1 + rf / v('RG', j);
+      const vth = v('Vth', j);
+      const vos = v('Vos amp', j);
+      const ib = v('Ib amp', j);
+      const rsAmbient = v('RS', j) * (1 + v('RS TCR', j) * dT);
+      let rs = rsAmbient;
+      let current = 0;
+      for (let k = 0; k < 100; k++) {
+        current = ((vth - v('Vos cmp', j) - ib * rf) / g - vos) / rs;
+        rs = rsAmbient * (1 + v('RS TCR', j) * 60 * current * current * rs);
+      }
+      const vref = v('Vref', j) * (1 + v('Vref tempco', j) * dT);
+      const r1 = v('R1', j) * (1 + v('R1 TCR', j) * dT);
+      const r2 = v('R2', j) * (1 + v('R2 TCR', j) * dT);
+      expect(outs[0]![j]! / (vref * (1 + r1 / r2) + v('Ifb', j) * r1) - 1).toBeCloseTo(0, 12);
+      expect(outs[2]![j]! / current - 1).toBeCloseTo(0, 12);
+      expect(outs[3]![j]! / (current * current * rs) - 1).toBeCloseTo(0, 12);
+      expect(outs[4]![j]! / (g * (current * rs + vos) + ib * rf) - 1).toBeCloseTo(0, 12);
+    }
+  });
+
+  it('direct: I = (Vth − Vcmp)/Rs, the amplifier output is the shunt voltage; no spec on ampOutput without a rail', () => {
+    const spec: SupplySpec = {
+      reference: { nominal: 0.6, tolerance: 0.01 },
+      divider: { top: { resistors: [{ name: 'R1', nominal: 100e3, tolerance: 0.01 }] }, bottom: { resistors: [{ name: 'R2', nominal: 10e3, tolerance: 0.01 }] } },
+      temperature: { minC: 0, maxC: 40, monteCarlo: 'uniform' },
+      sense: {
+        topology: 'direct',
+        shunt: { name: 'RS', nominal: 0.05, tolerance: 0.01, drift: 0.005 },
+        threshold: { kind: 'fixed', nominal: 0.1, tolerance: 0.02, tempcoPerK: 100e-6, distribution: { kind: 'binned', innerFraction: 0.5 } },
+        compareOffset: { nominal: 0, plusMinus: 2e-3, distribution: { kind: 'triangular' } },
+        limitTarget: 2,
+      },
+    };
+    const model = buildSupplyModel(spec);
+    expect(model.outputs.find((o) => o.name === 'ampOutput')!.spec).toBeUndefined();
+    expect(nominalOutputs(model).ilimit).toBeCloseTo(2, 12);
+    const n = 500;
+    const p = sample(model, n);
+    const outs = model.outputs.map(() => new Float64Array(n));
+    model.evaluateAll!(p, outs, n);
+    const v = (name: string, j: number): number => p[model.parts.findIndex((x) => x.name === name)]![j]!;
+    for (let j = 0; j < n; j += 11) {
+      const dT = v('T ambient', j) - 25;
+      const rs = v('RS', j) * (1 + v('RS drift', j));
+      const vth = v('Vth', j) * (1 + v('Vth tempco', j) * dT);
+      const current = (vth - v('Vos cmp', j)) / rs;
+      expect(outs[2]![j]! / current - 1).toBeCloseTo(0, 12);
+      expect(outs[4]![j]! / (current * rs) - 1).toBeCloseTo(0, 12);
+    }
+  });
+});
