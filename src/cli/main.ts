@@ -1,37 +1,33 @@
 #!/usr/bin/env node
-// Entry point: runs the program, turns every input error into one line on stderr and exit code 2.
-import { CommanderError } from 'commander';
-import { ImpossibleError, InputError, describeError } from '../errors.js';
-import { buildProgram } from './program.js';
+// Entry point: runs the program (src/cli/run.ts decides the exit code and the one line on stderr) and handles
+// the process's own events: Ctrl-C (SIGINT) and SIGTERM stop the run, remove any output file still being written
+// and exit 130 (143); a closed stdout (`trimfree values E192 | head`) ends the run quietly.
+import { removePendingTemporaries } from './output-file.js';
+import { EXIT_INTERRUPTED, runCli } from './run.js';
 
-export const EXIT_INPUT = 2;
-
-function fail(line: string): never {
-  process.stderr.write(`trimfree: ${line}\n`);
-  process.exit(EXIT_INPUT);
+function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
+  process.once(signal, () => {
+    // Output files are written synchronously through a temporary file, so this handler runs either before a write
+    // began or after it ended; removing what is still pending is the belt to those braces. Exiting ends the
+    // Monte Carlo worker threads with the process.
+    removePendingTemporaries();
+    process.stderr.write(`\ntrimfree: interrupted (${signal}); stopped, no output file left half-written\n`);
+    process.exit(code);
+  });
 }
 
-async function main(argv: string[]): Promise<void> {
-  const program = buildProgram();
-  try {
-    await program.parseAsync(argv);
-  } catch (error) {
-    if (error instanceof InputError || error instanceof ImpossibleError) fail(describeError(error));
-    if (error instanceof CommanderError) {
-      if (error.exitCode === 0) process.exit(0);
-      fail(`${error.message.replace(/^error: /, '')}; see 'trimfree ${commandName(argv)}--help'`);
-    }
-    throw error;
-  }
-}
+onSignal('SIGINT', EXIT_INTERRUPTED);
+onSignal('SIGTERM', 128 + 15);
 
-function commandName(argv: string[]): string {
-  const first = argv.slice(2).find((a) => !a.startsWith('-'));
-  return first ? `${first} ` : '';
-}
-
-main(process.argv).catch((error: unknown) => {
-  const message = error instanceof Error ? error.message : String(error);
-  process.stderr.write(`trimfree: internal error: ${message}\n`);
+process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+  if (error.code === 'EPIPE') process.exit(0);
+  process.stderr.write(`trimfree: cannot write to stdout (${String(error.code ?? error.message)})\n`);
   process.exit(1);
 });
+
+const outcome = await runCli(process.argv);
+if (outcome.line !== undefined) process.stderr.write(`trimfree: ${outcome.line}\n`);
+// Let stdout drain (a large report through a pipe) and end naturally; should anything still hold the process
+// (a worker a failed run left behind), exit anyway shortly after.
+process.exitCode = outcome.code;
+if (outcome.code !== 0) setTimeout(() => process.exit(outcome.code), 1000).unref();

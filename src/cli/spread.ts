@@ -200,16 +200,29 @@ export function loadResolved(path: string): ResolvedDesign {
 
 // ---- command-line options ------------------------------------------------------------------------------------
 
+/** Most Monte Carlo trials a run accepts: at the engine's ~10 million trials per second (npm run bench) this is about
+ * a quarter of an hour on two cores; more could not finish in any sensible time. */
+export const MAX_RUN_TRIALS = 1e10;
+const MIN_RUN_TRIALS = 100;
+
 export function trialsOption(name: string): (value: string) => number | 'auto' {
-  const whole = integerOption(name, 100, 1e10);
+  const accepted = `a whole number from ${MIN_RUN_TRIALS} to 1e10 (10000000000), e.g. 200000 or 1e6, or auto (adaptive, JCGM 101:2008 7.9)`;
   return (value: string) => {
-    if (value.trim() === 'auto') return 'auto';
-    try {
-      return whole(value);
-    } catch (error) {
-      if (error instanceof InputError) throw new InputError(name, error.message, `${error.accepted}, or auto (adaptive, JCGM 101:2008 7.9)`);
-      throw error;
+    const text = value.trim();
+    if (text === 'auto') return 'auto';
+    // Digits, or a whole number in e-notation such as 1e6 or 2.5e7.
+    if (!/^(\d+|\d+(\.\d+)?[eE]\+?\d+)$/.test(text)) {
+      const bad = /[^0-9]/.exec(text);
+      const problem = text === '' ? 'empty trial count' : bad ? `'${text}' is not a trial count (unexpected '${bad[0]}' at position ${bad.index + 1})` : `'${text}' is not a trial count`;
+      throw new InputError(name, problem, accepted);
     }
+    const n = Number(text);
+    if (!Number.isInteger(n)) throw new InputError(name, `'${text}' is not a whole number of trials`, accepted);
+    if (n > MAX_RUN_TRIALS) {
+      throw new InputError(name, `'${text}' trials could not finish in any sensible time (1e10 already takes about a quarter of an hour); refused before any work`, `${accepted}; past about 1e7 trials the figures change little: compare two seeds instead`);
+    }
+    if (n < MIN_RUN_TRIALS) throw new InputError(name, `${text} is out of range (too few trials for a spread)`, accepted);
+    return n;
   };
 }
 

@@ -1,0 +1,45 @@
+// `--fail-under-yield PCT`: a gate for designers' own CI. After the report is printed, the command fails with exit
+// code 1 (not 2: the input was fine, the design is not) when any output's yield is below PCT, naming each such output
+// and its yield. The yields are the ones printed in the report (Monte Carlo share of trials inside the spec window).
+import { InputError } from '../errors.js';
+import { formatYieldPct } from '../report/format-value.js';
+import { parsePercent } from '../units/index.js';
+
+/** Exit code of a run whose output is complete but whose yield is below --fail-under-yield. */
+export const EXIT_YIELD_GATE = 1;
+
+export const FAIL_UNDER_YIELD_HELP = 'exit with code 1 when any output\'s yield is below this, e.g. 99.5% (default: never)';
+
+/** The gate's threshold in percent, from "99.5%", "99.5" or "99.5 %" (0 % to 100 % inclusive). */
+export function failUnderYieldOption(value: string): number {
+  const accepted = 'a yield from 0 % to 100 %, e.g. 99.5% or 99.5';
+  const fraction = parsePercent(value, '--fail-under-yield');
+  if (!(fraction >= 0 && fraction <= 1)) throw new InputError('--fail-under-yield', `'${value}' is out of range`, accepted);
+  return fraction * 100;
+}
+
+/** One output's yield as the report shows it. */
+export interface GatedYield {
+  /** e.g. "vout", or "all specs at 1 %" for grades. */
+  name: string;
+  pct: number;
+}
+
+/** Raised after the report is written: main.ts prints its message and exits 1. */
+export class YieldGateFailure extends Error {
+  readonly failing: GatedYield[];
+  constructor(thresholdPct: number, failing: GatedYield[]) {
+    super(
+      `--fail-under-yield ${thresholdPct} %: ${failing.map((f) => `${f.name} yield ${formatYieldPct(f.pct)}`).join(', ')} ${failing.length === 1 ? 'is' : 'are'} below ${thresholdPct} %`,
+    );
+    this.name = 'YieldGateFailure';
+    this.failing = failing;
+  }
+}
+
+/** Throws YieldGateFailure when a yield is below the threshold; does nothing when no threshold was given. */
+export function checkYieldGate(thresholdPct: number | undefined, yields: GatedYield[]): void {
+  if (thresholdPct === undefined) return;
+  const failing = yields.filter((y) => y.pct < thresholdPct);
+  if (failing.length > 0) throw new YieldGateFailure(thresholdPct, failing);
+}
