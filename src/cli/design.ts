@@ -9,7 +9,7 @@ import { InputError } from '../errors.js';
 import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { stringifyReport } from '../report/json.js';
 import { parsePercent } from '../units/index.js';
-import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, gradesReportTables, renderGradesText, runGrades } from './grades.js';
+import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, gradesReportTables, refuseUnreachableTarget, renderGradesText, runGrades } from './grades.js';
 import { integerOption } from './option-parsers.js';
 import {
   analysisChoice,
@@ -20,6 +20,7 @@ import {
   runSpread,
   seedOption,
   spreadReportJson,
+  spreadYields,
   trialsOption,
   workersOption,
   writeSpreadFiles,
@@ -27,6 +28,7 @@ import {
   type SpreadFiles,
 } from './spread.js';
 import { COMPACT_TABLE } from './values.js';
+import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
 /** Monte Carlo trials for `design` when neither the file nor the command line says: adaptive (JCGM 101:2008 7.9). */
 export const DEFAULT_DESIGN_TRIALS = 'auto' as const;
@@ -41,6 +43,7 @@ interface DesignCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+  failUnderYield?: number;
 }
 
 /** A yield target from "99.9%" or "99.9" (percent), strictly between 50 % and 100 %. */
@@ -75,7 +78,7 @@ function summarisePowerBasis(lines: string[]): string {
   return [...byBasis].map(([basis, names]) => `${basis} (${names.join(', ')})`).join('; ');
 }
 
-async function run(file: string, options: DesignCliOptions): Promise<void> {
+async function run(file: string, options: DesignCliOptions, command: Command): Promise<void> {
   const force = options.force ?? false;
   refuseExisting(options.report, '--report', force);
   const files: SpreadFiles = { force, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
@@ -91,6 +94,7 @@ async function run(file: string, options: DesignCliOptions): Promise<void> {
   const grades = options.grades
     ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials })
     : undefined;
+  if (grades) refuseUnreachableTarget(grades, command.getOptionValueSource('targetYield') === 'cli');
   if (grades) files.tables = gradesReportTables(grades);
   const written = writeSpreadFiles(spread, files);
 
@@ -102,6 +106,7 @@ async function run(file: string, options: DesignCliOptions): Promise<void> {
     process.stdout.write(`${renderBomText(resolved)}\n${renderSpreadRunText(spread, file)}${gradesText}`);
   }
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
+  checkYieldGate(options.failUnderYield, spreadYields(spread));
 }
 
 export function designCommand(): Command {
@@ -118,16 +123,21 @@ export function designCommand(): Command {
     .addOption(new Option('--seed <n>', "random seed (default: the file's, else 1)").argParser(seedOption('--seed')))
     .addOption(new Option('--trials <n|auto>', "Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)").argParser(trialsOption('--trials')))
     .addOption(new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers')))
+    .addOption(new Option('--fail-under-yield <pct>', FAIL_UNDER_YIELD_HELP).argParser(failUnderYieldOption))
     .addHelpText(
       'after',
       `
 "auto" values are picked as \`divider\` and \`sense\` pick them (their best candidate); the BOM gives the power each
 part handles at the operating point. The spread is the same as \`spread\` gives for the filled-in design.
 
+Exit codes: 0 done; 1 an output's yield (the spread's, per spec window) is below --fail-under-yield, after the full
+report; 2 bad input or an impossible design (one line on stderr); 130 Ctrl-C.
+
 Examples:
   $ trimfree design examples/charger-2s-liion.json
   $ trimfree design examples/led-driver-highside.json --report led.html --force
-  $ trimfree design examples/bench-adjustable.json --json --trials 100000 --seed 7`,
+  $ trimfree design examples/bench-adjustable.json --json --trials 100000 --seed 7
+  $ trimfree design examples/charger-2s-liion.json --fail-under-yield 99.5%`,
     )
-    .action((file: string, options: DesignCliOptions) => run(file, options));
+    .action((file: string, options: DesignCliOptions, command: Command) => run(file, options, command));
 }

@@ -11,7 +11,7 @@ import type { AnalysisResult } from '../analysis/result.js';
 import { jointYield, type JointYield } from '../analysis/trial-values.js';
 import { GRADES, GRADES_SOURCE, type Grade, type GradeName } from '../design/grades.js';
 import type { ResolvedDesign } from '../design/resolve.js';
-import { InputError } from '../errors.js';
+import { ImpossibleError, InputError } from '../errors.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from '../report/format-value.js';
 import type { ReportTable } from '../report/html-report.js';
@@ -22,6 +22,7 @@ import { integerOption } from './option-parsers.js';
 import { createProgress } from './progress.js';
 import { analysisChoice, loadResolved, seedOption, trialsOption, workersOption, type AnalysisChoice, type CommandLineAnalysis } from './spread.js';
 import { VERSION } from './version.js';
+import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
 /** Trials of each side-by-side run when neither the file nor the command line says. */
 export const DEFAULT_GRADES_TRIALS = 100_000;
@@ -418,9 +419,30 @@ interface GradesCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+  failUnderYield?: number;
 }
 
-async function run(file: string, options: GradesCliOptions): Promise<void> {
+/**
+ * A grade search the user asked for by naming --target-yield that no grade mix can satisfy is an impossible
+ * request (exit 2), stated with the best any resistor grade achieves; with the default target the report says so.
+ */
+export function refuseUnreachableTarget(run: GradesRun, targetGiven: boolean): void {
+  if (!targetGiven || run.mix.reason !== 'target-unreachable') return;
+  const tightest = run.rows.reduce((best, row) => (row.grade.tolerance < best.grade.tolerance ? row : best));
+  const limits = run.resolved.limits ?? [];
+  throw new ImpossibleError(
+    '--target-yield',
+    `no resistor grade mix reaches ${run.options.targetYieldPct} % of units inside every spec window: even every resistor at ${tightest.grade.name} gives ${formatYieldPct(tightest.joint.pct)}${limits.length > 0 ? ' (the output window is narrower than the reference alone allows)' : ''}`,
+    `lower --target-yield below ${formatYieldPct(tightest.joint.pct)}, or change what resistors cannot: a tighter reference, lower-offset amplifier or wider spec window (see the contributors in \`trimfree spread\`)`,
+  );
+}
+
+/** The design as it stands: its all-specs yield is what --fail-under-yield gates in \`grades\`. */
+export function gradesYields(run: GradesRun): { name: string; pct: number }[] {
+  return [{ name: 'all specs as designed', pct: run.designedYieldPct }];
+}
+
+async function run(file: string, options: GradesCliOptions, command: Command): Promise<void> {
   const resolved = loadResolved(file);
   const cli: CommandLineAnalysis = {};
   if (options.trials !== undefined) cli.trials = options.trials;
@@ -430,7 +452,9 @@ async function run(file: string, options: GradesCliOptions): Promise<void> {
     targetYieldPct: options.targetYield,
     searchTrials: options.searchTrials,
   });
+  refuseUnreachableTarget(result, command.getOptionValueSource('targetYield') === 'cli');
   process.stdout.write(options.json ? stringifyReport(gradesJson(result)) : renderGradesText(result, file));
+  checkYieldGate(options.failUnderYield, gradesYields(result));
 }
 
 export function gradesCommand(): Command {
@@ -443,6 +467,7 @@ export function gradesCommand(): Command {
     .addOption(new Option('--seed <n>', 'random seed (default: the file\'s, else 1)').argParser(seedOption('--seed')))
     .addOption(new Option('--trials <n|auto>', 'Monte Carlo trials per grade (default: the file\'s, else 100000)').argParser(trialsOption('--trials')))
     .addOption(new Option('--workers <n>', 'worker threads; results do not depend on it (default: the file\'s, else every core)').argParser(workersOption('--workers')))
+    .addOption(new Option('--fail-under-yield <pct>', `${FAIL_UNDER_YIELD_HELP.replace("any output's yield", 'the all-specs yield of the design as it stands')}`).argParser(failUnderYieldOption))
     .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
     .addHelpText(
       'after',
@@ -452,10 +477,14 @@ Grades: 5 %, 1 %, 0.5 %, 0.1 % (IEC 60062:2016 letters J, F, D, B), each with th
 
 ${wrap(SEARCH_METHOD, 112)}
 
+Exit codes: 0 done; 1 the all-specs yield of the design as it stands (its own grades, paired search trials) is below
+--fail-under-yield, after the full report; 2 bad input, or a --target-yield you gave that no grade mix can reach;
+130 Ctrl-C.
+
 Examples:
   $ trimfree grades examples/charger-2s-liion.json
   $ trimfree grades examples/charger-2s-liion.json --target-yield 99.99% --search-trials 50000
   $ trimfree grades examples/led-driver-highside.json --json`,
     )
-    .action((file: string, options: GradesCliOptions) => run(file, options));
+    .action((file: string, options: GradesCliOptions, command: Command) => run(file, options, command));
 }

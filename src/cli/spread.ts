@@ -23,6 +23,7 @@ import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.
 import { integerOption } from './option-parsers.js';
 import { writeOutputFile } from './output-file.js';
 import { createProgress } from './progress.js';
+import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP, type GatedYield } from './yield-gate.js';
 import { VERSION } from './version.js';
 
 /** Monte Carlo trials when neither the file nor the command line says: the adaptive procedure of JCGM 101:2008 7.9. */
@@ -92,12 +93,14 @@ export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice
 
 export interface SpreadReportJson extends SpreadJson {
   notes: string[];
+  /** Limits no resistor grade can fix (also among the notes). */
+  limits: string[];
   /** Adjustable output: the pot at the bottom of its travel. */
   lowEnd?: SpreadJson;
 }
 
 export function spreadReportJson(run: SpreadRun): SpreadReportJson {
-  const json: SpreadReportJson = { ...spreadJson(run.result, { version: VERSION, cautions: run.resolved.cautions }), notes: run.resolved.notes.slice() };
+  const json: SpreadReportJson = { ...spreadJson(run.result, { version: VERSION, cautions: run.resolved.cautions }), notes: run.resolved.notes.slice(), limits: (run.resolved.limits ?? []).slice() };
   if (run.lowEnd) json.lowEnd = spreadJson(run.lowEnd.result, { version: VERSION });
   return json;
 }
@@ -108,7 +111,10 @@ export function renderSpreadRunText(run: SpreadRun, subject: string): string {
   if (run.lowEnd) {
     text += `\n${renderSpreadText(run.lowEnd.result, { version: VERSION, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
   }
-  if (run.resolved.notes.length > 0) text += `\ndesign notes:\n${run.resolved.notes.map((n) => `  - ${n}`).join('\n')}\n`;
+  const limits = run.resolved.limits ?? [];
+  const notes = run.resolved.notes.filter((n) => !limits.includes(n));
+  if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;
+  if (notes.length > 0) text += `\ndesign notes:\n${notes.map((n) => `  - ${n}`).join('\n')}\n`;
   if (run.resolved.cautions.length > 0) text += `\ncaution:\n${run.resolved.cautions.map((c) => `  ! ${c}`).join('\n')}\n`;
   return text;
 }
@@ -193,6 +199,16 @@ export function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): string[] {
   return written;
 }
 
+/** Every output's yield against its spec window, as the report prints it (the low end of an adjustable output too). */
+export function spreadYields(run: SpreadRun): GatedYield[] {
+  const out: GatedYield[] = [];
+  for (const o of Object.values(run.result.outputs)) if (o.yield) out.push({ name: o.name, pct: o.yield.pct });
+  if (run.lowEnd) {
+    for (const o of Object.values(run.lowEnd.result.outputs)) if (o.yield) out.push({ name: `${o.name} (pot at the bottom of its travel)`, pct: o.yield.pct });
+  }
+  return out;
+}
+
 /** Loads and resolves a design file (shared with `grades`). */
 export function loadResolved(path: string): ResolvedDesign {
   return resolveDesign(loadDesignFile(path));
@@ -245,6 +261,7 @@ interface SpreadCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+  failUnderYield?: number;
 }
 
 async function run(file: string, options: SpreadCliOptions): Promise<void> {
@@ -269,6 +286,7 @@ async function run(file: string, options: SpreadCliOptions): Promise<void> {
     process.stdout.write(renderSpreadRunText(result, file));
   }
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
+  checkYieldGate(options.failUnderYield, spreadYields(result));
 }
 
 export function spreadCommand(): Command {
@@ -284,6 +302,7 @@ export function spreadCommand(): Command {
     .addOption(new Option('--seed <n>', 'random seed (default: the file\'s, else 1)').argParser(seedOption('--seed')))
     .addOption(new Option('--trials <n|auto>', 'Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file\'s, else auto)').argParser(trialsOption('--trials')))
     .addOption(new Option('--workers <n>', 'worker threads; results do not depend on it (default: the file\'s, else every core)').argParser(workersOption('--workers')))
+    .addOption(new Option('--fail-under-yield <pct>', FAIL_UNDER_YIELD_HELP).argParser(failUnderYieldOption))
     .addHelpText(
       'after',
       `
@@ -291,10 +310,14 @@ Monte Carlo per JCGM 101:2008 (same seed, same numbers for any worker count); wo
 extreme and temperature corner; RSS by JCGM 100:2008 5.1.2. Yield counts the trials inside each output's spec
 window, with a 95 % Wilson interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.
 
+Exit codes: 0 done; 1 an output's yield is below --fail-under-yield (the report is printed in full first, then one
+line naming each such output and its yield); 2 bad input or an impossible design (one line on stderr); 130 Ctrl-C.
+
 Examples:
   $ trimfree spread examples/charger-2s-liion.json
   $ trimfree spread examples/charger-2s-liion.json --trials 1000000 --seed 7 --json
-  $ trimfree spread examples/led-driver-highside.json --report led.html --samples led.csv --force`,
+  $ trimfree spread examples/led-driver-highside.json --report led.html --samples led.csv --force
+  $ trimfree spread examples/charger-2s-liion.json --fail-under-yield 99.5%`,
     )
     .action((file: string, options: SpreadCliOptions) => run(file, options));
 }

@@ -30,6 +30,8 @@ export interface ResolvedDesign {
   /** Relative cost of each grade (the file's, else the illustrative defaults). */
   costs: Record<GradeName, number>;
   analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
+  /** Limits no part choice can fix (e.g. a window narrower than the reference alone allows), stated in the output. */
+  limits?: string[];
 }
 
 /** Monte Carlo seed when neither the file nor the command line gives one. */
@@ -97,7 +99,8 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);
-  checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, notes);
+  const limits: string[] = [];
+  checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, limits);
 
   const bomParts: BomPart[] = [...divider.bomParts, ...senseBomParts(design, sense.parts, sense.grades, nominal)];
   const bom = bomParts.map(bomLine);
@@ -124,6 +127,10 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis };
   if (lowEnd) resolved.lowEnd = lowEnd;
+  if (limits.length > 0) {
+    resolved.limits = limits;
+    notes.push(...limits);
+  }
   return resolved;
 }
 
@@ -155,12 +162,12 @@ function checkOperatingPoint(design: Design, nominal: Record<string, number>, de
 }
 
 /** The spec window against the reference's own tolerance: a window narrower than it cannot hold every unit. */
-function checkWindowAgainstReference(design: Design, window: [number, number], target: number, notes: string[]): void {
+function checkWindowAgainstReference(design: Design, window: [number, number], target: number, limits: string[]): void {
   const half = Math.min(target - window[0], window[1] - target) / target;
   const refBand = design.reference.tolerance + (design.reference.drift ?? 0);
   if (half > 0 && half < refBand) {
-    notes.push(
-      `The output window (±${formatPercent(half)} at its narrower side) is narrower than the reference's own ±${formatPercent(refBand)}: no resistor grade can hold every unit inside it in the worst case; the yield rests on how Vref spreads. A tighter reference, or trimming, is what widens the margin.`,
+    limits.push(
+      `No resistor grade can keep every unit inside the output window: it is ±${formatPercent(half)} at its narrower side, narrower than the reference's own ±${formatPercent(refBand)} (tolerance plus drift), so the worst case falls outside it whatever the resistors; the yield rests on how Vref spreads. To change: a tighter reference (reference.tolerance, reference.drift), a wider voltage.window, or a trimming step.`,
     );
   }
 }
