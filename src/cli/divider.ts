@@ -20,6 +20,7 @@ import {
   currentOption,
   integerOption,
   percentOption,
+  toleranceOption,
   rangeOption,
   resistanceOption,
   voltageOption,
@@ -196,12 +197,12 @@ export function dividerCommand(): Command {
     .addOption(new Option('--current <range>', 'divider current window Vref/Rbottom, LO..HI').argParser(rangeOption(parseCurrent, '--current')))
     .addOption(new Option('--max <ohms>', 'largest resistor').argParser(resistanceOption('--max')).default(d.maxOhms, '1M'))
     .addOption(new Option('--bias-ratio <n>', 'divider current at least n × |Ifb| (0: off)').argParser(integerOption('--bias-ratio', 0, 1e6)).default(d.biasRatio))
-    .addOption(new Option('--tolerance <pct>', 'resistor tolerance (default: the series\' usual, E96 1 %)').argParser(percentOption('--tolerance')))
-    .addOption(new Option('--vref-tol <pct>', 'reference tolerance').argParser(percentOption('--vref-tol')).default(d.vrefTolerance, '1%'))
+    .addOption(new Option('--tolerance <pct>', 'resistor tolerance (default: the series\' usual, E96 1 %)').argParser(toleranceOption('--tolerance')))
+    .addOption(new Option('--vref-tol <pct>', 'reference tolerance').argParser(toleranceOption('--vref-tol')).default(d.vrefTolerance, '1%'))
     .addOption(new Option('--max-error <pct>', 'largest output error accepted (default: the resistor tolerance)').argParser(percentOption('--max-error')))
     .addOption(new Option('--top <n>', 'candidates shown').argParser(integerOption('--top', 1, 200)).default(d.count))
     .addOption(new Option('--pot <ohms>', 'potentiometer for an adjustable output (needs --vout LO..HI)').argParser(resistanceOption('--pot')))
-    .addOption(new Option('--pot-tol <pct>', 'pot track tolerance').argParser(percentOption('--pot-tol')).default(d.potTolerance, '20%'))
+    .addOption(new Option('--pot-tol <pct>', 'pot track tolerance').argParser(toleranceOption('--pot-tol')).default(d.potTolerance, '20%'))
     .addOption(new Option('--pot-leg <leg>', 'leg holding the pot').choices(['top', 'bottom']).default('top'))
     .option('--json', 'print JSON: { settings, candidates: [{ top, bottom, vout, errorPct, parts, ... }] } in ohms, volts, amperes, watts')
     .addHelpText(

@@ -48,3 +48,17 @@ export function integerOption(name: string, min: number, max: number = Number.MA
     return n;
   };
 }
+
+/** A tolerance as a fraction, 0 % to 50 % (the design file's bound too: a part sold looser than ±50 % is not a part). */
+export const toleranceOption = (name: string): ((v: string) => number) => boundedPercentOption(name, 0, 0.5, '0 % to 50 %, e.g. 1% or 0.1%');
+
+/** A fraction from a percentage, within [min, max] (min excluded when `aboveMin`). */
+export function boundedPercentOption(name: string, min: number, max: number, accepted: string, aboveMin = false): (v: string) => number {
+  const parse = percentOption(name);
+  return (value: string) => {
+    const fraction = parse(value);
+    const low = aboveMin ? fraction > min : fraction >= min;
+    if (!(low && fraction <= max)) throw new InputError(name, `'${value.trim()}' is out of range`, accepted);
+    return fraction;
+  };
+}

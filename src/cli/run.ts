@@ -36,7 +36,8 @@ export function outcomeOf(error: unknown, argv: string[]): RunOutcome {
   if (error instanceof CommanderError) {
     // --help and --version end through commander with exit code 0.
     if (error.exitCode === 0) return { code: EXIT_OK };
-    return { code: EXIT_INPUT, line: oneLine(`${error.message.replace(/^error: /, '')}; see 'trimfree ${commandName(argv)}--help'`) };
+    const where = error.code === 'commander.unknownCommand' ? '' : commandName(argv);
+    return { code: EXIT_INPUT, line: oneLine(`${error.message.replace(/^error: /, '').replace(/\.$/, '')}; see 'trimfree ${where}--help'`) };
   }
   const message = error instanceof Error ? error.message : String(error);
   return { code: EXIT_INTERNAL, line: oneLine(`internal error: ${message} (a bug in trimfree: please report it with the command line and the design file)`) };

@@ -13,7 +13,8 @@ import { formatEngineering, formatPercent, formatSignedPercent, parseResistance,
 import {
   currentOption,
   integerOption,
-  percentOption,
+  boundedPercentOption,
+  toleranceOption,
   powerOption,
   rangeOption,
   seriesOption,
@@ -249,16 +250,16 @@ export function senseCommand(): Command {
     .addOption(new Option('--limit <A>', 'target current limit, e.g. 3A or 750mA').argParser(currentOption('--limit')).makeOptionMandatory())
     .addOption(new Option('--topology <name>', 'sense circuit').choices([...SENSE_TOPOLOGIES]).default('noninv'))
     .addOption(new Option('--threshold <V>', 'threshold the amplified shunt signal meets').argParser(voltageOption('--threshold')))
-    .addOption(new Option('--threshold-tol <pct>', 'tolerance of the threshold (or of the reference with --threshold-from)').argParser(percentOption('--threshold-tol')).default(0.01, '1 %'))
+    .addOption(new Option('--threshold-tol <pct>', 'tolerance of the threshold (or of the reference with --threshold-from)').argParser(toleranceOption('--threshold-tol')).default(0.01, '1 %'))
     .addOption(new Option('--threshold-from <Vref>', 'derive the threshold from this reference through a picked divider RT1/RT2').argParser(voltageOption('--threshold-from')))
     .addOption(new Option('--shunts <list>', 'shunt values, comma-separated, any notation (default: the list in series/shunts-milliohm.json)').argParser(parseShuntList))
-    .addOption(new Option('--shunt-tol <pct>', 'shunt tolerance').argParser(percentOption('--shunt-tol')).default(0.01, '1 %'))
+    .addOption(new Option('--shunt-tol <pct>', 'shunt tolerance').argParser(toleranceOption('--shunt-tol')).default(0.01, '1 %'))
     .addOption(new Option('--shunt-rating <W>', 'shunt power rating').argParser(powerOption('--shunt-rating')).default(1, '1 W'))
-    .addOption(new Option('--derate <pct>', 'share of the rating the shunt may use at the hottest ambient (common practice)').argParser(percentOption('--derate')).default(DEFAULT_SHUNT_DERATING, '50 %'))
+    .addOption(new Option('--derate <pct>', 'share of the rating the shunt may use at the hottest ambient (common practice)').argParser(boundedPercentOption('--derate', 0, 1, 'above 0 % up to 100 % of the rating, e.g. 50%', true)).default(DEFAULT_SHUNT_DERATING, '50 %'))
     .addOption(new Option('--max-loss <W>', 'largest shunt loss at the limit (default: no budget beyond the derated rating)').argParser(powerOption('--max-loss')))
     .addOption(new Option('--series <name>', `E-series of the gain and divider resistors: ${SERIES_NAMES.join(', ')}`).argParser(seriesOption('--series')).default('E96'))
     .addOption(new Option('--window <lo..hi>', 'range of the gain and divider resistors').argParser(rangeOption(parseResistance, '--window')).default({ lo: 1e3, hi: 1e6 }, '1k..1M'))
-    .addOption(new Option('--tolerance <pct>', 'tolerance of the gain and divider resistors').argParser(percentOption('--tolerance')).default(0.01, '1 %'))
+    .addOption(new Option('--tolerance <pct>', 'tolerance of the gain and divider resistors').argParser(toleranceOption('--tolerance')).default(0.01, '1 %'))
     .addOption(new Option('--rail <V>', 'amplifier supply rail').argParser(voltageOption('--rail')).default(5, '5 V'))
     .addOption(new Option('--headroom <V>', 'how close to the rail the amplifier output swings').argParser(voltageOption('--headroom')).default(0.2, '0.2 V'))
     .addOption(new Option('--vos <V>', 'largest amplifier input offset').argParser(voltageOption('--vos')).default(1e-3, '1 mV'))

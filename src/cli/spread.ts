@@ -3,7 +3,8 @@
 // the terminal report, or JSON; optionally writes the samples as CSV and the HTML review report.
 // Thin: the engine (src/analysis) computes, src/report renders; this module wires options to them. Exports the
 // pieces `design` reuses: runSpread, spreadReportJson, renderSpreadRunText, renderSpreadRunHtml, writeSpreadFiles.
-import { existsSync } from 'node:fs';
+import { existsSync, statSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
 import { Command, Option } from 'commander';
 import { analyze } from '../analysis/analyze.js';
 import type { Model } from '../analysis/model.js';
@@ -247,7 +248,13 @@ export const workersOption = (name: string): ((value: string) => number) => inte
 
 /** Refuses existing output files before the (possibly long) run, so nothing is computed for nothing. */
 export function refuseExisting(path: string | undefined, where: string, force: boolean): void {
-  if (path === undefined || force) return;
+  if (path === undefined) return;
+  const folder = dirname(resolve(path));
+  if (!existsSync(folder) || !statSync(folder).isDirectory()) {
+    throw new InputError(where, `the folder ${folder} does not exist`, 'a file path in an existing folder');
+  }
+  if (existsSync(path) && statSync(path).isDirectory()) throw new InputError(where, `${path} is a folder, not a file`, 'a file path');
+  if (force) return;
   // writeOutputFile checks again when it writes; this early check only saves a wasted run.
   if (existsSync(path)) throw new InputError(where, `${path} already exists and would be overwritten`, 'a new file name, or --force to replace it');
 }
