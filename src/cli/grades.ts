@@ -8,7 +8,8 @@ import { analyze } from '../analysis/analyze.js';
 import { gradableResistors, gradedSpec, type GradableResistor, type ResistorGrade } from '../analysis/graded-spec.js';
 import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
-import { jointYield, type JointYield } from '../analysis/trial-values.js';
+import { jointYieldAsync } from '../analysis/joint-yield-async.js';
+import type { JointYield } from '../analysis/trial-values.js';
 import { GRADES, GRADES_SOURCE, type Grade, type GradeName } from '../design/grades.js';
 import type { ResolvedDesign } from '../design/resolve.js';
 import { ImpossibleError, InputError } from '../errors.js';
@@ -122,9 +123,10 @@ async function analyzeGrade(spec: SupplySpec, choice: AnalysisChoice, label: str
   }
 }
 
-/** Joint yield of a spec over the same trials an engine run with this seed and trial count uses. */
-function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): JointYield {
-  return jointYield(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
+/** Joint yield of a spec over the same trials an engine run with this seed and trial count uses (pausing for the
+ * event loop between chunks, so Ctrl-C stops a long search at once). */
+function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): Promise<JointYield> {
+  return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
 }
 
 export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions): Promise<GradesRun> {
@@ -138,7 +140,7 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
   for (const grade of GRADES) {
     const graded = specWith(spec, parts, parts.map(() => grade));
     const result = await analyzeGrade(graded, choice, `grades ${grade.name}`);
-    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
+    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
   }
 
   // The design as it stands, mapped onto the table.
@@ -157,11 +159,11 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
   const gradeOptions: GradeOption[][] = parts.map(() => GRADES.map((g, i) => ({ name: g.name, cost: costs[g.name], tightness: i })));
   const cache = new Map<string, number>();
   const progress = createProgress({ label: 'grade search' });
-  const evaluate = (assignment: readonly number[]): number => {
+  const evaluate = async (assignment: readonly number[]): Promise<number> => {
     const key = assignment.join(',');
     const known = cache.get(key);
     if (known !== undefined) return known;
-    const y = jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false).pct / 100;
+    const y = (await jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false)).pct / 100;
     cache.set(key, y);
     progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
     return y;
@@ -183,7 +185,7 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
       mix.cost = found.cost!;
       mix.searchYieldPct = found.yield! * 100;
       const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
-      mix.verified = jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
+      mix.verified = await jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
     }
     const up = await bestSingleUpgrade({ options: gradeOptions, base, evaluate });
     designedYieldPct = up.baseYield * 100;
