@@ -86,7 +86,11 @@ export class ChunkRunner {
     return { k, outputs };
   }
 
-  /** One pass for extremes, sum and histogram (and the spec count when there is a window); one for the deviations. */
+  /**
+   * One pass for extremes, sum, histogram bin and spec count; a second for the deviations (the corrected two-pass
+   * variance needs the mean first). Each accumulator adds in trial order, as the separate reference functions do
+   * (chunkMoments, countInto), so the results are bit-identical to them (a test checks it).
+   */
   private reduce(o: number, x: Float64Array, n: number, counts: Uint32Array): OutputChunk {
     const { config } = this;
     const spec = config.specs[o];
@@ -94,30 +98,23 @@ export class ChunkRunner {
     const lo = config.ranges[o]!.lo;
     const scale = bins / (config.ranges[o]!.hi - lo);
     const above = bins + 1;
+    // Without a window every trial counts as in spec (the loop's count is then replaced by n).
+    const specLo = spec ? spec[0] : -Infinity;
+    const specHi = spec ? spec[1] : Infinity;
     let min = Infinity;
     let max = -Infinity;
     let sum = 0;
+    let inSpec = 0;
     for (let j = 0; j < n; j++) {
       const v = x[j]!;
       min = Math.min(min, v);
       max = Math.max(max, v);
       sum += v;
-    }
-    for (let j = 0; j < n; j++) {
-      const b = Math.floor((x[j]! - lo) * scale);
+      const b = Math.floor((v - lo) * scale);
       counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
+      inSpec += v >= specLo && v <= specHi ? 1 : 0;
     }
-    let inSpec = 0;
-    if (spec) {
-      const specLo = spec[0];
-      const specHi = spec[1];
-      for (let j = 0; j < n; j++) {
-        const v = x[j]!;
-        if (v >= specLo && v <= specHi) inSpec++;
-      }
-    } else {
-      inSpec = n;
-    }
+    if (!spec) inSpec = n;
     // A NaN or an infinity makes the sum non-finite; only then count them (the run then fails loudly).
     let nonFinite = 0;
     if (!Number.isFinite(sum)) for (let j = 0; j < n; j++) if (!Number.isFinite(x[j]!)) nonFinite++;
