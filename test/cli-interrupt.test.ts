@@ -1,0 +1,92 @@
+// Files and runs as a user meets them: a real subprocess of the built CLI sent SIGINT mid-run stops (exit 130, the
+// shells' 128 + 2 convention), leaves no temporary or partial output file, and says so in one line; output files are
+// never replaced without --force, and with it are replaced whole, through a temporary file that does not linger.
+import { spawn, spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { PROJECT_ROOT } from '../src/project-root.js';
+
+const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
+const CHARGER = join(PROJECT_ROOT, 'examples', 'charger-2s-liion.json');
+
+interface Ended {
+  code: number | null;
+  signal: NodeJS.Signals | null;
+  stdout: string;
+  stderr: string;
+}
+
+/** Starts the CLI, sends SIGINT once it has run `afterMs`, and resolves when it ends. */
+function interruptAfter(args: string[], cwd: string, afterMs: number): Promise<Ended & { secondsToStop: number }> {
+  return new Promise((done) => {
+    const child = spawn(process.execPath, [MAIN, ...args], { cwd });
+    let stdout = '';
+    let stderr = '';
+    let sentAt = 0;
+    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+    const timer = setTimeout(() => {
+      sentAt = performance.now();
+      child.kill('SIGINT');
+    }, afterMs);
+    child.on('close', (code, signal) => {
+      clearTimeout(timer);
+      done({ code, signal, stdout, stderr, secondsToStop: sentAt === 0 ? -1 : (performance.now() - sentAt) / 1000 });
+    });
+  });
+}
+
+describe('Ctrl-C during a long run (subprocess sent SIGINT)', { timeout: 120_000 }, () => {
+  // 1e9 trials take minutes, so each run is certainly mid-way when the signal comes 1.5 s after the start.
+  const cases: Array<[string, string[]]> = [
+    ['spread on worker threads, writing a report and a CSV', ['spread', CHARGER, '--trials', '1e9', '--report', 'out.html', '--samples', 'out.csv']],
+    ['spread on the calling thread (--workers 1)', ['spread', CHARGER, '--trials', '1e9', '--workers', '1', '--report', 'out.html']],
+    ['design (spread, then grades), writing a report', ['design', CHARGER, '--trials', '1e9', '--report', 'out.html']],
+    ['grades in its grade search (joint yields on the calling thread)', ['grades', CHARGER, '--trials', '1000', '--search-trials', '10000000']],
+  ];
+  for (const [name, args] of cases) {
+    it(`${name}: exit 130, one line on stderr, nothing on stdout, no file left in the folder`, async () => {
+      const dir = mkdtempSync(join(tmpdir(), 'trimfree-int-'));
+      const ended = await interruptAfter(args, dir, 1500);
+      expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
+      expect(ended.code, ended.stderr).toBe(130);
+      expect(ended.stdout).toBe('');
+      expect(ended.stderr.trim()).toMatch(/^trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
+      expect(readdirSync(dir), 'no output, partial or temporary file').toEqual([]);
+      // It stops when asked, not after the run: a generous bound for a loaded two-core machine (the runs asked
+      // for take minutes).
+      expect(ended.secondsToStop).toBeGreaterThanOrEqual(0);
+      expect(ended.secondsToStop).toBeLessThan(15);
+    });
+  }
+});
+
+describe('output files are never overwritten without --force', { timeout: 120_000 }, () => {
+  const writers: Array<[string, (path: string) => string[]]> = [
+    ['init --out', (path) => ['init', '--kind', 'charger', '--out', path]],
+    ['schema --out', (path) => ['schema', '--out', path]],
+    ['spread --report', (path) => ['spread', CHARGER, '--trials', '2000', '--report', path]],
+    ['spread --samples', (path) => ['spread', CHARGER, '--trials', '2000', '--samples', path]],
+    ['design --report', (path) => ['design', CHARGER, '--trials', '2000', '--no-grades', '--report', path]],
+  ];
+  for (const [name, argsFor] of writers) {
+    it(`${name}: refused (exit 2, names the option and --force), file untouched; with --force replaced whole, no temporary left`, () => {
+      const dir = mkdtempSync(join(tmpdir(), 'trimfree-ow-'));
+      const path = join(dir, 'existing.out');
+      writeFileSync(path, 'the user\'s own file\n');
+      const refused = spawnSync(process.execPath, [MAIN, ...argsFor(path)], { encoding: 'utf8' });
+      expect(refused.status).toBe(2);
+      expect(refused.stderr).toMatch(/^trimfree: --(out|report|samples): .*already exists and would be overwritten; accepted: a new file name, or --force to replace it\n$/);
+      expect(readFileSync(path, 'utf8')).toBe('the user\'s own file\n');
+
+      const forced = spawnSync(process.execPath, [MAIN, ...argsFor(path), '--force'], { encoding: 'utf8' });
+      expect(forced.status, forced.stderr).toBe(0);
+      const text = readFileSync(path, 'utf8');
+      expect(text).not.toBe('the user\'s own file\n');
+      expect(text.length).toBeGreaterThan(100);
+      expect(readdirSync(dir)).toEqual(['existing.out']);
+    });
+  }
+});
