@@ -8,7 +8,7 @@
 // Variance about c (mean c by symmetry): σ²·[1 + (a·φ(a) − b·φ(b))/(Φ(b) − Φ(a))] with a = I/σ, b = W/σ
 // (second moment of a normal truncated to [a, b]; Johnson, Kotz & Balakrishnan §10.1).
 import type { UniformSource } from '../uniform-source.js';
-import { inverseNormalCdf, normalCdf, normalPdf } from './normal.js';
+import { normalCdf, normalPdf, normalQuantilesInPlace } from './normal.js';
 
 export function fillBinned(out: Float64Array, n: number, center: number, sigma: number, inner: number, outer: number, random: UniformSource): void {
   for (let j = 0; j < n; j++) out[j] = random();
@@ -26,8 +26,11 @@ export function binnedFromUnit(buf: Float64Array, n: number, center: number, sig
   const hi = center + outer;
   for (let j = 0; j < n; j++) {
     const v = 2 * pieceMass * buf[j]!;
-    const u = v < pieceMass ? lowStart + v : highStart + (v - pieceMass);
-    const x = center + sigma * inverseNormalCdf(u);
+    buf[j] = v < pieceMass ? lowStart + v : highStart + (v - pieceMass);
+  }
+  normalQuantilesInPlace(buf, n, center, sigma);
+  for (let j = 0; j < n; j++) {
+    const x = buf[j]!;
     buf[j] = x < lo ? lo : x > hi ? hi : x;
   }
 }

@@ -78,9 +78,41 @@ export function normalPdf(z: number): number {
 /** Default coverage factor: a tolerance band's half-width is 3σ (common practice for resistor production). */
 export const DEFAULT_K = 3;
 
+// Scratch for normalQuantilesInPlace: the positions and uniforms of the tail draws (grown, never shrunk).
+let tailIndex = new Int32Array(0);
+let tailUniform = new Float64Array(0);
+
+/**
+ * In place: buf[j] = μ + σ·Φ⁻¹(buf[j]) for j < n, bit-identical to calling inverseNormalCdf draw by draw (a test
+ * checks it). The fast path: every value goes through the central rational function in one branch-free loop (for
+ * a tail value the result is discarded), and the tail draws (about 4.85 % of uniform draws) are noted and redone
+ * with the full function afterwards. A branch inside the loop, mispredicted at random about one draw in ten, made
+ * the plain loop about twice as slow here.
+ */
+export function normalQuantilesInPlace(buf: Float64Array, n: number, mean: number, sigma: number): void {
+  if (tailIndex.length < n) {
+    tailIndex = new Int32Array(n);
+    tailUniform = new Float64Array(n);
+  }
+  const index = tailIndex;
+  const saved = tailUniform;
+  let tails = 0;
+  for (let j = 0; j < n; j++) {
+    const u = buf[j]!;
+    index[tails] = j;
+    saved[tails] = u;
+    // The central region of inverseNormalCdf is P_LOW ≤ u ≤ P_HIGH (u ≤ 0 is a tail there too).
+    tails += (u < P_LOW ? 1 : 0) | (u > P_HIGH ? 1 : 0);
+    const q = u - 0.5;
+    const r = q * q;
+    buf[j] = mean + sigma * (((((((A1 * r + A2) * r + A3) * r + A4) * r + A5) * r + A6) * q) / (((((B1 * r + B2) * r + B3) * r + B4) * r + B5) * r + 1));
+  }
+  for (let t = 0; t < tails; t++) buf[index[t]!] = mean + sigma * inverseNormalCdf(saved[t]!);
+}
+
 /** In place: uniforms u in [0, 1) → μ + σ·Φ⁻¹(u). */
 export function normalFromUnit(buf: Float64Array, n: number, mean: number, sigma: number): void {
-  for (let j = 0; j < n; j++) buf[j] = mean + sigma * inverseNormalCdf(buf[j]!);
+  normalQuantilesInPlace(buf, n, mean, sigma);
 }
 
 export function fillNormal(out: Float64Array, n: number, mean: number, sigma: number, random: UniformSource): void {

@@ -3,15 +3,17 @@
 // 2nd ed., §10.1): with α = (lo−μ)/σ, β = (hi−μ)/σ, Z = Φ(β) − Φ(α),
 //   mean = μ + σ·(φ(α) − φ(β))/Z,   var = σ²·[1 + (α·φ(α) − β·φ(β))/Z − ((φ(α) − φ(β))/Z)²].
 import type { UniformSource } from '../uniform-source.js';
-import { inverseNormalCdf, normalCdf, normalPdf } from './normal.js';
+import { normalCdf, normalPdf, normalQuantilesInPlace } from './normal.js';
 
 /** In place: uniforms u in [0, 1) → μ + σ·Φ⁻¹(Φ(α) + u·(Φ(β) − Φ(α))), kept inside [lo, hi]. */
 export function truncatedNormalFromUnit(buf: Float64Array, n: number, mean: number, sigma: number, lo: number, hi: number): void {
   const pLo = normalCdf((lo - mean) / sigma);
   const span = normalCdf((hi - mean) / sigma) - pLo;
+  for (let j = 0; j < n; j++) buf[j] = pLo + span * buf[j]!;
+  normalQuantilesInPlace(buf, n, mean, sigma);
+  // The two approximations (Φ and Φ⁻¹) can land a hair outside the band; clamp to keep the cut-off exact.
   for (let j = 0; j < n; j++) {
-    const x = mean + sigma * inverseNormalCdf(pLo + span * buf[j]!);
-    // The two approximations (Φ and Φ⁻¹) can land a hair outside the band; clamp to keep the cut-off exact.
+    const x = buf[j]!;
     buf[j] = x < lo ? lo : x > hi ? hi : x;
   }
 }
