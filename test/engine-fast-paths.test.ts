@@ -3,6 +3,14 @@
 // one draw or one trial at a time, straight from the formulas named beside each.
 import { describe, expect, it } from 'vitest';
 import { chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
+import { buildSupplyModel, hotShunt, type SupplySpec } from '../src/analysis/models/supply.js';
+import { BENCH_SUPPLY } from '../src/bench/cvcc-spec.js';
+import { parallelResistance, seriesResistance } from '../src/circuits/combine.js';
+import { dividerVout } from '../src/circuits/divider.js';
+import { diffLimit, diffOutput } from '../src/circuits/sense/diff.js';
+import { directLimit, directSignal } from '../src/circuits/sense/direct.js';
+import { noninvLimit, noninvOutput } from '../src/circuits/sense/noninv.js';
+import { partFromUnit } from '../src/tolerance/sample.js';
 import { binnedFromUnit } from '../src/tolerance/distributions/binned.js';
 import { inverseNormalCdf, normalCdf, normalQuantilesInPlace } from '../src/tolerance/distributions/normal.js';
 import { truncatedNormalFromUnit } from '../src/tolerance/distributions/truncated-normal.js';
@@ -68,4 +76,158 @@ describe('normal draws: the two-pass Φ⁻¹ loop equals Acklam’s function dra
     });
     expect(sameBits(fast, reference)).toBe(0);
   });
+});
+
+// ---------------------------------------------------------------------------------------------------------------
+// The supply model's column-by-column block evaluation against a plain per-trial reference: one trial at a time,
+// each value read by part name and built by the formulas in src/analysis/models/supply.ts's header (resistor at
+// temperature R·(1 + drift)·(1 + α·ΔT), legs, reference, threshold, offsets) and the circuit functions of
+// src/circuits, with self-heating by the closed form hotShunt. Same operations in the same order, so equal bits.
+
+function resistorAt(v: (name: string) => number | undefined, name: string, dT: number): number {
+  let r = v(name)!;
+  const drift = v(`${name} drift`);
+  const tcr = v(`${name} TCR`);
+  if (drift !== undefined) r *= 1 + drift;
+  if (tcr !== undefined) r *= 1 + tcr * dT;
+  return r;
+}
+
+function referenceAt(v: (name: string) => number | undefined, name: string, dT: number): number {
+  let r = v(name)!;
+  const drift = v(`${name} drift`);
+  const tempco = v(`${name} tempco`);
+  if (drift !== undefined) r *= 1 + drift;
+  if (tempco !== undefined) r *= 1 + tempco * dT;
+  return r;
+}
+
+function legAt(v: (name: string) => number | undefined, leg: SupplySpec['divider']['top'], dT: number): number {
+  let r = resistorAt(v, leg.resistors[0].name, dT);
+  if (leg.resistors[1]) {
+    const b = resistorAt(v, leg.resistors[1].name, dT);
+    r = leg.arrangement === 'parallel' ? parallelResistance(r, b) : seriesResistance(r, b);
+  }
+  if (leg.potentiometer) r += leg.potentiometer.wiper * resistorAt(v, leg.potentiometer.name, dT);
+  return r;
+}
+
+/** Every output of one trial, in OUTPUT_NAMES order. */
+function referenceTrial(spec: SupplySpec, v: (name: string) => number | undefined): number[] {
+  const dT = v('T ambient')! - 25;
+  const vref = referenceAt(v, 'Vref', dT);
+  const rBottom = legAt(v, spec.divider.bottom, dT);
+  const out = [dividerVout(vref, legAt(v, spec.divider.top, dT), rBottom, v('Ifb') ?? 0), vref / rBottom];
+  const sense = spec.sense;
+  if (!sense) return out;
+  const th = sense.threshold;
+  let threshold: number;
+  if (th.kind === 'fixed') {
+    threshold = v('Vth')!;
+    const tempco = v('Vth tempco');
+    if (tempco !== undefined) threshold *= 1 + tempco * dT;
+  } else {
+    const source = th.source === 'regulator-reference' ? vref : referenceAt(v, 'Vref threshold', dT);
+    const rt = resistorAt(v, th.top.name, dT);
+    const rb = resistorAt(v, th.bottom.name, dT);
+    threshold = (source * rb) / (rt + rb);
+  }
+  const q = { shunt: 0, feedback: 0, ground: 0, r1: 0, r2: 0, r3: 0, r4: 0, commonMode: 0, threshold, amplifierOffset: 0, biasCurrent: 0, compareOffset: v('Vos cmp') ?? 0 };
+  if (sense.topology !== 'direct') {
+    q.amplifierOffset = v('Vos amp')! + (v('Vos amp drift') !== undefined ? v('Vos amp drift')! * dT : 0);
+    q.biasCurrent = v('Ib amp') ?? 0;
+  }
+  if (sense.topology === 'noninv') {
+    q.feedback = resistorAt(v, sense.rf.name, dT);
+    q.ground = resistorAt(v, sense.rg.name, dT);
+  } else if (sense.topology === 'diff') {
+    [q.r1, q.r2, q.r3, q.r4] = [sense.r1, sense.r2, sense.r3, sense.r4].map((r) => resistorAt(v, r.name, dT)) as [number, number, number, number];
+    q.commonMode = sense.commonModeV;
+  }
+  const limit = sense.topology === 'noninv' ? noninvLimit : sense.topology === 'diff' ? diffLimit : directLimit;
+  const signal = sense.topology === 'noninv' ? noninvOutput : sense.topology === 'diff' ? diffOutput : directSignal;
+  const rAmbient = resistorAt(v, sense.shunt.name, dT);
+  q.shunt = rAmbient;
+  let current = limit(q);
+  const alpha = v(`${sense.shunt.name} TCR`);
+  const theta = sense.shunt.thermalResistanceKPerW ?? 0;
+  if (theta > 0 && alpha !== undefined) {
+    q.shunt = hotShunt(rAmbient, alpha, theta, current * rAmbient);
+    current = limit(q);
+  }
+  return [...out, current, current * current * q.shunt, signal(q, current)];
+}
+
+const DIFF_HIGH_SIDE: SupplySpec = {
+  reference: { nominal: 0.8, tolerance: 0.015, tempcoPerK: 30e-6, drift: 0.002 },
+  divider: {
+    top: { resistors: [{ name: 'R1', nominal: 200e3, tolerance: 0.01, tcrPerK: 100e-6, drift: 0.001 }, { name: 'R1B', nominal: 1e6, tolerance: 0.05 }], arrangement: 'parallel' },
+    bottom: { resistors: [{ name: 'R2', nominal: 10e3, tolerance: 0.01 }, { name: 'R2B', nominal: 100, tolerance: 0.05 }], arrangement: 'series', potentiometer: { name: 'VR1', nominal: 5e3, tolerance: 0.2, wiper: 0.3, tcrPerK: 1e-4 } },
+    feedbackBias: { nominal: 10e-9, plusMinus: 40e-9 },
+  },
+  temperature: { minC: -20, maxC: 60, monteCarlo: 'uniform' },
+  sense: {
+    topology: 'diff',
+    shunt: { name: 'RS', nominal: 0.1, tolerance: 0.01, tcrPerK: 200e-6, thermalResistanceKPerW: 80 },
+    r1: { name: 'R3', nominal: 1e3, tolerance: 0.01, tcrPerK: 25e-6 },
+    r2: { name: 'R4', nominal: 10e3, tolerance: 0.01 },
+    r3: { name: 'R5', nominal: 1e3, tolerance: 0.01 },
+    r4: { name: 'R6', nominal: 10e3, tolerance: 0.01 },
+    commonModeV: 24,
+    amplifier: { offsetMax: 0.5e-3, offsetDriftPerK: 5e-6, biasCurrent: { nominal: 0, plusMinus: 50e-9 } },
+    threshold: { kind: 'divided', source: 'regulator-reference', top: { name: 'R7', nominal: 3e3, tolerance: 0.01 }, bottom: { name: 'R8', nominal: 12e3, tolerance: 0.01 } },
+    compareOffset: { nominal: 0, plusMinus: 1e-3 },
+    limitTarget: 0.64,
+  },
+};
+
+const DIRECT_SEPARATE_REFERENCE: SupplySpec = {
+  reference: { nominal: 0.6, tolerance: 0.01 },
+  divider: { top: { resistors: [{ name: 'R1', nominal: 100e3, tolerance: 0.01 }] }, bottom: { resistors: [{ name: 'R2', nominal: 10e3, tolerance: 0.01 }] } },
+  temperature: { minC: 0, maxC: 40, monteCarlo: { fixedC: 30 } },
+  sense: {
+    topology: 'direct',
+    shunt: { name: 'RS', nominal: 0.05, tolerance: 0.01, drift: 0.005 },
+    threshold: { kind: 'divided', source: { nominal: 2.5, tolerance: 0.005, tempcoPerK: 20e-6 }, top: { name: 'R7', nominal: 22e3, tolerance: 0.01, tcrPerK: 50e-6 }, bottom: { name: 'R8', nominal: 1e3, tolerance: 0.01 } },
+    limitTarget: 2,
+  },
+};
+
+describe('supply model: the block evaluation equals a plain per-trial reference, bit for bit', () => {
+  const cases: Array<[string, SupplySpec]> = [
+    ['noninv with self-heating (the benchmark design)', BENCH_SUPPLY],
+    ['diff, high side, divided threshold from the regulator reference, parallel and series legs with a pot', DIFF_HIGH_SIDE],
+    ['direct, threshold divided from its own reference, fixed temperature, shunt drift', DIRECT_SEPARATE_REFERENCE],
+    ['divider only', { ...BENCH_SUPPLY, sense: undefined } as unknown as SupplySpec],
+  ];
+  for (const [name, spec] of cases) {
+    it(name, () => {
+      const model = buildSupplyModel(spec);
+      const n = 5000;
+      const state = chunkState('supply', 3);
+      const p = model.parts.map((part) => {
+        const column = new Float64Array(n);
+        fillXor128(state, column, n);
+        partFromUnit(part, column, n);
+        return column;
+      });
+      const outs = model.outputs.map(() => new Float64Array(n));
+      // Twice: the second block reuses the model's scratch columns.
+      model.evaluateAll!(p, outs, n);
+      model.evaluateAll!(p, outs, n);
+      const index = new Map(model.parts.map((part, i) => [part.name, i]));
+      let differ = 0;
+      let nonFinite = 0;
+      for (let j = 0; j < n; j++) {
+        const expected = referenceTrial(spec, (partName) => (index.has(partName) ? p[index.get(partName)!]![j]! : undefined));
+        expect(expected.length).toBe(model.outputs.length);
+        expected.forEach((value, o) => {
+          if (!Object.is(outs[o]![j], value)) differ++;
+          if (!Number.isFinite(value)) nonFinite++;
+        });
+      }
+      expect(differ).toBe(0);
+      expect(nonFinite).toBe(0);
+    });
+  }
 });

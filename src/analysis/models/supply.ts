@@ -238,79 +238,91 @@ function addReference(list: PartList, ref: ReferenceSpec, defaultName: string, w
 }
 
 // ---------------------------------------------------------------------------------------------------------------
-// Per-trial values (small functions; V8 inlines them into the loops below).
+// Block evaluation, one column at a time. Each derived quantity (a resistor at its temperature, a leg, the
+// reference, the threshold) is computed for the whole block of trials in its own plain loop, into a scratch column
+// reused block after block; the outputs then read one column per value. Per trial j, with ΔT = T(j) − 25 °C:
+//   resistor   R(j)·(1 + drift(j))·(1 + α(j)·ΔT)           (factors only where the part has them)
+//   leg        a ∥ b or a + b, then + wiper·pot
+//   reference  V(j)·(1 + drift(j))·(1 + tc(j)·ΔT)
+// The operations and their order are those of the per-trial formulas, so the values are the same to the bit as a
+// trial-by-trial evaluation (test/engine-fast-paths.test.ts checks it against a plain per-trial reference).
 
-// Each evaluation first resolves the slots to the part arrays themselves (once per block of trials), so the
-// per-trial code reads one typed array per value and tests null for the optional factors.
-
-interface ResistorColumns {
-  value: Float64Array;
-  tcr: Float64Array | null;
-  drift: Float64Array | null;
+/** ΔT = T − 25 °C per trial. */
+function temperatureRise(t: Float64Array, n: number, out: Float64Array): Float64Array {
+  for (let j = 0; j < n; j++) out[j] = t[j]! - REFERENCE_TEMPERATURE_C;
+  return out;
 }
 
-interface LegColumns {
-  a: ResistorColumns;
-  b: ResistorColumns | null;
-  parallel: boolean;
-  pot: ResistorColumns | null;
-  wiper: number;
+/** Output voltage and divider current (Vref/Rbottom) per trial. */
+function dividerBlock(v: Float64Array, rTop: Float64Array, rBottom: Float64Array, bias: Float64Array | null, n: number, voutOut: Float64Array, dividerOut: Float64Array): void {
+  for (let j = 0; j < n; j++) {
+    voutOut[j] = dividerVout(v[j]!, rTop[j]!, rBottom[j]!, bias === null ? 0 : bias[j]!);
+    dividerOut[j] = v[j]! / rBottom[j]!;
+  }
 }
 
-interface ReferenceColumns {
-  value: Float64Array;
-  tempco: Float64Array | null;
-  drift: Float64Array | null;
+/** Scratch columns for one model, grown to the block length and reused (no allocation per block once warm). */
+class ScratchColumns {
+  private readonly columns: Float64Array[] = [];
+  private used = 0;
+  private n = 0;
+  /** Starts a block of n trials: every column taken before is free again. */
+  begin(n: number): void {
+    this.used = 0;
+    this.n = n;
+  }
+  take(): Float64Array {
+    let c = this.columns[this.used];
+    if (c === undefined || c.length < this.n) {
+      c = new Float64Array(this.n);
+      this.columns[this.used] = c;
+    }
+    this.used++;
+    return c;
+  }
 }
 
 function column(p: Float64Array[], index: number): Float64Array | null {
   return index === NONE ? null : p[index]!;
 }
 
-function resolveResistor(p: Float64Array[], s: ResistorSlot): ResistorColumns {
-  return { value: p[s.value]!, tcr: column(p, s.tcr), drift: column(p, s.drift) };
+/** value·(1 + drift)·(1 + coefficient·ΔT) per trial; the part's own column when neither factor exists. */
+function scaledColumn(p: Float64Array[], value: number, drift: number, coefficient: number, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  const v = p[value]!;
+  const d = column(p, drift);
+  const c = column(p, coefficient);
+  if (d === null && c === null) return v;
+  const out = scratch.take();
+  if (d !== null && c !== null) for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + d[j]!) * (1 + c[j]! * dT[j]!);
+  else if (d !== null) for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + d[j]!);
+  else for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + c![j]! * dT[j]!);
+  return out;
 }
 
-function resolveLeg(p: Float64Array[], leg: LegSlots): LegColumns {
-  return {
-    a: resolveResistor(p, leg.a),
-    b: leg.b === null ? null : resolveResistor(p, leg.b),
-    parallel: leg.parallel,
-    pot: leg.pot === null ? null : resolveResistor(p, leg.pot),
-    wiper: leg.wiper,
-  };
+function resistorColumn(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
 }
 
-function resolveReference(p: Float64Array[], s: ReferenceSlot): ReferenceColumns {
-  return { value: p[s.value]!, tempco: column(p, s.tempco), drift: column(p, s.drift) };
+function referenceColumn(p: Float64Array[], s: ReferenceSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  return scaledColumn(p, s.value, s.drift, s.tempco, dT, n, scratch);
 }
 
-function resistorAt(r: ResistorColumns, j: number, dT: number): number {
-  let v = r.value[j]!;
-  if (r.drift !== null) v *= 1 + r.drift[j]!;
-  if (r.tcr !== null) v *= 1 + r.tcr[j]! * dT;
-  return v;
-}
-
-function legAt(leg: LegColumns, j: number, dT: number): number {
-  let r = resistorAt(leg.a, j, dT);
-  if (leg.b !== null) {
-    const rb = resistorAt(leg.b, j, dT);
-    r = leg.parallel ? parallelResistance(r, rb) : seriesResistance(r, rb);
+function legColumn(p: Float64Array[], leg: LegSlots, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  const a = resistorColumn(p, leg.a, dT, n, scratch);
+  if (leg.b === null && leg.pot === null) return a;
+  const out = scratch.take();
+  if (leg.b === null) out.set(a.subarray(0, n));
+  else {
+    const b = resistorColumn(p, leg.b, dT, n, scratch);
+    if (leg.parallel) for (let j = 0; j < n; j++) out[j] = parallelResistance(a[j]!, b[j]!);
+    else for (let j = 0; j < n; j++) out[j] = seriesResistance(a[j]!, b[j]!);
   }
-  if (leg.pot !== null) r += leg.wiper * resistorAt(leg.pot, j, dT);
-  return r;
-}
-
-function referenceAt(s: ReferenceColumns, j: number, dT: number): number {
-  let v = s.value[j]!;
-  if (s.drift !== null) v *= 1 + s.drift[j]!;
-  if (s.tempco !== null) v *= 1 + s.tempco[j]! * dT;
-  return v;
-}
-
-function valueOr(c: Float64Array | null, j: number, otherwise: number): number {
-  return c === null ? otherwise : c[j]!;
+  if (leg.pot !== null) {
+    const pot = resistorColumn(p, leg.pot, dT, n, scratch);
+    const wiper = leg.wiper;
+    for (let j = 0; j < n; j++) out[j] += wiper * pot[j]!;
+  }
+  return out;
 }
 
 /** One parameter object shape for every topology, so the limit functions see a single (monomorphic) shape. */
@@ -343,15 +355,91 @@ export function hotShunt(rAmbient: number, alpha: number, theta: number, k: numb
   return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * rAmbient * alpha * theta * k * k)) / 2;
 }
 
-/** What the sense path computes for one trial. */
+const DIRECT = 0;
+const NONINV = 1;
+const DIFF = 2;
+
+/** The block's columns the sense loop reads (unused gain columns point at any column of the block). */
+interface SenseColumns {
+  threshold: Float64Array;
+  compare: Float64Array | null;
+  offset: Float64Array | null;
+  bias: Float64Array | null;
+  g0: Float64Array;
+  g1: Float64Array;
+  g2: Float64Array;
+  g3: Float64Array;
+  /** The shunt at ambient temperature. */
+  shunt: Float64Array;
+  /** The shunt's drawn TCR when it heats itself (θ > 0 and a TCR), else null. */
+  alpha: Float64Array | null;
+}
+
+/** Threshold divided from a source: source·Rb/(Rt + Rb) per trial. */
+function dividedColumn(source: Float64Array, rt: Float64Array, rb: Float64Array, n: number, out: Float64Array): Float64Array {
+  for (let j = 0; j < n; j++) out[j] = (source[j]! * rb[j]!) / (rt[j]! + rb[j]!);
+  return out;
+}
+
+/** Amplifier offset at temperature, Vos + (dVos/dT)·ΔT (+ 0 without a drift, as the per-trial form adds). */
+function offsetColumn(vos: Float64Array, drift: Float64Array | null, dT: Float64Array, n: number, out: Float64Array): Float64Array {
+  if (drift !== null) for (let j = 0; j < n; j++) out[j] = vos[j]! + drift[j]! * dT[j]!;
+  else for (let j = 0; j < n; j++) out[j] = vos[j]! + 0;
+  return out;
+}
+
+function limitOf(kind: number, q: SenseParams): number {
+  return kind === NONINV ? noninvLimit(q) : kind === DIFF ? diffLimit(q) : directLimit(q);
+}
+
+function signalOf(kind: number, q: SenseParams, current: number): number {
+  return kind === NONINV ? noninvOutput(q, current) : kind === DIFF ? diffOutput(q, current) : directSignal(q, current);
+}
+
+/**
+ * The sense path for trials 0..n−1: the limit current (found again with the shunt at its self-heated temperature
+ * when it heats itself), the shunt loss at the limit and the amplifier output there. Its own small function, so
+ * V8 optimises it whole and inlines the circuit functions (each topology's call is direct).
+ */
+function senseBlock(kind: number, q: SenseParams, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
+  const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, alpha } = c;
+  for (let j = 0; j < n; j++) {
+    q.threshold = threshold[j]!;
+    q.compareOffset = compare === null ? 0 : compare[j]!;
+    if (offset !== null) {
+      q.amplifierOffset = offset[j]!;
+      q.biasCurrent = bias === null ? 0 : bias[j]!;
+    }
+    if (kind === NONINV) {
+      q.feedback = g0[j]!;
+      q.ground = g1[j]!;
+    } else if (kind === DIFF) {
+      q.r1 = g0[j]!;
+      q.r2 = g1[j]!;
+      q.r3 = g2[j]!;
+      q.r4 = g3[j]!;
+    }
+    const rAmbient = shunt[j]!;
+    q.shunt = rAmbient;
+    let current = limitOf(kind, q);
+    if (alpha !== null) {
+      q.shunt = hotShunt(rAmbient, alpha[j]!, theta, current * rAmbient);
+      current = limitOf(kind, q);
+    }
+    limitOut[j] = current;
+    lossOut[j] = current * current * q.shunt;
+    ampOut[j] = signalOf(kind, q, current);
+  }
+}
+
+/** What the sense path computes, a block of trials at a time. */
 interface SenseEvaluator {
   /**
-   * Binds the part arrays of one block of trials; the function returned fills q for trial j, sets q.shunt to the
-   * shunt at its own temperature and returns the limit current.
+   * Fills, for trials 0..n−1, the limit current, the shunt loss at the limit (I²·R of the shunt at its own
+   * temperature) and the amplifier output at the limit (the shunt voltage, `direct`). `vref` is the regulator's
+   * reference column of this block (a threshold divided from it reuses it).
    */
-  bind(p: Float64Array[]): (q: SenseParams, j: number, dT: number) => number;
-  /** Output of the amplifier (or the shunt voltage, `direct`) at a load current. */
-  signal(q: SenseParams, current: number): number;
+  evaluate(p: Float64Array[], dT: Float64Array, vref: Float64Array, n: number, scratch: ScratchColumns, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void;
   ilimitSpec?: [number, number];
   shuntLossSpec?: [number, number];
   ampOutputSpec?: [number, number];
@@ -402,36 +490,17 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   const sense = spec.sense ? addSense(spec.sense, spec, list, vref, notes) : null;
   const count = sense ? 5 : 2;
 
-  /** Every output for trials 0..n−1 in one loop: outs in OUTPUT_NAMES order (first two only without a sense path). */
+  const scratch = new ScratchColumns();
+  /** Every output for trials 0..n−1: outs in OUTPUT_NAMES order (first two only without a sense path). */
   function evaluateAll(p: Float64Array[], outs: Float64Array[], n: number): void {
+    scratch.begin(n);
     const tp = p[temperature]!;
-    const q = newSenseParams();
-    const voutOut = outs[0]!;
-    const dividerOut = outs[1]!;
-    const vrefColumns = resolveReference(p, vref);
-    const topColumns = resolveLeg(p, top);
-    const bottomColumns = resolveLeg(p, bottom);
-    const ifbColumn = column(p, ifb);
-    for (let j = 0; j < n; j++) {
-      const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-      const v = referenceAt(vrefColumns, j, dT);
-      const rBottom = legAt(bottomColumns, j, dT);
-      voutOut[j] = dividerVout(v, legAt(topColumns, j, dT), rBottom, valueOr(ifbColumn, j, 0));
-      dividerOut[j] = v / rBottom;
-    }
-    if (sense) {
-      const limitOut = outs[2]!;
-      const lossOut = outs[3]!;
-      const ampOut = outs[4]!;
-      const limitAt = sense.bind(p);
-      for (let j = 0; j < n; j++) {
-        const dT = tp[j]! - REFERENCE_TEMPERATURE_C;
-        const current = limitAt(q, j, dT);
-        limitOut[j] = current;
-        lossOut[j] = current * current * q.shunt;
-        ampOut[j] = sense.signal(q, current);
-      }
-    }
+    const dT = temperatureRise(tp, n, scratch.take());
+    const v = referenceColumn(p, vref, dT, n, scratch);
+    const rTop = legColumn(p, top, dT, n, scratch);
+    const rBottom = legColumn(p, bottom, dT, n, scratch);
+    dividerBlock(v, rTop, rBottom, column(p, ifb), n, outs[0]!, outs[1]!);
+    if (sense) sense.evaluate(p, dT, v, n, scratch, outs[2]!, outs[3]!, outs[4]!);
   }
 
   const outputs: ModelOutput[] = OUTPUT_NAMES.slice(0, count).map((name, o) => {
@@ -518,61 +587,38 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   }
 
   const topology = sense.topology;
-  const limitOf: (q: SenseParams) => number = topology === 'direct' ? directLimit : topology === 'noninv' ? noninvLimit : diffLimit;
-  const signalOf: (q: SenseParams, current: number) => number =
-    topology === 'direct' ? directSignal : topology === 'noninv' ? noninvOutput : diffOutput;
-
   const selfHeating = theta > 0 && shunt.tcr !== NONE;
   if (theta > 0 && alphaMax === 0) notes.push('Shunt has a thermal resistance but no TCR: self-heating changes its loss, not its value.');
 
+  const kind = topology === 'noninv' ? NONINV : topology === 'diff' ? DIFF : DIRECT;
+  // One parameter object per model, reused for every trial (its fields are overwritten before each use).
+  const q = newSenseParams();
+  q.commonMode = commonMode;
   const evaluator: SenseEvaluator = {
-    bind(p) {
-      const threshold = column(p, thFixed);
-      const thresholdTempco = column(p, thTempco);
-      const source = thSource === null ? null : resolveReference(p, thSource);
-      const dividerTop = thTop === null ? null : resolveResistor(p, thTop);
-      const dividerBottom = thBottom === null ? null : resolveResistor(p, thBottom);
-      const compare = column(p, compareOffset);
-      const offset = column(p, ampOffset);
-      const drift = column(p, ampDrift);
-      const bias = column(p, ampBias);
-      const g = gain.map((slot) => resolveResistor(p, slot));
-      const shuntColumns = resolveResistor(p, shunt);
-      const alpha = shuntColumns.tcr;
-      return (q, j, dT) => {
-        if (threshold !== null) {
-          let v = threshold[j]!;
-          if (thresholdTempco !== null) v *= 1 + thresholdTempco[j]! * dT;
-          q.threshold = v;
-        } else {
-          const rt = resistorAt(dividerTop!, j, dT);
-          const rb = resistorAt(dividerBottom!, j, dT);
-          q.threshold = (referenceAt(source!, j, dT) * rb) / (rt + rb);
-        }
-        q.compareOffset = valueOr(compare, j, 0);
-        if (offset !== null) {
-          q.amplifierOffset = offset[j]! + (drift !== null ? drift[j]! * dT : 0);
-          q.biasCurrent = valueOr(bias, j, 0);
-        }
-        if (topology === 'noninv') {
-          q.feedback = resistorAt(g[0]!, j, dT);
-          q.ground = resistorAt(g[1]!, j, dT);
-        } else if (topology === 'diff') {
-          q.r1 = resistorAt(g[0]!, j, dT);
-          q.r2 = resistorAt(g[1]!, j, dT);
-          q.r3 = resistorAt(g[2]!, j, dT);
-          q.r4 = resistorAt(g[3]!, j, dT);
-          q.commonMode = commonMode;
-        }
-        const rAmbient = resistorAt(shuntColumns, j, dT);
-        q.shunt = rAmbient;
-        const current = limitOf(q);
-        if (!selfHeating) return current;
-        q.shunt = hotShunt(rAmbient, alpha![j]!, theta, current * rAmbient);
-        return limitOf(q);
+    evaluate(p, dT, vref, n, scratch, limitOut, lossOut, ampOut) {
+      // Threshold: fixed (with its tempco), or divided from a reference: source·Rb/(Rt + Rb).
+      let threshold: Float64Array;
+      if (thFixed !== NONE) threshold = scaledColumn(p, thFixed, NONE, thTempco, dT, n, scratch);
+      else {
+        const source = thSource === regulatorReference ? vref : referenceColumn(p, thSource!, dT, n, scratch);
+        threshold = dividedColumn(source, resistorColumn(p, thTop!, dT, n, scratch), resistorColumn(p, thBottom!, dT, n, scratch), n, scratch.take());
+      }
+      const offset = ampOffset === NONE ? null : offsetColumn(p[ampOffset]!, column(p, ampDrift), dT, n, scratch.take());
+      const g = gain.map((slot) => resistorColumn(p, slot, dT, n, scratch));
+      const columns: SenseColumns = {
+        threshold,
+        compare: column(p, compareOffset),
+        offset,
+        bias: column(p, ampBias),
+        g0: g[0] ?? dT,
+        g1: g[1] ?? dT,
+        g2: g[2] ?? dT,
+        g3: g[3] ?? dT,
+        shunt: resistorColumn(p, shunt, dT, n, scratch),
+        alpha: selfHeating ? p[shunt.tcr]! : null,
       };
+      senseBlock(kind, q, columns, theta, n, limitOut, lossOut, ampOut);
     },
-    signal: signalOf,
   };
   if (spec.windows?.ilimit) evaluator.ilimitSpec = spec.windows.ilimit;
   if (sense.shunt.powerRatingW !== undefined) {
