@@ -55,6 +55,8 @@ export class ChunkRunner {
   /** With `reuse`, the counts buffer is reused for every chunk: only for a caller that consumes each summary
    *  before asking for the next (the in-thread run), never when summaries are transferred to another thread. */
   private counts: Uint32Array | null = null;
+  /** The passes' results (min, max, sum, in-spec count; then Σd², Σd). */
+  private readonly scan = new Float64Array(4);
 
   constructor(
     private readonly model: Model,
@@ -94,39 +96,21 @@ export class ChunkRunner {
   private reduce(o: number, x: Float64Array, n: number, counts: Uint32Array): OutputChunk {
     const { config } = this;
     const spec = config.specs[o];
-    const bins = config.bins;
     const lo = config.ranges[o]!.lo;
-    const scale = bins / (config.ranges[o]!.hi - lo);
-    const above = bins + 1;
+    const scan = this.scan;
     // Without a window every trial counts as in spec (the loop's count is then replaced by n).
-    const specLo = spec ? spec[0] : -Infinity;
-    const specHi = spec ? spec[1] : Infinity;
-    let min = Infinity;
-    let max = -Infinity;
-    let sum = 0;
-    let inSpec = 0;
-    for (let j = 0; j < n; j++) {
-      const v = x[j]!;
-      min = Math.min(min, v);
-      max = Math.max(max, v);
-      sum += v;
-      const b = Math.floor((v - lo) * scale);
-      counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
-      inSpec += v >= specLo && v <= specHi ? 1 : 0;
-    }
-    if (!spec) inSpec = n;
+    scanPass(x, n, lo, config.bins / (config.ranges[o]!.hi - lo), config.bins, counts, spec ? spec[0] : -Infinity, spec ? spec[1] : Infinity, scan);
+    const min = scan[0]!;
+    const max = scan[1]!;
+    const sum = scan[2]!;
+    const inSpec = spec ? scan[3]! : n;
     // A NaN or an infinity makes the sum non-finite; only then count them (the run then fails loudly).
-    let nonFinite = 0;
-    if (!Number.isFinite(sum)) for (let j = 0; j < n; j++) if (!Number.isFinite(x[j]!)) nonFinite++;
+    const nonFinite = Number.isFinite(sum) ? 0 : countNonFinite(x, n);
     // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
     const mean = n > 0 ? sum / n : 0;
-    let sq = 0;
-    let dev = 0;
-    for (let j = 0; j < n; j++) {
-      const d = x[j]! - mean;
-      sq += d * d;
-      dev += d;
-    }
+    deviationPass(x, n, mean, scan);
+    const sq = scan[0]!;
+    const dev = scan[1]!;
     const m2 = n > 0 ? Math.max(0, sq - (dev * dev) / n) : 0;
     let low95 = NaN;
     let high95 = NaN;
@@ -137,4 +121,48 @@ export class ChunkRunner {
     const samples = config.keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
     return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95 };
   }
+}
+
+// The passes of the reduction, each a function of its own: V8 compiles a long first loop on the fly (on-stack
+// replacement), and code after such a loop in the same function was found to deoptimise on every chunk.
+
+/** min, max, sum (in trial order), histogram counts and the count inside [specLo, specHi] into out[0..3]. */
+function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: number, counts: Uint32Array, specLo: number, specHi: number, out: Float64Array): void {
+  const above = bins + 1;
+  let min = Infinity;
+  let max = -Infinity;
+  let sum = 0;
+  let inSpec = 0;
+  for (let j = 0; j < n; j++) {
+    const v = x[j]!;
+    min = Math.min(min, v);
+    max = Math.max(max, v);
+    sum += v;
+    const b = Math.floor((v - lo) * scale);
+    counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
+    inSpec += v >= specLo && v <= specHi ? 1 : 0;
+  }
+  out[0] = min;
+  out[1] = max;
+  out[2] = sum;
+  out[3] = inSpec;
+}
+
+/** Σ(x − mean)² and Σ(x − mean), in trial order, into out[0..1]. */
+function deviationPass(x: Float64Array, n: number, mean: number, out: Float64Array): void {
+  let sq = 0;
+  let dev = 0;
+  for (let j = 0; j < n; j++) {
+    const d = x[j]! - mean;
+    sq += d * d;
+    dev += d;
+  }
+  out[0] = sq;
+  out[1] = dev;
+}
+
+function countNonFinite(x: Float64Array, n: number): number {
+  let count = 0;
+  for (let j = 0; j < n; j++) if (!Number.isFinite(x[j]!)) count++;
+  return count;
 }

@@ -8,7 +8,7 @@
 // Variance about c (mean c by symmetry): σ²·[1 + (a·φ(a) − b·φ(b))/(Φ(b) − Φ(a))] with a = I/σ, b = W/σ
 // (second moment of a normal truncated to [a, b]; Johnson, Kotz & Balakrishnan §10.1).
 import type { UniformSource } from '../uniform-source.js';
-import { normalCdf, normalPdf, normalQuantilesInPlace } from './normal.js';
+import { clampInPlace, normalCdf, normalPdf, normalQuantilesInPlace } from './normal.js';
 
 export function fillBinned(out: Float64Array, n: number, center: number, sigma: number, inner: number, outer: number, random: UniformSource): void {
   for (let j = 0; j < n; j++) out[j] = random();
@@ -24,14 +24,16 @@ export function binnedFromUnit(buf: Float64Array, n: number, center: number, sig
   const highStart = normalCdf(a);
   const lo = center - outer;
   const hi = center + outer;
+  probabilities(buf, n, lowStart, pieceMass, highStart);
+  normalQuantilesInPlace(buf, n, center, sigma);
+  clampInPlace(buf, n, lo, hi);
+}
+
+/** u → the probability on the low or the high piece, in place (its own function: see normalQuantilesInPlace). */
+function probabilities(buf: Float64Array, n: number, lowStart: number, pieceMass: number, highStart: number): void {
   for (let j = 0; j < n; j++) {
     const v = 2 * pieceMass * buf[j]!;
     buf[j] = v < pieceMass ? lowStart + v : highStart + (v - pieceMass);
-  }
-  normalQuantilesInPlace(buf, n, center, sigma);
-  for (let j = 0; j < n; j++) {
-    const x = buf[j]!;
-    buf[j] = x < lo ? lo : x > hi ? hi : x;
   }
 }
 

@@ -87,15 +87,20 @@ let tailUniform = new Float64Array(0);
  * checks it). The fast path: every value goes through the central rational function in one branch-free loop (for
  * a tail value the result is discarded), and the tail draws (about 4.85 % of uniform draws) are noted and redone
  * with the full function afterwards. A branch inside the loop, mispredicted at random about one draw in ten, made
- * the plain loop about twice as slow here.
+ * the plain loop about twice as slow here. Each loop is its own function: V8 compiles a long first loop on the fly
+ * (on-stack replacement), and code after such a loop in the same function was found to deoptimise on every call.
  */
 export function normalQuantilesInPlace(buf: Float64Array, n: number, mean: number, sigma: number): void {
   if (tailIndex.length < n) {
     tailIndex = new Int32Array(n);
     tailUniform = new Float64Array(n);
   }
-  const index = tailIndex;
-  const saved = tailUniform;
+  const tails = centralPass(buf, n, mean, sigma, tailIndex, tailUniform);
+  tailPass(buf, tails, mean, sigma, tailIndex, tailUniform);
+}
+
+/** μ + σ·(Acklam's central rational function) for every value; returns how many were tails (noted in index/saved). */
+function centralPass(buf: Float64Array, n: number, mean: number, sigma: number, index: Int32Array, saved: Float64Array): number {
   let tails = 0;
   for (let j = 0; j < n; j++) {
     const u = buf[j]!;
@@ -107,7 +112,19 @@ export function normalQuantilesInPlace(buf: Float64Array, n: number, mean: numbe
     const r = q * q;
     buf[j] = mean + sigma * (((((((A1 * r + A2) * r + A3) * r + A4) * r + A5) * r + A6) * q) / (((((B1 * r + B2) * r + B3) * r + B4) * r + B5) * r + 1));
   }
+  return tails;
+}
+
+function tailPass(buf: Float64Array, tails: number, mean: number, sigma: number, index: Int32Array, saved: Float64Array): void {
   for (let t = 0; t < tails; t++) buf[index[t]!] = mean + sigma * inverseNormalCdf(saved[t]!);
+}
+
+/** In place: clamps buf[0..n) to [lo, hi]. */
+export function clampInPlace(buf: Float64Array, n: number, lo: number, hi: number): void {
+  for (let j = 0; j < n; j++) {
+    const x = buf[j]!;
+    buf[j] = x < lo ? lo : x > hi ? hi : x;
+  }
 }
 
 /** In place: uniforms u in [0, 1) → μ + σ·Φ⁻¹(u). */
