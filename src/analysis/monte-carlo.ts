@@ -9,7 +9,7 @@ import { ImpossibleError, InputError } from '../errors.js';
 import { ChunkRunner, DEFAULT_CHUNK_SIZE, type ChunkConfig, type ChunkSummary, type OutputChunk } from './chunk.js';
 import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
-import type { ModelSource } from './model-source.js';
+import { buildFromSource, type ModelSource } from './model-source.js';
 import { checkOutWorkers, giveBackWorkers } from './worker-pool.js';
 import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
 import { processCapability } from './statistics/capability.js';
@@ -215,6 +215,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
     options.onProgress?.({ trialsDone, trialsPlanned: maxTrials });
   };
 
+  // `workers` counts the threads that compute chunks: this thread and workers − 1 worker threads.
   const requested = options.workers ?? availableParallelism();
   const workers = options.source && requested > 1 ? Math.min(requested, chunkCount) : 1;
   if (workers <= 1) {
@@ -224,7 +225,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
       if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));
     }
   } else {
-    await runOnWorkers(options.source!, config, workers, chunkCount, mergeChunk, () => stopped);
+    await runOnWorkers(options.source!, config, workers - 1, chunkCount, mergeChunk, () => stopped);
   }
 
   const notes: string[] = [];
@@ -249,15 +250,23 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
 
 let runCounter = 0;
 
+/**
+ * Runs the chunks on `helperCount` pooled worker threads and on this thread, merging the summaries strictly in
+ * chunk order. This thread computes a chunk whenever one is left to hand out, between handling the workers'
+ * replies (one chunk per turn of the event loop), so a run on N threads starts only N − 1 workers.
+ */
 function runOnWorkers(
   source: ModelSource,
   config: ChunkConfig,
-  workerCount: number,
+  helperCount: number,
   chunkCount: number,
   merge: (summary: ChunkSummary) => void,
   isStopped: () => boolean,
 ): Promise<void> {
-  const pool = checkOutWorkers(workerCount);
+  // This thread's share: the same model rebuilt from the same JSON as in each worker. Its summaries may wait for
+  // earlier chunks, so its buffers are not reused.
+  const local = new ChunkRunner(buildFromSource(source), config);
+  const pool = checkOutWorkers(helperCount);
   // Replies carry the run's id: a pooled worker may still answer chunks of a run that stopped early.
   const run = ++runCounter;
   return new Promise((resolve, reject) => {
@@ -265,6 +274,7 @@ function runOnWorkers(
     let nextToSend = 0;
     let nextToMerge = 0;
     let finished = false;
+    let localScheduled = false;
     const finish = (error?: Error): void => {
       if (finished) return;
       finished = true;
@@ -272,16 +282,54 @@ function runOnWorkers(
       if (error) reject(error);
       else resolve();
     };
-    // Two chunks in flight per worker keeps each busy while the main thread merges; a cap on what waits to be
-    // merged bounds memory when one worker falls behind.
+    // Two chunks in flight per worker keeps each busy while this thread computes or merges; a cap on what waits
+    // to be merged bounds memory when one thread falls behind.
     const inFlightLimit = 2;
+    const pendingLimit = 4 * (helperCount + 1);
     const inFlight = new Map<Worker, number>();
+    const canHandOut = (): boolean => !isStopped() && nextToSend < chunkCount && pending.size <= pendingLimit;
     const send = (worker: Worker): void => {
-      while (!isStopped() && nextToSend < chunkCount && pending.size <= 4 * workerCount && inFlight.get(worker)! < inFlightLimit) {
+      while (canHandOut() && inFlight.get(worker)! < inFlightLimit) {
         worker.postMessage({ type: 'chunk', run, k: nextToSend++ } satisfies ToWorker);
         inFlight.set(worker, inFlight.get(worker)! + 1);
       }
     };
+    /** Takes a finished chunk from any thread: merges every chunk now in order, then hands out more work. */
+    const accept = (summary: ChunkSummary): void => {
+      pending.set(summary.k, summary);
+      while (!isStopped() && pending.has(nextToMerge)) {
+        const next = pending.get(nextToMerge)!;
+        pending.delete(nextToMerge);
+        nextToMerge++;
+        merge(next);
+      }
+      if (isStopped() || nextToMerge >= chunkCount) {
+        finish();
+        return;
+      }
+      // Refill every worker (one that waited on the pending cap may now proceed), and this thread.
+      for (const w of pool) send(w);
+      scheduleLocal();
+    };
+    const computeLocal = (): void => {
+      localScheduled = false;
+      if (finished || !canHandOut()) return;
+      const k = nextToSend++;
+      let summary: ChunkSummary;
+      try {
+        summary = local.run(k);
+      } catch (error) {
+        finish(error instanceof Error ? error : new Error(String(error)));
+        return;
+      }
+      accept(summary);
+    };
+    // setImmediate runs after the event loop has delivered the workers' waiting replies.
+    function scheduleLocal(): void {
+      if (localScheduled || finished || !canHandOut()) return;
+      localScheduled = true;
+      setImmediate(computeLocal);
+    }
     for (const worker of pool) {
       inFlight.set(worker, 0);
       worker.on('message', (message: FromWorker) => {
@@ -291,25 +339,13 @@ function runOnWorkers(
           finish(new ImpossibleError('Monte Carlo', message.message, 'check the design values; this trial could not be evaluated'));
           return;
         }
-        pending.set(message.summary.k, message.summary);
-        while (!isStopped() && pending.has(nextToMerge)) {
-          const summary = pending.get(nextToMerge)!;
-          pending.delete(nextToMerge);
-          nextToMerge++;
-          merge(summary);
-        }
-        if (isStopped()) {
-          finish();
-          return;
-        }
-        // Refill every worker (one that waited on the pending cap may now proceed).
-        for (const w of pool) send(w);
-        if (nextToMerge >= chunkCount) finish();
+        accept(message.summary);
       });
       worker.on('error', (error) => finish(error));
       worker.postMessage({ type: 'init', run, source, config } satisfies ToWorker);
       send(worker);
     }
+    scheduleLocal();
   });
 }
 
