@@ -52,7 +52,7 @@ function enumerate(model: Model, varying: number[]): WorstCaseOutput[] {
       const column = p[varying[v]!]!;
       const l = lo[v]!;
       const h = hi[v]!;
-      for (let j = 0; j < n; j++) column[j] = ((start + j) / 2 ** v) % 2 >= 1 ? h : l;
+      fillVertexColumn(column, start, n, v, l, h);
     }
     evaluateOutputs(model, p, outs, n);
     model.outputs.forEach((_output, o) => {
@@ -81,6 +81,15 @@ function enumerate(model: Model, varying: number[]): WorstCaseOutput[] {
     method: 'enumeration' as const,
     evaluations: count,
   }));
+}
+
+/** column[j] = bit v of vertex (start + j) ? high : low. Integer bit operations while the vertex numbers fit 31 bits. */
+function fillVertexColumn(column: Float64Array, start: number, n: number, v: number, low: number, high: number): void {
+  if (start + n <= 2 ** 31 && v < 31) {
+    for (let j = 0; j < n; j++) column[j] = ((start + j) >>> v) & 1 ? high : low;
+  } else {
+    for (let j = 0; j < n; j++) column[j] = ((start + j) / 2 ** v) % 2 >= 1 ? high : low;
+  }
 }
 
 function bySensitivitySigns(model: Model, varying: number[]): WorstCaseOutput[] {
