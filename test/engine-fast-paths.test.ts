@@ -2,7 +2,8 @@
 // bits, so a seed's numbers do not move when a loop is made faster). The references are written here plainly,
 // one draw or one trial at a time, straight from the formulas named beside each.
 import { describe, expect, it } from 'vitest';
-import { chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
+import { chunkRandom, chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
+import { drawChunkParts } from '../src/analysis/chunk.js';
 import { buildSupplyModel, hotShunt, type SupplySpec } from '../src/analysis/models/supply.js';
 import { BENCH_SUPPLY } from '../src/bench/cvcc-spec.js';
 import { parallelResistance, seriesResistance } from '../src/circuits/combine.js';
@@ -10,7 +11,8 @@ import { dividerVout } from '../src/circuits/divider.js';
 import { diffLimit, diffOutput } from '../src/circuits/sense/diff.js';
 import { directLimit, directSignal } from '../src/circuits/sense/direct.js';
 import { noninvLimit, noninvOutput } from '../src/circuits/sense/noninv.js';
-import { partFromUnit } from '../src/tolerance/sample.js';
+import { partFromBound } from '../src/tolerance/part.js';
+import { fillPart, partFromUnit } from '../src/tolerance/sample.js';
 import { binnedFromUnit } from '../src/tolerance/distributions/binned.js';
 import { inverseNormalCdf, normalCdf, normalQuantilesInPlace } from '../src/tolerance/distributions/normal.js';
 import { truncatedNormalFromUnit } from '../src/tolerance/distributions/truncated-normal.js';
@@ -230,4 +232,31 @@ describe('supply model: the block evaluation equals a plain per-trial reference,
       expect(nonFinite).toBe(0);
     });
   }
+});
+
+describe('drawing a chunk: fused draw-and-scale and skipped draws equal one call per draw then the transform', () => {
+  it('uniform, normal, truncated, triangular, binned, fixed and zero-spread parts, in one stream (seedrandom xor128 reference)', () => {
+    const parts = [
+      partFromBound({ name: 'u', kind: 'offset', nominal: 1, plusMinus: 0.5 }),
+      partFromBound({ name: 'fixed', kind: 'temperature', nominal: 25, plusMinus: 20, distribution: { kind: 'fixed', value: 40 } }),
+      partFromBound({ name: 'n', kind: 'offset', nominal: 0, plusMinus: 1e-3, distribution: { kind: 'normal' } }),
+      partFromBound({ name: 'none', kind: 'offset', nominal: 3, plusMinus: 0 }),
+      partFromBound({ name: 'tn', kind: 'offset', nominal: 2, plusMinus: 0.1, distribution: { kind: 'truncated-normal' } }),
+      partFromBound({ name: 'tri', kind: 'offset', nominal: 5, plusMinus: 1, distribution: { kind: 'triangular' } }),
+      partFromBound({ name: 'bin', kind: 'offset', nominal: 10, plusMinus: 1, distribution: { kind: 'binned', innerFraction: 0.4 } }),
+      partFromBound({ name: 'u2', kind: 'offset', nominal: -4, plusMinus: 2 }),
+    ];
+    const n = 3000;
+    const fast = parts.map(() => new Float64Array(n));
+    drawChunkParts(parts, 'draw', 2, fast, n);
+    const random = chunkRandom('draw', 2);
+    const reference = parts.map((part) => {
+      const values = new Float64Array(n);
+      fillPart(part, values, n, random);
+      return values;
+    });
+    parts.forEach((_, i) => expect(sameBits(fast[i]!, reference[i]!)).toBe(0));
+    expect(fast[1]![0]).toBe(40);
+    expect(fast[3]![0]).toBe(3);
+  });
 });

@@ -58,3 +58,45 @@ export function fillXor128(state: Xor128State, out: Float64Array, n: number): vo
   state.z = z;
   state.w = w;
 }
+
+/**
+ * Fills out[0..n) with lo + width·u for the next n uniforms u: the same numbers as fillXor128 followed by
+ * uniformFromUnit (the same operations on each draw), in one pass over the buffer instead of two.
+ */
+export function fillXor128Affine(state: Xor128State, out: Float64Array, n: number, lo: number, width: number): void {
+  let x = state.x | 0;
+  let y = state.y | 0;
+  let z = state.z | 0;
+  let w = state.w | 0;
+  for (let j = 0; j < n; j++) {
+    const t = x ^ (x << 11);
+    x = y;
+    y = z;
+    z = w;
+    w ^= (w >>> 19) ^ t ^ (t >>> 8);
+    out[j] = lo + width * ((w >>> 0) * TWO_TO_MINUS_32);
+  }
+  state.x = x;
+  state.y = y;
+  state.z = z;
+  state.w = w;
+}
+
+/** Advances the state by n draws without storing them (a part held fixed still consumes its stretch of the stream). */
+export function skipXor128(state: Xor128State, n: number): void {
+  let x = state.x | 0;
+  let y = state.y | 0;
+  let z = state.z | 0;
+  let w = state.w | 0;
+  for (let j = 0; j < n; j++) {
+    const t = x ^ (x << 11);
+    x = y;
+    y = z;
+    z = w;
+    w ^= (w >>> 19) ^ t ^ (t >>> 8);
+  }
+  state.x = x;
+  state.y = y;
+  state.z = z;
+  state.w = w;
+}

@@ -1,8 +1,9 @@
 // One chunk of Monte Carlo trials: draw every part from the chunk's own stream, evaluate every output in one
 // tight loop each, and reduce each output to moments, a fine histogram, an in-spec count and (optionally) the
 // values themselves. The buffers are allocated once per runner and reused for every chunk.
-import { partFromUnit } from '../tolerance/sample.js';
-import { chunkState, fillXor128 } from './chunk-random.js';
+import type { Part } from '../tolerance/part.js';
+import { partFromUnit, partUnitMap } from '../tolerance/sample.js';
+import { chunkState, fillXor128, fillXor128Affine, skipXor128 } from './chunk-random.js';
 import { evaluateOutputs, type Model } from './model.js';
 import { symmetricInterval } from './statistics/coverage.js';
 
@@ -48,6 +49,26 @@ export function chunkLength(config: ChunkConfig, k: number): number {
   return Math.max(0, Math.min(config.chunkSize, config.trials - k * config.chunkSize));
 }
 
+/**
+ * The part values of chunk k's first n trials: part i takes draws i·n … (i+1)·n − 1 of the chunk's stream (as
+ * fillPart with the reference generator would). A uniform part is drawn and scaled in one pass, a part that
+ * ignores its draws only advances the stream; the numbers are those of fillXor128 then partFromUnit.
+ */
+export function drawChunkParts(parts: Part[], seed: string, k: number, p: Float64Array[], n: number): void {
+  const state = chunkState(seed, k);
+  for (let i = 0; i < parts.length; i++) {
+    const map = partUnitMap(parts[i]!);
+    if (map.kind === 'affine') fillXor128Affine(state, p[i]!, n, map.lo, map.width);
+    else if (map.kind === 'constant') {
+      skipXor128(state, n);
+      p[i]!.fill(map.value, 0, n);
+    } else {
+      fillXor128(state, p[i]!, n);
+      partFromUnit(parts[i]!, p[i]!, n);
+    }
+  }
+}
+
 export class ChunkRunner {
   private readonly p: Float64Array[];
   private outs: Float64Array[];
@@ -70,12 +91,7 @@ export class ChunkRunner {
   run(k: number): ChunkSummary {
     const { model, config, p } = this;
     const n = chunkLength(config, k);
-    // Part i takes draws i·n … (i+1)·n − 1 of the chunk's stream (as fillPart with the reference generator would).
-    const state = chunkState(config.seed, k);
-    for (let i = 0; i < model.parts.length; i++) {
-      fillXor128(state, p[i]!, n);
-      partFromUnit(model.parts[i]!, p[i]!, n);
-    }
+    drawChunkParts(model.parts, config.seed, k, p, n);
     evaluateOutputs(model, p, this.outs, n);
     // One buffer for every output's histogram counts (one allocation, one transfer).
     const stride = config.bins + 2;

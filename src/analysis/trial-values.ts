@@ -1,10 +1,9 @@
 // The values of individual Monte Carlo trials, drawn exactly as the engine draws them (chunk k from its own stream
 // seeded `${seed}:k`, part i taking the chunk's draws i·n … (i+1)·n − 1, then every output evaluated: the same calls
-// as ChunkRunner.run), so trial j here is trial j of the engine's run with the same seed, chunk size and trial count. Used for the samples CSV and for the
-// joint yield (every spec met by one unit), which the per-output summaries cannot give.
-import { partFromUnit } from '../tolerance/sample.js';
-import { chunkState, fillXor128 } from './chunk-random.js';
-import { DEFAULT_CHUNK_SIZE } from './chunk.js';
+// as ChunkRunner.run, drawChunkParts then evaluateOutputs), so trial j here is trial j of the engine's run with the
+// same seed, chunk size and trial count. Used for the samples CSV and for the joint yield (every spec met by one
+// unit), which the per-output summaries cannot give.
+import { DEFAULT_CHUNK_SIZE, drawChunkParts } from './chunk.js';
 import { evaluateOutputs, type Model } from './model.js';
 import type { Interval } from './result.js';
 import { wilsonInterval } from './statistics/wilson.js';
@@ -31,11 +30,7 @@ export function forEachTrialChunk(
     // The engine's chunk length: full chunks, the last one cut at the run's trial count.
     const length = stream.runTrials === 0 ? chunkSize : Math.max(0, Math.min(chunkSize, stream.runTrials - k * chunkSize));
     if (length === 0) break;
-    const state = chunkState(stream.seed, k);
-    for (let i = 0; i < model.parts.length; i++) {
-      fillXor128(state, p[i]!, length);
-      partFromUnit(model.parts[i]!, p[i]!, length);
-    }
+    drawChunkParts(model.parts, stream.seed, k, p, length);
     evaluateOutputs(model, p, out, length);
     const n = Math.min(length, count - offset);
     visit(p, out, n, offset);

@@ -51,6 +51,23 @@ export function partFromUnit(part: Part, buf: Float64Array, n: number): void {
   }
 }
 
+/**
+ * How partFromUnit turns a uniform into the part's value, for callers that fuse drawing and transforming:
+ * `affine` when the value is lo + width·u (a uniform part with spread), `constant` when it ignores u (held fixed,
+ * or no spread), otherwise `transform` (call partFromUnit).
+ */
+export type UnitMap = { kind: 'affine'; lo: number; width: number } | { kind: 'constant'; value: number } | { kind: 'transform' };
+
+export function partUnitMap(part: Part): UnitMap {
+  const lo = partLow(part);
+  const hi = partHigh(part);
+  const d = part.distribution;
+  if (d.kind === 'fixed') return { kind: 'constant', value: d.value };
+  if (hi <= lo) return { kind: 'constant', value: part.nominal };
+  if (d.kind === 'uniform') return { kind: 'affine', lo, width: hi - lo };
+  return { kind: 'transform' };
+}
+
 /** Fills out[0..n) with the part's Monte Carlo values drawn from `random` (n draws). */
 export function fillPart(part: Part, out: Float64Array, n: number, random: UniformSource): void {
   for (let j = 0; j < n; j++) out[j] = random();
