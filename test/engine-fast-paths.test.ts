@@ -3,7 +3,9 @@
 // one draw or one trial at a time, straight from the formulas named beside each.
 import { describe, expect, it } from 'vitest';
 import { chunkRandom, chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
-import { drawChunkParts } from '../src/analysis/chunk.js';
+import { ChunkRunner, drawChunkParts, type ChunkConfig } from '../src/analysis/chunk.js';
+import { evaluateAt } from '../src/analysis/model.js';
+import { symmetricInterval } from '../src/analysis/statistics/coverage.js';
 import { buildSupplyModel, hotShunt, type SupplySpec } from '../src/analysis/models/supply.js';
 import { BENCH_SUPPLY } from '../src/bench/cvcc-spec.js';
 import { parallelResistance, seriesResistance } from '../src/circuits/combine.js';
@@ -258,5 +260,39 @@ describe('drawing a chunk: fused draw-and-scale and skipped draws equal one call
     parts.forEach((_, i) => expect(sameBits(fast[i]!, reference[i]!)).toBe(0));
     expect(fast[1]![0]).toBe(40);
     expect(fast[3]![0]).toBe(3);
+  });
+});
+
+describe('adaptive runs: each chunk’s 95 % interval from its histogram equals the full sort (JCGM 101:2008 7.7.1)', () => {
+  it('every output of the benchmark design, a full and a short chunk, with a histogram range that cuts off part of the values', () => {
+    const model = buildSupplyModel(BENCH_SUPPLY);
+    const chunkSize = 20_000;
+    const config: ChunkConfig = {
+      seed: 'interval',
+      chunkSize,
+      trials: chunkSize + 7_777,
+      // Deliberately narrow ranges about the nominal values, so some values land in the outer bins.
+      ranges: model.outputs.map((o) => {
+        const nominal = evaluateAt(o, model.parts.map((part) => part.nominal));
+        return { lo: nominal * 0.995, hi: nominal * 1.004 };
+      }),
+      bins: 512,
+      specs: model.outputs.map((o) => o.spec ?? null),
+      keepSamples: true,
+      chunkIntervals: true,
+    };
+    const runner = new ChunkRunner(model, config);
+    for (const k of [0, 1]) {
+      const summary = runner.run(k);
+      summary.outputs.forEach((c) => {
+        const sorted = c.samples!.slice().sort();
+        expect(sorted.length).toBe(k === 0 ? chunkSize : 7_777);
+        const full = symmetricInterval(sorted, 0.95);
+        expect(c.low95).toBe(full.low);
+        expect(c.high95).toBe(full.high);
+      });
+      const outside = summary.outputs.some((c) => c.counts[0]! > 0 || c.counts[config.bins + 1]! > 0);
+      if (k === 0) expect(outside).toBe(true);
+    }
   });
 });

@@ -5,7 +5,9 @@ import type { Part } from '../tolerance/part.js';
 import { partFromUnit, partUnitMap } from '../tolerance/sample.js';
 import { chunkState, fillXor128, fillXor128Affine, skipXor128 } from './chunk-random.js';
 import { evaluateOutputs, type Model } from './model.js';
-import { symmetricInterval } from './statistics/coverage.js';
+import { coverageCount, symmetricIntervalOf, symmetricStartRank } from './statistics/coverage.js';
+import type { FineHistogram } from './statistics/histogram.js';
+import { OrderStatistics } from './statistics/order-statistics.js';
 
 export const DEFAULT_CHUNK_SIZE = 65536;
 
@@ -130,9 +132,14 @@ export class ChunkRunner {
     const m2 = n > 0 ? Math.max(0, sq - (dev * dev) / n) : 0;
     let low95 = NaN;
     let high95 = NaN;
-    if (config.chunkIntervals && n > 0) {
-      const sorted = x.slice(0, n).sort();
-      ({ low: low95, high: high95 } = symmetricInterval(sorted, 0.95));
+    if (config.chunkIntervals && n > 0 && nonFinite === 0) {
+      // The two order statistics of the interval, exact: the chunk's own histogram says which bins hold those ranks,
+      // and only the values in those bins are sorted (the same values a full sort would put at those ranks).
+      const h: FineHistogram = { lo, hi: config.ranges[o]!.hi, bins: config.bins, counts, min, max };
+      const r = symmetricStartRank(0.95, n);
+      const end = Math.min(n, r + coverageCount(0.95, n));
+      const order = new OrderStatistics([x.subarray(0, n)], h, [[r, r], [end, end]]);
+      ({ low: low95, high: high95 } = symmetricIntervalOf((rank) => order.at(rank), n, 0.95));
     }
     const samples = config.keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
     return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95 };

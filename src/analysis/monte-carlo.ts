@@ -211,6 +211,9 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
       samplesDropped = true;
     }
     if (adaptiveTrack && adaptiveTrack.every((s) => adaptiveStable(s, digits))) stopped = true;
+    // A trial without a finite value fails the run (finishOutput); an adaptive run, which could not become stable
+    // then, stops at once rather than at its cap.
+    if (adaptiveTrack && summary.outputs.some((c) => c.nonFinite > 0)) stopped = true;
     if (merged >= chunkCount) stopped = true;
     options.onProgress?.({ trialsDone, trialsPlanned: maxTrials });
   };

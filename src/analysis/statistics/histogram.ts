@@ -10,8 +10,8 @@ export interface FineHistogram {
   hi: number;
   /** Inner bins between lo and hi. */
   bins: number;
-  /** bins + 2 counts: [below lo, inner bins…, above hi]. */
-  counts: Float64Array;
+  /** bins + 2 counts: [below lo, inner bins…, above hi] (a run's totals, or one chunk's own counts). */
+  counts: Float64Array | Uint32Array;
   /** Observed extremes, which bound the outer bins. */
   min: number;
   max: number;
