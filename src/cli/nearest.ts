@@ -1,7 +1,8 @@
 // `trimfree nearest VALUE`: the standard values around a target, and the best two-part combinations.
 import { Argument, Command, Option } from 'commander';
 import Table from 'cli-table3';
-import { bestCombinations, POOL_DECADES, type Combination } from '../series/combos.js';
+import { InputError } from '../errors.js';
+import { bestCombinations, PART_MAX_OHMS, PART_MIN_OHMS, POOL_DECADES, type Combination } from '../series/combos.js';
 import { loadSeries, SERIES_NAMES, type SeriesName } from '../series/load.js';
 import { nearestStandard } from '../series/nearest.js';
 import { seriesDigits } from '../series/series-digits.js';
@@ -84,10 +85,18 @@ function run(value: number, options: NearestOptions): void {
   );
 }
 
+/** The target within the span bestCombinations takes, checked before any search (1 mΩ to 1 GΩ, common practice). */
+function orderableValue(ohms: number): number {
+  if (ohms < PART_MIN_OHMS || ohms > PART_MAX_OHMS) {
+    throw new InputError('value', `target ${formatEngineering(ohms, 'Ω')} is outside the span of orderable resistors`, '1 mΩ to 1 GΩ (common practice)');
+  }
+  return ohms;
+}
+
 export function nearestCommand(): Command {
   return new Command('nearest')
     .description('standard values below, above and nearest a target resistance, and the best two-part series or parallel pairs')
-    .addArgument(new Argument('<value>', 'target resistance, e.g. 28.38k, 4K7, 10 mΩ').argParser((text: string) => parseResistance(text, 'value')))
+    .addArgument(new Argument('<value>', 'target resistance, e.g. 28.38k, 4K7, 10 mΩ').argParser((text: string) => orderableValue(parseResistance(text, 'value'))))
     .addOption(new Option('--series <name>', `E-series, ${SERIES_NAMES[0]} to ${SERIES_NAMES.at(-1)}`).argParser(seriesOption('--series')).default('E24', 'E24'))
     .addOption(new Option('--count <n>', 'pairs listed per kind (series, parallel)').argParser(integerOption('--count', 1, 50)).default(3))
     .option('--json', 'print JSON: below, above, nearest (ohms), errorPct, combos')

@@ -20,10 +20,36 @@ export function optionParser<T>(parse: Parse<T>, optionName: string): (value: st
   return (value: string) => parse(value, optionName);
 }
 
-export const resistanceOption = (name: string): ((v: string) => number) => optionParser(parseResistance, name);
-export const voltageOption = (name: string): ((v: string) => number) => optionParser(parseVoltage, name);
-export const currentOption = (name: string): ((v: string) => number) => optionParser(parseCurrent, name);
-export const powerOption = (name: string): ((v: string) => number) => optionParser(parsePower, name);
+/**
+ * Sanity bounds on command-line quantities: past them a value is a slip of the keyboard (1e308, 5e30 V), not a part,
+ * and arithmetic on it would overflow into Infinity or NaN. They are far outside any datasheet (from memory: the
+ * smallest shunts are about 50 µΩ, the largest catalogue resistors about 1 TΩ).
+ */
+export const SANE_LIMITS = {
+  resistance: { lo: 1e-6, hi: 1e12, text: '1 µΩ to 1 TΩ' },
+  voltage: { hi: 1e5, text: 'up to 100 kV in magnitude' },
+  current: { hi: 1e5, text: 'up to 100 kA in magnitude' },
+  power: { hi: 1e6, text: 'up to 1 MW' },
+} as const;
+
+function bounded(parse: Parse<number>, hi: number, text: string, lo = 0): Parse<number> {
+  return (value: string, where: string) => {
+    const x = parse(value, where);
+    const size = Math.abs(x);
+    if (size > hi || (x !== 0 && size < lo)) throw new InputError(where, `'${value.trim()}' is outside what trimfree takes as a real part`, text);
+    return x;
+  };
+}
+
+export const parseSaneResistance = bounded(parseResistance, SANE_LIMITS.resistance.hi, SANE_LIMITS.resistance.text, SANE_LIMITS.resistance.lo);
+export const parseSaneVoltage = bounded(parseVoltage, SANE_LIMITS.voltage.hi, SANE_LIMITS.voltage.text);
+export const parseSaneCurrent = bounded(parseCurrent, SANE_LIMITS.current.hi, SANE_LIMITS.current.text);
+export const parseSanePower = bounded(parsePower, SANE_LIMITS.power.hi, SANE_LIMITS.power.text);
+
+export const resistanceOption = (name: string): ((v: string) => number) => optionParser(parseSaneResistance, name);
+export const voltageOption = (name: string): ((v: string) => number) => optionParser(parseSaneVoltage, name);
+export const currentOption = (name: string): ((v: string) => number) => optionParser(parseSaneCurrent, name);
+export const powerOption = (name: string): ((v: string) => number) => optionParser(parseSanePower, name);
 /** A fraction: "1%" → 0.01; a bare "1" also means 1 %. */
 export const percentOption = (name: string): ((v: string) => number) => optionParser((t, w) => parsePercent(t, w), name);
 /** Per kelvin: "100ppm/K" → 1e-4. */
@@ -32,7 +58,12 @@ export const seriesOption = (name: string): ((v: string) => SeriesName) => optio
 
 /** "LO..HI" (or one value) where each side is read by `parseOne`. */
 export function rangeOption(parseOne: Parse<number>, name: string): (v: string) => Range {
-  return (value: string) => parseRange(value, parseOne, name);
+  const sane = (text: string, where: string): number => {
+    const x = parseOne(text, where);
+    if (Math.abs(x) > 1e12) throw new InputError(where, `'${text.trim()}' is outside what trimfree takes as a real part`, 'each end of the range up to 1e12 in magnitude');
+    return x;
+  };
+  return (value: string) => parseRange(value, sane, name);
 }
 
 /** A whole number in [min, max], e.g. a candidate count or a trial count. */

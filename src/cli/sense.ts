@@ -218,6 +218,14 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
 }
 
 function run(options: SenseOptions): void {
+  if (options.headroom >= options.rail) {
+    // Checked here too so the line names both options (the picker knows no option names but its own).
+    throw new InputError(
+      '--rail/--headroom',
+      `the ${formatEngineering(options.headroom, 'V')} headroom leaves nothing of the ${formatEngineering(options.rail, 'V')} rail for the amplifier output`,
+      'a --rail above --headroom (default 0.2 V), e.g. --rail 5V',
+    );
+  }
   const request = buildRequest(options);
   const pick = pickSense(request);
   const shown = pick.candidates.slice(0, options.top);

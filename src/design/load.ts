@@ -11,6 +11,7 @@ type Path = readonly PropertyKey[];
 
 /** Reads, parses and validates a design file. */
 export function loadDesignFile(path: string): Design {
+  if (path.trim() === '') throw new InputError('file', 'empty file name', 'the path of a design file (JSON); `trimfree init` writes a starter');
   let text: string;
   try {
     text = readFileSync(path, 'utf8');
