@@ -341,10 +341,6 @@ interface SenseParams {
   compareOffset: number;
 }
 
-function newSenseParams(): SenseParams {
-  return { shunt: 0, feedback: 0, ground: 0, r1: 0, r2: 0, r3: 0, r4: 0, commonMode: 0, threshold: 0, amplifierOffset: 0, biasCurrent: 0, compareOffset: 0 };
-}
-
 /**
  * Shunt self-heating, solved in closed form. Every topology's limit is inversely proportional to the shunt
  * (I = K/Rs, see src/circuits/sense/*), so the loss at the limit is P = K²/R_hot and the hot shunt satisfies
@@ -399,28 +395,29 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
 /**
  * The sense path for trials 0..n−1: the limit current (found again with the shunt at its self-heated temperature
  * when it heats itself), the shunt loss at the limit and the amplifier output there. Its own small function, so
- * V8 optimises it whole and inlines the circuit functions (each topology's call is direct).
+ * V8 optimises it whole and inlines the circuit functions (each topology's call is direct); the parameter object is
+ * made fresh for each trial so that, once inlined, it lives in registers (escape analysis) rather than memory.
  */
-function senseBlock(kind: number, q: SenseParams, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
+function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
   const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, alpha } = c;
+  const noninv = kind === NONINV;
+  const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
-    q.threshold = threshold[j]!;
-    q.compareOffset = compare === null ? 0 : compare[j]!;
-    if (offset !== null) {
-      q.amplifierOffset = offset[j]!;
-      q.biasCurrent = bias === null ? 0 : bias[j]!;
-    }
-    if (kind === NONINV) {
-      q.feedback = g0[j]!;
-      q.ground = g1[j]!;
-    } else if (kind === DIFF) {
-      q.r1 = g0[j]!;
-      q.r2 = g1[j]!;
-      q.r3 = g2[j]!;
-      q.r4 = g3[j]!;
-    }
     const rAmbient = shunt[j]!;
-    q.shunt = rAmbient;
+    const q: SenseParams = {
+      shunt: rAmbient,
+      feedback: noninv ? g0[j]! : 0,
+      ground: noninv ? g1[j]! : 0,
+      r1: diff ? g0[j]! : 0,
+      r2: diff ? g1[j]! : 0,
+      r3: diff ? g2[j]! : 0,
+      r4: diff ? g3[j]! : 0,
+      commonMode,
+      threshold: threshold[j]!,
+      amplifierOffset: offset === null ? 0 : offset[j]!,
+      biasCurrent: offset === null || bias === null ? 0 : bias[j]!,
+      compareOffset: compare === null ? 0 : compare[j]!,
+    };
     let current = limitOf(kind, q);
     if (alpha !== null) {
       q.shunt = hotShunt(rAmbient, alpha[j]!, theta, current * rAmbient);
@@ -591,9 +588,6 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   if (theta > 0 && alphaMax === 0) notes.push('Shunt has a thermal resistance but no TCR: self-heating changes its loss, not its value.');
 
   const kind = topology === 'noninv' ? NONINV : topology === 'diff' ? DIFF : DIRECT;
-  // One parameter object per model, reused for every trial (its fields are overwritten before each use).
-  const q = newSenseParams();
-  q.commonMode = commonMode;
   const evaluator: SenseEvaluator = {
     evaluate(p, dT, vref, n, scratch, limitOut, lossOut, ampOut) {
       // Threshold: fixed (with its tempco), or divided from a reference: source·Rb/(Rt + Rb).
@@ -617,7 +611,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         shunt: resistorColumn(p, shunt, dT, n, scratch),
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
-      senseBlock(kind, q, columns, theta, n, limitOut, lossOut, ampOut);
+      senseBlock(kind, commonMode, columns, theta, n, limitOut, lossOut, ampOut);
     },
   };
   if (spec.windows?.ilimit) evaluator.ilimitSpec = spec.windows.ilimit;
