@@ -218,7 +218,7 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
 }
 
 function run(options: SenseOptions): void {
-  if (options.headroom >= options.rail) {
+  if (options.rail > 0 && options.headroom >= options.rail) {
     // Checked here too so the line names both options (the picker knows no option names but its own).
     throw new InputError(
       '--rail/--headroom',
