@@ -1,9 +1,12 @@
-// Hand-written bad COMMAND-LINE input (design-file mistakes are in design-load.test.ts): each row is one subprocess of
+// Hand-written bad COMMAND-LINE input (design-file mistakes are in design-load.test.ts; the six impossible designs
+// below show the line a user sees): each row is one subprocess of
 // the built CLI (npm test builds dist/ first), with the exact exit code, the option or argument the one line must
 // name, and the words that say what is accepted or what to change. Expected wording: the error policy in
 // src/errors.ts and src/cli/run.ts (one line "trimfree: WHERE: PROBLEM; accepted: …" or "…; to fix: …", exit 2).
 // Runs four subprocesses at a time so the table stays a few seconds long on two cores.
 import { spawn } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { PROJECT_ROOT } from '../src/project-root.js';
@@ -11,6 +14,16 @@ import { PROJECT_ROOT } from '../src/project-root.js';
 const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 const CHARGER = 'examples/charger-2s-liion.json';
 const LED = 'examples/led-driver-highside.json';
+
+/** The charger example with one change, written to a temporary file (for the impossible requests a design states). */
+const dir = mkdtempSync(join(tmpdir(), 'trimfree-bad-'));
+function chargerWith(name: string, change: (d: Record<string, any>) => void): string {
+  const design = JSON.parse(readFileSync(join(PROJECT_ROOT, CHARGER), 'utf8')) as Record<string, any>;
+  change(design);
+  const path = join(dir, `${name}.json`);
+  writeFileSync(path, JSON.stringify(design));
+  return path;
+}
 
 interface Row {
   args: string[];
@@ -83,6 +96,43 @@ const ROWS: Row[] = [
   { args: ['schema', '--out', 'package.json'], code: 2, where: '--out:', says: /package\.json already exists.*--force/ },
   { args: ['init', '--out', '/nonexistent-dir/a.json'], code: 2, where: '--out:', says: /the folder \/nonexistent-dir does not exist/ },
   { args: ['frobnicate'], code: 2, where: "unknown command 'frobnicate'", says: /see 'trimfree --help'/ },
+  // physically impossible designs (the file's own values): each says what to change
+  {
+    args: ['spread', chargerWith('below-ref', (d) => (d.voltage.target = '1.0 V')), ...T],
+    code: 2,
+    where: 'voltage.target:',
+    says: /at or below the reference 1\.250 V.*; to fix: ask for an output above Vref/,
+  },
+  {
+    args: ['spread', chargerWith('hot-shunt-auto', (d) => (d.current.shunt = { value: 'R47', rating: '0.5W' })), ...T],
+    code: 2,
+    where: 'current.shunt.rating:',
+    says: /no listed shunt carries 1\.50 A within 50 % of a 500 mW rating.*; to fix: raise current\.shunt\.rating/,
+  },
+  {
+    args: ['spread', chargerWith('hot-shunt', (d) => ((d.current.shunt = { value: 'R47', rating: '0.5W' }), (d.current.gain = { feedback: '1k', ground: '1k' }))), ...T],
+    code: 2,
+    where: 'current.shunt:',
+    says: /dissipates 532 mW at the limit, more than 50 % of its 500 mW rating; to fix: use a smaller shunt/,
+  },
+  {
+    args: ['spread', chargerWith('rail', (d) => (d.current.amplifier.rail = '1V')), ...T],
+    code: 2,
+    where: 'current.threshold.voltage:',
+    says: /above the 800 mV it can reach.*; to fix: lower current\.threshold\.voltage to at most 667 mV, or raise current\.amplifier\.rail/,
+  },
+  {
+    args: ['spread', chargerWith('offset', (d) => ((d.current.shunt = { value: '1m', rating: '1W' }), (d.current.gain = { feedback: '665k', ground: '1k' }), (d.current.amplifier.rail = '12V'))), ...T],
+    code: 2,
+    where: 'current.shunt:',
+    says: /gives 1\.50 mV at the limit, no more than the 2\.00 mV of offset.*; to fix: a larger shunt/,
+  },
+  {
+    args: ['spread', chargerWith('typo', (d) => (d.voltage.tagret = d.voltage.target)), ...T],
+    code: 2,
+    where: 'voltage.tagret:',
+    says: /unknown field 'tagret' \(did you mean 'target'\?\)/,
+  },
   // the yield gate: input fine, design below the bar: exit 1 after the full report
   { args: ['spread', LED, ...T, '--fail-under-yield', '100'], code: 1, where: '--fail-under-yield 100 %:', says: /ilimit yield \d+\.\d+ % is below 100 %/ },
 ];

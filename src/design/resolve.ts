@@ -99,6 +99,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);
+  checkShuntSignal(design, nominal, sense.parts[DESIGNATORS.shunt]!);
   const limits: string[] = [];
   checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, limits);
 
@@ -158,6 +159,26 @@ function checkOperatingPoint(design: Design, nominal: Record<string, number>, de
   }
   if (!(nominal['ilimit']! > 0) || !Number.isFinite(nominal['ilimit']!)) {
     throw new ImpossibleError('current', 'the nominal current limit is not a positive current', 'check the threshold, the offsets and the gain resistors');
+  }
+}
+
+/**
+ * The shunt's signal at the limit against the offsets that compete with it (amplifier Vos, plus the comparing stage's
+ * offset referred back through the gain): when the offsets can reach the whole signal, they alone can cancel the
+ * limit, whatever the other parts. The pickers refuse below 10× (common practice); a design with its own values is
+ * analysed down to 1× and refused below it.
+ */
+function checkShuntSignal(design: Design, nominal: Record<string, number>, shuntOhms: number): void {
+  const c = design.current;
+  const signal = nominal['ilimit']! * shuntOhms;
+  const gain = c.topology === 'direct' ? 1 : nominal['ampOutput']! / signal;
+  const offset = (c.amplifier?.vos ?? 0) + (c.compareOffset ?? 0) / gain;
+  if (offset > 0 && Number.isFinite(gain) && gain > 0 && signal <= offset) {
+    throw new ImpossibleError(
+      'current.shunt',
+      `the shunt gives ${formatEngineering(signal, 'V')} at the limit, no more than the ${formatEngineering(offset, 'V')} of offset referred to it (amplifier Vos plus the comparing offset divided by the gain): the offsets alone can cancel the current limit`,
+      'a larger shunt (current.shunt.value) with less gain, or a lower-offset amplifier (current.amplifier.vos, current.compareOffset); aim for at least 10× the offset (common practice)',
+    );
   }
 }
 
