@@ -161,8 +161,10 @@ function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: n
     min = Math.min(min, v);
     max = Math.max(max, v);
     sum += v;
-    const b = Math.floor((v - lo) * scale);
-    counts[b < 0 ? 0 : b >= bins ? above : b + 1]!++;
+    // The bin of countInto, ⌊(v − lo)·scale⌋ + 1 inside the range: for 0 ≤ t < bins, t | 0 is ⌊t⌋, and it skips
+    // Math.floor's float result and checked conversion. (A NaN lands in bin 1 here, but any NaN fails the run.)
+    const t = (v - lo) * scale;
+    counts[t < 0 ? 0 : t >= bins ? above : (t | 0) + 1]!++;
     inSpec += v >= specLo && v <= specHi ? 1 : 0;
   }
   out[0] = min;
