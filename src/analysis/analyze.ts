@@ -6,7 +6,7 @@ import { partVaries } from '../tolerance/part.js';
 import { nominalOutputs, type Model } from './model.js';
 import type { ModelSource } from './model-source.js';
 import { buildSupplyModel, type SupplySpec } from './models/supply.js';
-import { monteCarlo, widenRange, type MonteCarloOptions } from './monte-carlo.js';
+import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { AnalysisResult, OutputResult } from './result.js';
 import { rss } from './rss.js';
 import { worstCase } from './worst-case.js';
@@ -27,6 +27,8 @@ function isModel(input: SupplySpec | Model): input is Model {
 export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Promise<AnalysisResult> {
   const model = isModel(input) ? input : buildSupplyModel(input);
   const source: ModelSource | undefined = isModel(input) ? undefined : { kind: 'supply', spec: input };
+  // The Monte Carlo worker threads start up while this thread does the worst case and RSS.
+  if (source) startMonteCarloWorkers({ ...options, source });
   const nominal = nominalOutputs(model);
   const wcOptions = options.maxEnumerationVariables === undefined ? {} : { maxVariables: options.maxEnumerationVariables };
   const worst = worstCase(model, wcOptions);

@@ -10,7 +10,7 @@ import { ChunkRunner, DEFAULT_CHUNK_SIZE, type ChunkConfig, type ChunkSummary, t
 import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
-import { checkOutWorkers, giveBackWorkers } from './worker-pool.js';
+import { checkOutWorkers, giveBackWorkers, startWorkersAhead } from './worker-pool.js';
 import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
 import { processCapability } from './statistics/capability.js';
 import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
@@ -161,6 +161,27 @@ export function widenRange(min: number, max: number): { lo: number; hi: number }
   return { lo: min - pad, hi: max + pad };
 }
 
+/** Worker threads a run with these options starts besides the calling thread (0: it stays on this thread). */
+function helperThreads(options: MonteCarloOptions, chunkCount: number): number {
+  const requested = options.workers ?? availableParallelism();
+  return options.source && requested > 1 ? Math.min(requested, chunkCount) - 1 : 0;
+}
+
+/**
+ * Starts the worker threads that monteCarlo(model, options) will use, so their start-up overlaps what the caller
+ * does first (worst case, RSS). Optional: a run starts any worker it still lacks.
+ */
+export function startMonteCarloWorkers(options: MonteCarloOptions): void {
+  try {
+    checkOptions(options);
+  } catch {
+    return; // monteCarlo reports the bad option
+  }
+  const trials = options.trials === 'auto' ? (options.maxTrials ?? DEFAULT_MAX_TRIALS) : options.trials;
+  const helpers = helperThreads(options, Math.ceil(trials / (options.chunkSize ?? DEFAULT_CHUNK_SIZE)));
+  if (helpers > 0) startWorkersAhead(helpers);
+}
+
 export async function monteCarlo(model: Model, options: MonteCarloOptions): Promise<MonteCarloResult> {
   checkOptions(options);
   const seed = String(options.seed);
@@ -219,8 +240,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   };
 
   // `workers` counts the threads that compute chunks: this thread and workers − 1 worker threads.
-  const requested = options.workers ?? availableParallelism();
-  const workers = options.source && requested > 1 ? Math.min(requested, chunkCount) : 1;
+  const workers = helperThreads(options, chunkCount) + 1;
   if (workers <= 1) {
     const runner = new ChunkRunner(model, config, true);
     for (let k = 0; !stopped; k++) {

@@ -29,6 +29,25 @@ export function checkOutWorkers(count: number): Worker[] {
   return taken;
 }
 
+/**
+ * Starts worker threads ahead of a run, idle and unreferenced, so that their start-up (a new V8 instance and the
+ * engine's modules) overlaps the caller's other work; the run then checks them out like any idle worker.
+ */
+export function startWorkersAhead(count: number): void {
+  if (idle.length >= count) return;
+  const script = workerScript();
+  while (idle.length < count) {
+    const w = new Worker(script);
+    // A worker that fails while idle leaves the pool (a run would otherwise be handed a dead thread).
+    w.on('error', () => {
+      const i = idle.indexOf(w);
+      if (i >= 0) idle.splice(i, 1);
+    });
+    w.unref();
+    idle.push(w);
+  }
+}
+
 /** Gives a run's workers back: healthy ones wait idle (unreferenced), broken ones are ended. */
 export function giveBackWorkers(workers: Worker[], healthy: boolean): void {
   for (const w of workers) {
