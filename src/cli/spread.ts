@@ -31,6 +31,11 @@ import { VERSION } from './version.js';
 export const DEFAULT_SPREAD_TRIALS = 'auto' as const;
 /** Rows written to the samples CSV unless --sample-rows says otherwise (about 40 MB for a typical design). */
 export const DEFAULT_SAMPLE_ROWS = 100_000;
+/** Most rows the samples CSV takes. The CSV is built as one string: 400–700 bytes a row for the examples (up to
+ * about 1 kB for the widest design), and a JavaScript string holds at most about 536 million characters; 250 000 rows
+ * stay well inside that (about 175 MB of text and 1.5 GB of memory for the widest example). More rows were a crash
+ * ("Invalid string length") after minutes of work. */
+export const MAX_SAMPLE_ROWS = 250_000;
 /** Largest seed a design file accepts; the command line takes the same range. */
 const MAX_SEED = 2 ** 32 - 1;
 
@@ -303,7 +308,7 @@ export function spreadCommand(): Command {
     .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
     .option('--json', 'print JSON: { seed, trials, version, outputs: { NAME: { nominal, mean, sigma, interval95, worstCase, rss, yieldPct, cpk, contributions, … } } }')
     .addOption(new Option('--samples <file.csv>', 'write the Monte Carlo trials (parts and outputs, SI units) as CSV'))
-    .addOption(new Option('--sample-rows <n>', 'trials written to the samples CSV').argParser(integerOption('--sample-rows', 1, 10_000_000)).default(DEFAULT_SAMPLE_ROWS, '100000'))
+    .addOption(new Option('--sample-rows <n>', 'trials written to the samples CSV').argParser(integerOption('--sample-rows', 1, MAX_SAMPLE_ROWS)).default(DEFAULT_SAMPLE_ROWS, '100000'))
     .addOption(new Option('--report <file.html>', 'write the HTML review report (one self-contained file)'))
     .option('--force', 'overwrite existing output files', false)
     .addOption(new Option('--seed <n>', 'random seed (default: the file\'s, else 1)').argParser(seedOption('--seed')))
