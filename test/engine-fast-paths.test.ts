@@ -2,7 +2,7 @@
 // bits, so a seed's numbers do not move when a loop is made faster). The references are written here plainly,
 // one draw or one trial at a time, straight from the formulas named beside each.
 import { describe, expect, it } from 'vitest';
-import { chunkRandom, chunkState, fillXor128 } from '../src/analysis/chunk-random.js';
+import { chunkRandom, chunkState, fillXor128, fillXor128Affine, skipXor128 } from '../src/analysis/chunk-random.js';
 import { ChunkRunner, drawChunkParts, type ChunkConfig } from '../src/analysis/chunk.js';
 import { evaluateAt } from '../src/analysis/model.js';
 import { symmetricInterval } from '../src/analysis/statistics/coverage.js';
@@ -294,5 +294,25 @@ describe('adaptive runs: each chunk’s 95 % interval from its histogram equals 
       const outside = summary.outputs.some((c) => c.counts[0]! > 0 || c.counts[config.bins + 1]! > 0);
       if (k === 0) expect(outside).toBe(true);
     }
+  });
+});
+
+describe('xor128 fill loops: the state ring comes back in order for every length', () => {
+  it('fills of 0 to 9 draws, one after another, continue seedrandom’s xor128 call by call (plain, scaled, skipped)', () => {
+    const reference = chunkRandom('ring', 5);
+    const state = chunkState('ring', 5);
+    for (let n = 0; n <= 9; n++) {
+      const plain = new Float64Array(n);
+      fillXor128(state, plain, n);
+      for (let j = 0; j < n; j++) expect(plain[j]).toBe(reference());
+      const scaled = new Float64Array(n);
+      fillXor128Affine(state, scaled, n, -2, 3);
+      for (let j = 0; j < n; j++) expect(scaled[j]).toBe(-2 + 3 * reference());
+      skipXor128(state, n);
+      for (let j = 0; j < n; j++) reference();
+    }
+    const next = new Float64Array(1);
+    fillXor128(state, next, 1);
+    expect(next[0]).toBe(reference());
   });
 });
