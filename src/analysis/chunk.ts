@@ -78,8 +78,6 @@ export class ChunkRunner {
   /** With `reuse`, the counts buffer is reused for every chunk: only for a caller that consumes each summary
    *  before asking for the next (the in-thread run), never when summaries are transferred to another thread. */
   private counts: Uint32Array | null = null;
-  /** The passes' results (min, max, sum, in-spec count; then Σd², Σd). */
-  private readonly scan = new Float64Array(4);
 
   constructor(
     private readonly model: Model,
@@ -115,20 +113,15 @@ export class ChunkRunner {
     const { config } = this;
     const spec = config.specs[o];
     const lo = config.ranges[o]!.lo;
-    const scan = this.scan;
     // Without a window every trial counts as in spec (the loop's count is then replaced by n).
-    scanPass(x, n, lo, config.bins / (config.ranges[o]!.hi - lo), config.bins, counts, spec ? spec[0] : -Infinity, spec ? spec[1] : Infinity, scan);
-    const min = scan[0]!;
-    const max = scan[1]!;
-    const sum = scan[2]!;
-    const inSpec = spec ? scan[3]! : n;
+    const scan = scanPass(x, n, lo, config.bins / (config.ranges[o]!.hi - lo), config.bins, counts, spec ? spec[0] : -Infinity, spec ? spec[1] : Infinity);
+    const { min, max, sum } = scan;
+    const inSpec = spec ? scan.inSpec : n;
     // A NaN or an infinity makes the sum non-finite; only then count them (the run then fails loudly).
     const nonFinite = Number.isFinite(sum) ? 0 : countNonFinite(x, n);
     // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
     const mean = n > 0 ? sum / n : 0;
-    deviationPass(x, n, mean, scan);
-    const sq = scan[0]!;
-    const dev = scan[1]!;
+    const { sq, dev } = deviationPass(x, n, mean);
     const m2 = n > 0 ? Math.max(0, sq - (dev * dev) / n) : 0;
     let low95 = NaN;
     let high95 = NaN;
@@ -146,11 +139,12 @@ export class ChunkRunner {
   }
 }
 
-// The passes of the reduction, each a function of its own: V8 compiles a long first loop on the fly (on-stack
-// replacement), and code after such a loop in the same function was found to deoptimise on every chunk.
+// The passes of the reduction, each a function of its own whose loop is the whole body (V8 compiles a long loop
+// while it runs, by on-stack replacement; code after the loop that has not run yet can make that compiled code
+// deoptimise on later calls: see chunk-random.ts). This still happens now and then to the scan, on V8 11.3.
 
-/** min, max, sum (in trial order), histogram counts and the count inside [specLo, specHi] into out[0..3]. */
-function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: number, counts: Uint32Array, specLo: number, specHi: number, out: Float64Array): void {
+/** min, max, sum (in trial order), histogram counts and the count inside [specLo, specHi]. */
+function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: number, counts: Uint32Array, specLo: number, specHi: number): { min: number; max: number; sum: number; inSpec: number } {
   const above = bins + 1;
   let min = Infinity;
   let max = -Infinity;
@@ -167,14 +161,11 @@ function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: n
     counts[t < 0 ? 0 : t >= bins ? above : (t | 0) + 1]!++;
     inSpec += v >= specLo && v <= specHi ? 1 : 0;
   }
-  out[0] = min;
-  out[1] = max;
-  out[2] = sum;
-  out[3] = inSpec;
+  return { min, max, sum, inSpec };
 }
 
-/** Σ(x − mean)² and Σ(x − mean), in trial order, into out[0..1]. */
-function deviationPass(x: Float64Array, n: number, mean: number, out: Float64Array): void {
+/** Σ(x − mean)² and Σ(x − mean), in trial order. */
+function deviationPass(x: Float64Array, n: number, mean: number): { sq: number; dev: number } {
   let sq = 0;
   let dev = 0;
   for (let j = 0; j < n; j++) {
@@ -182,8 +173,7 @@ function deviationPass(x: Float64Array, n: number, mean: number, out: Float64Arr
     sq += d * d;
     dev += d;
   }
-  out[0] = sq;
-  out[1] = dev;
+  return { sq, dev };
 }
 
 function countNonFinite(x: Float64Array, n: number): number {
