@@ -37,7 +37,10 @@ export interface MonteCarloOptions {
   /** A trial count, or 'auto' for the adaptive procedure of JCGM 101:2008 7.9. */
   trials: number | 'auto';
   seed: string | number;
-  /** Worker threads; default os.availableParallelism(). Results do not depend on it. */
+  /**
+   * Threads that compute chunks: this thread and workers − 1 worker threads; default os.availableParallelism().
+   * Results do not depend on it.
+   */
   workers?: number;
   /** JSON the workers rebuild the model from; without it the run stays on this thread. */
   source?: ModelSource;
