@@ -8,7 +8,7 @@
 //   diff R3, R4       I = Vp/(R3 + R4)
 //   threshold RT1/RT2 I = Vsource/(RT1 + RT2)
 // Bias currents and offsets change these by far less than a part's rating margin and are left out.
-import { loadSeries, SERIES_NAMES } from '../series/load.js';
+import { orderableSeries } from '../series/orderable-series.js';
 import { formatRkm } from '../units/index.js';
 
 export interface BomLine {
@@ -18,7 +18,7 @@ export interface BomLine {
   ohms: number;
   /** IEC 60062:2016 letter-and-digit code, e.g. "4K7". */
   code: string;
-  /** Smallest IEC 60063 series that holds the value, 'shunt' for a shunt, or 'non-standard'. */
+  /** Series to order from (smallest that holds the value and is sold at its tolerance), 'shunt', or 'non-standard'. */
   series: string;
   tolerance: number;
   tcrPerK: number;
@@ -42,24 +42,13 @@ export interface BomPart {
   shunt?: boolean;
 }
 
-/** The smallest E-series (E3 … E192) whose decade holds the value's significand, or undefined. */
-export function smallestSeriesHolding(ohms: number): string | undefined {
-  if (!(ohms > 0) || !Number.isFinite(ohms)) return undefined;
-  const exponent = Math.floor(Math.log10(ohms) + 1e-12);
-  const significand = ohms / 10 ** exponent;
-  for (const name of SERIES_NAMES) {
-    if (loadSeries(name).values.some((v) => Math.abs(v - significand) <= 1e-9 * v)) return name;
-  }
-  return undefined;
-}
-
 export function bomLine(part: BomPart): BomLine {
   const line: BomLine = {
     designator: part.designator,
     role: part.role,
     ohms: part.ohms,
     code: formatRkm(part.ohms),
-    series: part.shunt ? 'shunt' : (smallestSeriesHolding(part.ohms) ?? 'non-standard'),
+    series: part.shunt ? 'shunt' : (orderableSeries(part.ohms, part.tolerance) ?? 'non-standard'),
     tolerance: part.tolerance,
     tcrPerK: part.tcrPerK,
     powerW: part.powerW,
