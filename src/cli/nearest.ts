@@ -6,6 +6,7 @@ import { bestCombinations, PART_MAX_OHMS, PART_MIN_OHMS, POOL_DECADES, type Comb
 import { loadSeries, SERIES_NAMES, type SeriesName } from '../series/load.js';
 import { nearestStandard } from '../series/nearest.js';
 import { seriesDigits } from '../series/series-digits.js';
+import { readStockFile } from '../series/stock.js';
 import { formatEngineering, formatEngineeringShortest, formatRkmDigits, formatSignedPercent, parseResistance } from '../units/index.js';
 import { integerOption, seriesOption } from './option-parsers.js';
 import { COMPACT_TABLE, shortSource } from './values.js';
@@ -13,7 +14,29 @@ import { COMPACT_TABLE, shortSource } from './values.js';
 interface NearestOptions {
   series: SeriesName;
   count: number;
+  stock?: string;
   json?: boolean;
+}
+
+/** Where the values come from: an E-series, or the user's stock list (ascending ohms, read once). */
+interface ValueSource {
+  values: SeriesName | readonly number[];
+  label: string;
+  digits: number;
+  origin: string;
+}
+
+function valueSource(options: NearestOptions): ValueSource {
+  if (options.stock === undefined) {
+    const series = options.series;
+    return { values: series, label: series, digits: seriesDigits(series), origin: shortSource(loadSeries(series).source) };
+  }
+  const values = readStockFile(options.stock, '--stock');
+  return { values, label: 'stock', digits: 3, origin: `${values.length} values from ${options.stock}` };
+}
+
+function optionalEngineering(v: number | null): string {
+  return v === null ? '—' : formatEngineering(v, 'Ω');
 }
 
 /** An error in percent for the table: "exact" when zero to 1e-9 %; small errors keep two significant digits. */
@@ -37,13 +60,14 @@ function comboRow(combo: Combination, digits: number): string[] {
 }
 
 function run(value: number, options: NearestOptions): void {
-  const { series, count } = options;
-  const bracket = nearestStandard(value, series);
-  const combos = bestCombinations(value, series, count);
+  const { count } = options;
+  const source = valueSource(options);
+  const bracket = typeof source.values === 'string' ? nearestStandard(value, source.values) : nearestStandard(value, source.values);
+  const combos = bestCombinations(value, source.values, count);
   if (options.json) {
     const result = {
       value,
-      series,
+      series: source.label,
       below: bracket.below,
       above: bracket.above,
       nearest: bracket.nearest,
@@ -63,23 +87,23 @@ function run(value: number, options: NearestOptions): void {
     ['above', bracket.above, bracket.aboveErrorPct],
     ['nearest', bracket.nearest, bracket.nearestErrorPct],
   ] as const) {
-    single.push([label, formatEngineering(v, 'Ω'), formatRkmDigits(v, seriesDigits(series)), errorText(e)]);
+    single.push([label, optionalEngineering(v), v === null ? '—' : formatRkmDigits(v, source.digits), e === null ? '—' : errorText(e)]);
   }
   const pairs = new Table({
     head: ['kind', 'parts', 'RKM', 'value', 'error'],
     colAligns: ['left', 'left', 'left', 'right', 'right'],
     ...COMPACT_TABLE,
   });
-  for (const combo of combos) pairs.push(comboRow(combo, seriesDigits(series)));
+  for (const combo of combos) pairs.push(comboRow(combo, source.digits));
   const best = combos[0];
   const note =
     best !== undefined && Math.abs(best.errorPct) >= Math.abs(bracket.nearestErrorPct)
       ? 'The single nearest value is at least as close as any pair.\n'
       : '';
   process.stdout.write(
-    `target ${formatEngineeringShortest(value, 'Ω')} (${formatRkmDigits(value, seriesDigits(series))}) in ${series}, ${shortSource(loadSeries(series).source)}\n` +
+    `target ${formatEngineeringShortest(value, 'Ω')} (${formatRkmDigits(value, source.digits)}) in ${source.label}, ${source.origin}\n` +
       `${single.toString()}\n` +
-      `best two-part combinations from ${series} (${count} per kind; parts within ${POOL_DECADES} decades of the target)\n` +
+      `best two-part combinations from ${source.label} (${count} per kind; parts within ${POOL_DECADES} decades of the target)\n` +
       `${pairs.toString()}\n${note}` +
       'error: (value / target − 1); a pair also adds the tolerance of both parts.\n',
   );
@@ -98,6 +122,7 @@ export function nearestCommand(): Command {
     .description('standard values below, above and nearest a target resistance, and the best two-part series or parallel pairs')
     .addArgument(new Argument('<value>', 'target resistance, e.g. 28.38k, 4K7, 10 mΩ').argParser((text: string) => orderableValue(parseResistance(text, 'value'))))
     .addOption(new Option('--series <name>', `E-series, ${SERIES_NAMES[0]} to ${SERIES_NAMES.at(-1)}`).argParser(seriesOption('--series')).default('E24', 'E24'))
+    .addOption(new Option('--stock <file>', 'pick from the values in a stock list instead (one value a line in any notation, or a CSV with a value column)'))
     .addOption(new Option('--count <n>', 'pairs listed per kind (series, parallel)').argParser(integerOption('--count', 1, 50)).default(3))
     .option('--json', 'print JSON: below, above, nearest (ohms), errorPct, combos')
     .addHelpText(
@@ -108,7 +133,8 @@ Combinations are searched exhaustively over the series' values within ${POOL_DEC
 Examples:
   $ trimfree nearest 28.38k --series E96
   $ trimfree nearest 4K7
-  $ trimfree nearest 0.0123 --series E24 --count 5 --json`,
+  $ trimfree nearest 0.0123 --series E24 --count 5 --json
+  $ trimfree nearest 6.2k --stock my-drawer.txt`,
     )
     .action((value: number, options: NearestOptions) => run(value, options));
 }
