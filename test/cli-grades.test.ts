@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { gradedSpec } from '../src/analysis/graded-spec.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
 import { jointYield } from '../src/analysis/trial-values.js';
-import { runGrades } from '../src/cli/grades.js';
+import { runGrades } from '../src/design/grade-study.js';
 import { GRADES, gradeCosts } from '../src/design/grades.js';
 import type { ResolvedDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';

@@ -9,22 +9,22 @@ import { InputError } from '../errors.js';
 import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { stringifyReport } from '../report/json.js';
 import { parsePercent } from '../units/index.js';
-import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesJson, gradesReportTables, refuseUnreachableTarget, renderGradesText, runGrades } from './grades.js';
+import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
+import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, runGrades } from '../design/grade-study.js';
+import { runSpread, spreadYields } from '../design/spread-study.js';
+import { progressToTerminal } from './analysis-options.js';
+import { gradesJson, gradesReportTables, refuseUnreachableTarget, renderGradesText } from './grades.js';
 import { integerOption } from './option-parsers.js';
 import {
-  analysisChoice,
   bomRows,
   checkOutputPaths,
   refuseExisting,
   renderSpreadRunText,
-  runSpread,
   seedOption,
   spreadReportJson,
-  spreadYields,
   trialsOption,
   workersOption,
   writeSpreadFiles,
-  type CommandLineAnalysis,
   type SpreadFiles,
 } from './spread.js';
 import { COMPACT_TABLE } from './values.js';
@@ -90,9 +90,9 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   if (options.trials !== undefined) cli.trials = options.trials;
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
-  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_DESIGN_TRIALS));
+  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_DESIGN_TRIALS), progressToTerminal);
   const grades = options.grades
-    ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials })
+    ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
     : undefined;
   if (grades) refuseUnreachableTarget(grades, command.getOptionValueSource('targetYield') === 'cli');
   if (grades) files.tables = gradesReportTables(grades);

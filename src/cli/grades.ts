@@ -4,219 +4,20 @@
 // per unit cost. Thin: src/analysis computes (analyze, jointYield, gradedSpec), src/pick/grade-mix.ts searches,
 // this module wires them and prints. `design` reuses runGrades, gradesJson and renderGradesText.
 import { Command, Option } from 'commander';
-import { analyze } from '../analysis/analyze.js';
-import { gradableResistors, gradedSpec, type GradableResistor, type ResistorGrade } from '../analysis/graded-spec.js';
-import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
-import type { AnalysisResult } from '../analysis/result.js';
-import { jointYieldAsync } from '../analysis/joint-yield-async.js';
-import type { JointYield } from '../analysis/trial-values.js';
-import { GRADES, GRADES_SOURCE, type Grade, type GradeName } from '../design/grades.js';
-import type { ResolvedDesign } from '../design/resolve.js';
+import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
+import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, gradesYields, runGrades, type GradesRun } from '../design/grade-study.js';
+import { GRADES_SOURCE } from '../design/grades.js';
 import { ImpossibleError, InputError } from '../errors.js';
-import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from '../report/format-value.js';
 import type { ReportTable } from '../report/html-report.js';
 import { stringifyReport } from '../report/json.js';
 import { textTable } from '../report/text-table.js';
 import { parsePercent } from '../units/index.js';
 import { integerOption } from './option-parsers.js';
-import { createProgress } from './progress.js';
-import { analysisChoice, loadResolved, seedOption, trialsOption, workersOption, type AnalysisChoice, type CommandLineAnalysis } from './spread.js';
+import { progressToTerminal } from './analysis-options.js';
+import { loadResolved, seedOption, trialsOption, workersOption } from './spread.js';
 import { VERSION } from './version.js';
 import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
-
-/** Trials of each side-by-side run when neither the file nor the command line says. */
-export const DEFAULT_GRADES_TRIALS = 100_000;
-/** Trials of each assignment the search evaluates (same seed for all, so the comparisons are paired). */
-export const DEFAULT_SEARCH_TRIALS = 20_000;
-/** Yield the cheapest mix must reach unless --target-yield says otherwise, %. */
-export const DEFAULT_TARGET_YIELD_PCT = 99.9;
-/** Assignments the search may evaluate before it gives up (and says so). */
-export const MAX_SEARCH_EVALUATIONS = 400;
-
-export interface GradesOptions {
-  targetYieldPct: number;
-  searchTrials: number;
-}
-
-export interface GradeRow {
-  grade: Grade;
-  cost: number;
-  result: AnalysisResult;
-  joint: JointYield;
-}
-
-export interface GradeMixAnswer {
-  found: boolean;
-  reason?: string;
-  /** Designator → grade, when found. */
-  assignment?: Record<string, GradeName>;
-  cost?: number;
-  /** Joint yield in the search's paired trials, %. */
-  searchYieldPct?: number;
-  /** The answer re-run with the full trial count, %. */
-  verified?: JointYield;
-  evaluations: number;
-  skipped: number;
-}
-
-export interface UpgradeAnswer {
-  part: string;
-  from: GradeName;
-  to: GradeName;
-  yieldBeforePct: number;
-  yieldAfterPct: number;
-  extraCost: number;
-  /** Yield points (%) per unit of extra cost; null when the upgrade costs nothing extra. */
-  pctPerCost: number | null;
-}
-
-export interface GradesRun {
-  resolved: ResolvedDesign;
-  choice: AnalysisChoice;
-  options: GradesOptions;
-  parts: GradableResistor[];
-  /** Each part's grade as designed (nearest table grade where the design's tolerance is not in the table). */
-  designed: Record<string, GradeName>;
-  designedNotes: string[];
-  rows: GradeRow[];
-  mix: GradeMixAnswer;
-  upgrade: UpgradeAnswer | null;
-  /** Yield of the design as graded (table TCRs), in the search's paired trials, %. */
-  designedYieldPct: number;
-  designedCost: number;
-}
-
-/** The table grade a tolerance belongs to: the exact one, else the nearest on a log scale. */
-function nearestGrade(tolerance: number): { grade: Grade; exact: boolean } {
-  const exact = GRADES.find((g) => Math.abs(g.tolerance - tolerance) <= 1e-9);
-  if (exact) return { grade: exact, exact: true };
-  const distance = (g: Grade): number => Math.abs(Math.log(g.tolerance) - Math.log(Math.max(tolerance, 1e-9)));
-  return { grade: [...GRADES].sort((a, b) => distance(a) - distance(b))[0]!, exact: false };
-}
-
-function gradeOf(grade: Grade): ResistorGrade {
-  return { tolerance: grade.tolerance, tcrPerK: grade.tcrPerK };
-}
-
-function specWith(spec: SupplySpec, parts: GradableResistor[], grades: readonly Grade[]): SupplySpec {
-  const map: Record<string, ResistorGrade> = {};
-  parts.forEach((p, i) => {
-    map[p.name] = gradeOf(grades[i]!);
-  });
-  return gradedSpec(spec, map);
-}
-
-function costOf(grades: readonly Grade[], costs: Record<GradeName, number>): number {
-  return grades.reduce((sum, g) => sum + costs[g.name], 0);
-}
-
-async function analyzeGrade(spec: SupplySpec, choice: AnalysisChoice, label: string): Promise<AnalysisResult> {
-  const progress = createProgress({ label });
-  try {
-    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
-    if (choice.workers !== undefined) options.workers = choice.workers;
-    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
-    return await analyze(spec, options);
-  } finally {
-    progress.finish();
-  }
-}
-
-/** Joint yield of a spec over the same trials an engine run with this seed and trial count uses (pausing for the
- * event loop between chunks, so Ctrl-C stops a long search at once). */
-function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): Promise<JointYield> {
-  return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
-}
-
-export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions): Promise<GradesRun> {
-  const spec = resolved.spec;
-  const parts = gradableResistors(spec);
-  const costs = resolved.costs;
-  const seed = String(choice.seed);
-
-  // Side by side: every resistor in one grade.
-  const rows: GradeRow[] = [];
-  for (const grade of GRADES) {
-    const graded = specWith(spec, parts, parts.map(() => grade));
-    const result = await analyzeGrade(graded, choice, `grades ${grade.name}`);
-    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
-  }
-
-  // The design as it stands, mapped onto the table.
-  const designedNotes: string[] = [];
-  const designedGrades = parts.map((p) => {
-    const { grade, exact } = nearestGrade(p.tolerance);
-    if (!exact) designedNotes.push(`${p.name}: ±${(p.tolerance * 100).toPrecision(3)} % is not a table grade; taken as ${grade.name}.`);
-    return grade;
-  });
-  const designed: Record<string, GradeName> = {};
-  parts.forEach((p, i) => {
-    designed[p.name] = designedGrades[i]!.name;
-  });
-
-  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached).
-  const gradeOptions: GradeOption[][] = parts.map(() => GRADES.map((g, i) => ({ name: g.name, cost: costs[g.name], tightness: i })));
-  const cache = new Map<string, number>();
-  const progress = createProgress({ label: 'grade search' });
-  const evaluate = async (assignment: readonly number[]): Promise<number> => {
-    const key = assignment.join(',');
-    const known = cache.get(key);
-    if (known !== undefined) return known;
-    const y = (await jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false)).pct / 100;
-    cache.set(key, y);
-    progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
-    return y;
-  };
-  let mix: GradeMixAnswer;
-  let upgrade: UpgradeAnswer | null = null;
-  const base = designedGrades.map((g) => GRADES.indexOf(g));
-  let designedYieldPct: number;
-  try {
-    const found = await cheapestGradeMix({ options: gradeOptions, target: options.targetYieldPct / 100, evaluate, maxEvaluations: MAX_SEARCH_EVALUATIONS });
-    mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
-    if (found.reason) mix.reason = found.reason;
-    if (found.found && found.assignment) {
-      const chosen = found.assignment.map((i) => GRADES[i]!);
-      mix.assignment = {};
-      parts.forEach((p, i) => {
-        mix.assignment![p.name] = chosen[i]!.name;
-      });
-      mix.cost = found.cost!;
-      mix.searchYieldPct = found.yield! * 100;
-      const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
-      mix.verified = await jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
-    }
-    const up = await bestSingleUpgrade({ options: gradeOptions, base, evaluate });
-    designedYieldPct = up.baseYield * 100;
-    if (up.best) {
-      upgrade = {
-        part: parts[up.best.part]!.name,
-        from: designedGrades[up.best.part]!.name,
-        to: GRADES[up.best.option]!.name,
-        yieldBeforePct: up.baseYield * 100,
-        yieldAfterPct: up.best.yield * 100,
-        extraCost: up.best.extraCost,
-        pctPerCost: up.best.yieldPerCost === null ? null : up.best.yieldPerCost * 100,
-      };
-    }
-  } finally {
-    progress.finish();
-  }
-  return {
-    resolved,
-    choice,
-    options,
-    parts,
-    designed,
-    designedNotes,
-    rows,
-    mix,
-    upgrade,
-    designedYieldPct,
-    designedCost: costOf(designedGrades, costs),
-  };
-}
 
 // ---- output ----------------------------------------------------------------------------------------------------
 
@@ -439,21 +240,18 @@ export function refuseUnreachableTarget(run: GradesRun, targetGiven: boolean): v
   );
 }
 
-/** The design as it stands: its all-specs yield is what --fail-under-yield gates in \`grades\`. */
-export function gradesYields(run: GradesRun): { name: string; pct: number }[] {
-  return [{ name: 'all specs as designed', pct: run.designedYieldPct }];
-}
-
 async function run(file: string, options: GradesCliOptions, command: Command): Promise<void> {
   const resolved = loadResolved(file);
   const cli: CommandLineAnalysis = {};
   if (options.trials !== undefined) cli.trials = options.trials;
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
-  const result = await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), {
-    targetYieldPct: options.targetYield,
-    searchTrials: options.searchTrials,
-  });
+  const result = await runGrades(
+    resolved,
+    analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS),
+    { targetYieldPct: options.targetYield, searchTrials: options.searchTrials },
+    progressToTerminal,
+  );
   refuseUnreachableTarget(result, command.getOptionValueSource('targetYield') === 'cli');
   process.stdout.write(options.json ? stringifyReport(gradesJson(result)) : renderGradesText(result, file));
   checkYieldGate(options.failUnderYield, gradesYields(result));

@@ -6,14 +6,12 @@
 import { existsSync, statSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { Command, Option } from 'commander';
-import { analyze } from '../analysis/analyze.js';
-import type { Model } from '../analysis/model.js';
-import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
-import type { AnalysisResult } from '../analysis/result.js';
-import { firstTrials } from '../analysis/trial-values.js';
+import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
 import type { BomLine } from '../design/bom.js';
 import { loadDesignFile } from '../design/load.js';
-import { DEFAULT_SEED, resolveDesign, type ResolvedDesign } from '../design/resolve.js';
+import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
+import { spreadSamples } from '../design/spread-samples.js';
+import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields, type SpreadRun } from '../design/spread-study.js';
 import { InputError } from '../errors.js';
 import type { BomRow, ReportTable } from '../report/html-report.js';
 import { renderHtmlReport } from '../report/html-report.js';
@@ -23,12 +21,10 @@ import { renderSpreadText } from '../report/spread-text.js';
 import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
 import { integerOption } from './option-parsers.js';
 import { writeOutputFile } from './output-file.js';
-import { createProgress } from './progress.js';
-import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP, type GatedYield } from './yield-gate.js';
+import { progressToTerminal } from './analysis-options.js';
+import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 import { VERSION } from './version.js';
 
-/** Monte Carlo trials when neither the file nor the command line says: the adaptive procedure of JCGM 101:2008 7.9. */
-export const DEFAULT_SPREAD_TRIALS = 'auto' as const;
 /** Rows written to the samples CSV unless --sample-rows says otherwise (about 40 MB for a typical design). */
 export const DEFAULT_SAMPLE_ROWS = 100_000;
 /** Most rows the samples CSV takes. The CSV is built as one string: 400–700 bytes a row for the examples (up to
@@ -38,64 +34,6 @@ export const DEFAULT_SAMPLE_ROWS = 100_000;
 export const MAX_SAMPLE_ROWS = 250_000;
 /** Largest seed a design file accepts; the command line takes the same range. */
 const MAX_SEED = 2 ** 32 - 1;
-
-export interface AnalysisChoice {
-  trials: number | 'auto';
-  seed: number;
-  workers?: number;
-  /** Draw a progress line on stderr (only when it is a terminal and the run takes over a second). */
-  progress: boolean;
-}
-
-export interface CommandLineAnalysis {
-  trials?: number | 'auto';
-  seed?: number;
-  workers?: number;
-}
-
-/** The command line wins over the design file's `analysis` section, which wins over the defaults. */
-export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysis, defaultTrials: number | 'auto'): AnalysisChoice {
-  const choice: AnalysisChoice = {
-    trials: cli.trials ?? resolved.analysis.trials ?? defaultTrials,
-    seed: cli.seed ?? resolved.analysis.seed ?? DEFAULT_SEED,
-    progress: true,
-  };
-  const workers = cli.workers ?? resolved.analysis.workers;
-  if (workers !== undefined) choice.workers = workers;
-  return choice;
-}
-
-export interface SpreadRun {
-  resolved: ResolvedDesign;
-  choice: AnalysisChoice;
-  model: Model;
-  result: AnalysisResult;
-  /** Adjustable output: the same analysis with the pot at the bottom of its travel. */
-  lowEnd?: { model: Model; result: AnalysisResult };
-}
-
-async function analyzeWithProgress(spec: SupplySpec, choice: AnalysisChoice, label: string): Promise<AnalysisResult> {
-  const progress = createProgress({ label });
-  try {
-    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
-    if (choice.workers !== undefined) options.workers = choice.workers;
-    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
-    return await analyze(spec, options);
-  } finally {
-    progress.finish();
-  }
-}
-
-/** Runs the analysis of a resolved design (and of its low end when the output is adjustable). */
-export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice): Promise<SpreadRun> {
-  const model = buildSupplyModel(resolved.spec);
-  const result = await analyzeWithProgress(resolved.spec, choice, 'spread');
-  const run: SpreadRun = { resolved, choice, model, result };
-  if (resolved.lowEnd) {
-    run.lowEnd = { model: buildSupplyModel(resolved.lowEnd), result: await analyzeWithProgress(resolved.lowEnd, choice, 'spread, low end') };
-  }
-  return run;
-}
 
 export interface SpreadReportJson extends SpreadJson {
   notes: string[];
@@ -161,17 +99,7 @@ export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: s
 
 /** The first `rows` trials of the run (the engine's own trials, same seed), parts and outputs, as CSV. */
 export function renderSpreadSamplesCsv(run: SpreadRun, rows: number): string {
-  const stream = {
-    seed: run.result.seed,
-    chunkSize: run.result.chunkSize,
-    runTrials: run.choice.trials === 'auto' ? 0 : run.result.trials,
-  };
-  const values = firstTrials(run.model, stream, Math.min(rows, run.result.trials));
-  return renderSamplesCsv({
-    ...values,
-    partUnits: run.model.parts.map((p) => p.unit),
-    outputUnits: run.model.outputs.map((o) => o.unit),
-  });
+  return renderSamplesCsv(spreadSamples(run, rows));
 }
 
 export interface SpreadFiles {
@@ -203,16 +131,6 @@ export function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): string[] {
     written.push(files.report);
   }
   return written;
-}
-
-/** Every output's yield against its spec window, as the report prints it (the low end of an adjustable output too). */
-export function spreadYields(run: SpreadRun): GatedYield[] {
-  const out: GatedYield[] = [];
-  for (const o of Object.values(run.result.outputs)) if (o.yield) out.push({ name: o.name, pct: o.yield.pct });
-  if (run.lowEnd) {
-    for (const o of Object.values(run.lowEnd.result.outputs)) if (o.yield) out.push({ name: `${o.name} (pot at the bottom of its travel)`, pct: o.yield.pct });
-  }
-  return out;
 }
 
 /** Loads and resolves a design file (shared with `grades`). */
@@ -290,7 +208,7 @@ async function run(file: string, options: SpreadCliOptions): Promise<void> {
   if (options.trials !== undefined) cli.trials = options.trials;
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
-  const result = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS));
+  const result = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS), progressToTerminal);
   const written = writeSpreadFiles(result, files);
   if (options.json) {
     process.stdout.write(stringifyReport(spreadReportJson(result)));

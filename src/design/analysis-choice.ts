@@ -1,0 +1,63 @@
+// How a study runs the engine: the trial count, seed and workers chosen (the command line over the design file's
+// `analysis` section over the defaults), and one engine run with that choice, reporting progress to whatever sink
+// the caller passes in (the CLI draws it on a terminal; tests and library callers pass nothing).
+import { analyze } from '../analysis/analyze.js';
+import type { SupplySpec } from '../analysis/models/supply.js';
+import type { AnalysisResult } from '../analysis/result.js';
+import { DEFAULT_SEED, type ResolvedDesign } from './resolve.js';
+
+export interface AnalysisChoice {
+  trials: number | 'auto';
+  seed: number;
+  workers?: number;
+  /** Report the engine's progress to the progress sink (the CLI draws it only on a terminal, after a second). */
+  progress: boolean;
+}
+
+/** What the command line asked for; anything left out comes from the design file, then the defaults. */
+export interface CommandLineAnalysis {
+  trials?: number | 'auto';
+  seed?: number;
+  workers?: number;
+}
+
+/** Where a long run reports how far it has got. */
+export interface ProgressSink {
+  /** Trials (or evaluations) done so far out of the total (the total may grow for 'auto'). */
+  update(done: number, total: number): void;
+  /** The run has ended (also on failure). */
+  finish(): void;
+}
+
+/** Makes a progress sink for a run with this label. */
+export type ProgressFactory = (label: string) => ProgressSink;
+
+const SILENT_SINK: ProgressSink = { update: () => undefined, finish: () => undefined };
+
+/** Progress that goes nowhere (the default). */
+export const silentProgress: ProgressFactory = () => SILENT_SINK;
+
+/** The command line wins over the design file's `analysis` section, which wins over the defaults. */
+export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysis, defaultTrials: number | 'auto'): AnalysisChoice {
+  const choice: AnalysisChoice = {
+    trials: cli.trials ?? resolved.analysis.trials ?? defaultTrials,
+    seed: cli.seed ?? resolved.analysis.seed ?? DEFAULT_SEED,
+    progress: true,
+  };
+  const workers = cli.workers ?? resolved.analysis.workers;
+  if (workers !== undefined) choice.workers = workers;
+  return choice;
+}
+
+/** One engine run (worst case, RSS, Monte Carlo) of `spec` as `choice` says, with its progress sent to a new sink. */
+export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory): Promise<AnalysisResult> {
+  const progress = progressFor(label);
+  try {
+    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
+    if (choice.workers !== undefined) options.workers = choice.workers;
+    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
+    return await analyze(spec, options);
+  } finally {
+    progress.finish();
+  }
+}

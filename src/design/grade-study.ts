@@ -1,0 +1,200 @@
+// The grade study of a resolved design: the design's resistors in each tolerance grade side by side (a full engine
+// run per grade, plus the yield of a unit that must meet every spec window at once), the cheapest per-part grade
+// assignment that reaches a yield target (src/pick/grade-mix.ts searches; each assignment is a paired same-seed
+// Monte Carlo), and the single upgrade that buys the most yield per unit cost. `grades` and `design` run it;
+// src/report renders it.
+import { gradableResistors, gradedSpec, type GradableResistor, type ResistorGrade } from '../analysis/graded-spec.js';
+import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
+import type { AnalysisResult } from '../analysis/result.js';
+import { jointYieldAsync } from '../analysis/joint-yield-async.js';
+import type { JointYield } from '../analysis/trial-values.js';
+import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
+import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { GRADES, type Grade, type GradeName } from './grades.js';
+import type { ResolvedDesign } from './resolve.js';
+
+/** Trials of each side-by-side run when neither the file nor the command line says. */
+export const DEFAULT_GRADES_TRIALS = 100_000;
+/** Trials of each assignment the search evaluates (same seed for all, so the comparisons are paired). */
+export const DEFAULT_SEARCH_TRIALS = 20_000;
+/** Yield the cheapest mix must reach unless --target-yield says otherwise, %. */
+export const DEFAULT_TARGET_YIELD_PCT = 99.9;
+/** Assignments the search may evaluate before it gives up (and says so). */
+export const MAX_SEARCH_EVALUATIONS = 400;
+
+export interface GradesOptions {
+  targetYieldPct: number;
+  searchTrials: number;
+}
+
+export interface GradeRow {
+  grade: Grade;
+  cost: number;
+  result: AnalysisResult;
+  joint: JointYield;
+}
+
+export interface GradeMixAnswer {
+  found: boolean;
+  reason?: string;
+  /** Designator → grade, when found. */
+  assignment?: Record<string, GradeName>;
+  cost?: number;
+  /** Joint yield in the search's paired trials, %. */
+  searchYieldPct?: number;
+  /** The answer re-run with the full trial count, %. */
+  verified?: JointYield;
+  evaluations: number;
+  skipped: number;
+}
+
+export interface UpgradeAnswer {
+  part: string;
+  from: GradeName;
+  to: GradeName;
+  yieldBeforePct: number;
+  yieldAfterPct: number;
+  extraCost: number;
+  /** Yield points (%) per unit of extra cost; null when the upgrade costs nothing extra. */
+  pctPerCost: number | null;
+}
+
+export interface GradesRun {
+  resolved: ResolvedDesign;
+  choice: AnalysisChoice;
+  options: GradesOptions;
+  parts: GradableResistor[];
+  /** Each part's grade as designed (nearest table grade where the design's tolerance is not in the table). */
+  designed: Record<string, GradeName>;
+  designedNotes: string[];
+  rows: GradeRow[];
+  mix: GradeMixAnswer;
+  upgrade: UpgradeAnswer | null;
+  /** Yield of the design as graded (table TCRs), in the search's paired trials, %. */
+  designedYieldPct: number;
+  designedCost: number;
+}
+
+/** The table grade a tolerance belongs to: the exact one, else the nearest on a log scale. */
+function nearestGrade(tolerance: number): { grade: Grade; exact: boolean } {
+  const exact = GRADES.find((g) => Math.abs(g.tolerance - tolerance) <= 1e-9);
+  if (exact) return { grade: exact, exact: true };
+  const distance = (g: Grade): number => Math.abs(Math.log(g.tolerance) - Math.log(Math.max(tolerance, 1e-9)));
+  return { grade: [...GRADES].sort((a, b) => distance(a) - distance(b))[0]!, exact: false };
+}
+
+function gradeOf(grade: Grade): ResistorGrade {
+  return { tolerance: grade.tolerance, tcrPerK: grade.tcrPerK };
+}
+
+function specWith(spec: SupplySpec, parts: GradableResistor[], grades: readonly Grade[]): SupplySpec {
+  const map: Record<string, ResistorGrade> = {};
+  parts.forEach((p, i) => {
+    map[p.name] = gradeOf(grades[i]!);
+  });
+  return gradedSpec(spec, map);
+}
+
+function costOf(grades: readonly Grade[], costs: Record<GradeName, number>): number {
+  return grades.reduce((sum, g) => sum + costs[g.name], 0);
+}
+
+/** Joint yield of a spec over the same trials an engine run with this seed and trial count uses (pausing for the
+ * event loop between chunks, so Ctrl-C stops a long search at once). */
+function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): Promise<JointYield> {
+  return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
+}
+
+export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions, progressFor: ProgressFactory = silentProgress): Promise<GradesRun> {
+  const spec = resolved.spec;
+  const parts = gradableResistors(spec);
+  const costs = resolved.costs;
+  const seed = String(choice.seed);
+
+  // Side by side: every resistor in one grade.
+  const rows: GradeRow[] = [];
+  for (const grade of GRADES) {
+    const graded = specWith(spec, parts, parts.map(() => grade));
+    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
+    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
+  }
+
+  // The design as it stands, mapped onto the table.
+  const designedNotes: string[] = [];
+  const designedGrades = parts.map((p) => {
+    const { grade, exact } = nearestGrade(p.tolerance);
+    if (!exact) designedNotes.push(`${p.name}: ±${(p.tolerance * 100).toPrecision(3)} % is not a table grade; taken as ${grade.name}.`);
+    return grade;
+  });
+  const designed: Record<string, GradeName> = {};
+  parts.forEach((p, i) => {
+    designed[p.name] = designedGrades[i]!.name;
+  });
+
+  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached).
+  const gradeOptions: GradeOption[][] = parts.map(() => GRADES.map((g, i) => ({ name: g.name, cost: costs[g.name], tightness: i })));
+  const cache = new Map<string, number>();
+  const progress = progressFor('grade search');
+  const evaluate = async (assignment: readonly number[]): Promise<number> => {
+    const key = assignment.join(',');
+    const known = cache.get(key);
+    if (known !== undefined) return known;
+    const y = (await jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false)).pct / 100;
+    cache.set(key, y);
+    progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
+    return y;
+  };
+  let mix: GradeMixAnswer;
+  let upgrade: UpgradeAnswer | null = null;
+  const base = designedGrades.map((g) => GRADES.indexOf(g));
+  let designedYieldPct: number;
+  try {
+    const found = await cheapestGradeMix({ options: gradeOptions, target: options.targetYieldPct / 100, evaluate, maxEvaluations: MAX_SEARCH_EVALUATIONS });
+    mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
+    if (found.reason) mix.reason = found.reason;
+    if (found.found && found.assignment) {
+      const chosen = found.assignment.map((i) => GRADES[i]!);
+      mix.assignment = {};
+      parts.forEach((p, i) => {
+        mix.assignment![p.name] = chosen[i]!.name;
+      });
+      mix.cost = found.cost!;
+      mix.searchYieldPct = found.yield! * 100;
+      const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
+      mix.verified = await jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
+    }
+    const up = await bestSingleUpgrade({ options: gradeOptions, base, evaluate });
+    designedYieldPct = up.baseYield * 100;
+    if (up.best) {
+      upgrade = {
+        part: parts[up.best.part]!.name,
+        from: designedGrades[up.best.part]!.name,
+        to: GRADES[up.best.option]!.name,
+        yieldBeforePct: up.baseYield * 100,
+        yieldAfterPct: up.best.yield * 100,
+        extraCost: up.best.extraCost,
+        pctPerCost: up.best.yieldPerCost === null ? null : up.best.yieldPerCost * 100,
+      };
+    }
+  } finally {
+    progress.finish();
+  }
+  return {
+    resolved,
+    choice,
+    options,
+    parts,
+    designed,
+    designedNotes,
+    rows,
+    mix,
+    upgrade,
+    designedYieldPct,
+    designedCost: costOf(designedGrades, costs),
+  };
+}
+
+/** The design as it stands: its all-specs yield is what --fail-under-yield gates in `grades`. */
+export function gradesYields(run: GradesRun): { name: string; pct: number }[] {
+  return [{ name: 'all specs as designed', pct: run.designedYieldPct }];
+}

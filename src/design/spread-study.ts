@@ -1,0 +1,41 @@
+// The spread study of a resolved design: the engine's analysis (worst case, RSS, Monte Carlo) of the design as
+// resolved and, for an adjustable output, of the same design with the pot at the bottom of its travel; and the
+// yields that study reports (what `--fail-under-yield` gates). `spread` and `design` run it; src/report renders it.
+import type { Model } from '../analysis/model.js';
+import { buildSupplyModel } from '../analysis/models/supply.js';
+import type { AnalysisResult } from '../analysis/result.js';
+import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import type { ResolvedDesign } from './resolve.js';
+
+/** Monte Carlo trials when neither the file nor the command line says: the adaptive procedure of JCGM 101:2008 7.9. */
+export const DEFAULT_SPREAD_TRIALS = 'auto' as const;
+
+export interface SpreadRun {
+  resolved: ResolvedDesign;
+  choice: AnalysisChoice;
+  model: Model;
+  result: AnalysisResult;
+  /** Adjustable output: the same analysis with the pot at the bottom of its travel. */
+  lowEnd?: { model: Model; result: AnalysisResult };
+}
+
+/** Runs the analysis of a resolved design (and of its low end when the output is adjustable). */
+export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
+  const model = buildSupplyModel(resolved.spec);
+  const result = await analyzeAsChosen(resolved.spec, choice, 'spread', progressFor);
+  const run: SpreadRun = { resolved, choice, model, result };
+  if (resolved.lowEnd) {
+    run.lowEnd = { model: buildSupplyModel(resolved.lowEnd), result: await analyzeAsChosen(resolved.lowEnd, choice, 'spread, low end', progressFor) };
+  }
+  return run;
+}
+
+/** Every output's yield against its spec window, as the report prints it (the low end of an adjustable output too). */
+export function spreadYields(run: SpreadRun): { name: string; pct: number }[] {
+  const out: { name: string; pct: number }[] = [];
+  for (const o of Object.values(run.result.outputs)) if (o.yield) out.push({ name: o.name, pct: o.yield.pct });
+  if (run.lowEnd) {
+    for (const o of Object.values(run.lowEnd.result.outputs)) if (o.yield) out.push({ name: `${o.name} (pot at the bottom of its travel)`, pct: o.yield.pct });
+  }
+  return out;
+}
