@@ -9,9 +9,10 @@ import { groupingFactor } from '../src/report/display-bins.js';
 import { renderHtmlReport } from '../src/report/html-report.js';
 import { HISTOGRAM_MAX_BINS } from '../src/report/svg-histogram.js';
 import { runGrades } from '../src/design/grade-study.js';
-import { gradesReportTables } from '../src/cli/grades.js';
+import { gradesReportTables } from '../src/report/grades-tables.js';
 import { runSpread } from '../src/design/spread-study.js';
-import { renderSpreadRunHtml } from '../src/cli/spread.js';
+import { renderSpreadRunHtml } from '../src/report/spread-run-html.js';
+import { VERSION } from '../src/cli/version.js';
 import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
@@ -121,7 +122,15 @@ describe('the report of an example design (adjustable bench module) in headless 
     expect(run.lowEnd).toBeDefined();
     const folder = mkdtempSync(join(tmpdir(), 'trimfree-browser-'));
     const html = join(folder, 'bench.html');
-    writeFileSync(html, renderSpreadRunHtml(run, 'examples/bench-adjustable.json', 'trimfree design examples/bench-adjustable.json --report bench.html', gradesReportTables(graded)));
+    writeFileSync(
+      html,
+      renderSpreadRunHtml(run, {
+        subject: 'examples/bench-adjustable.json',
+        version: VERSION,
+        command: 'trimfree design examples/bench-adjustable.json --report bench.html',
+        tables: gradesReportTables(graded),
+      }),
+    );
     const { context, profile } = await launch();
     try {
       const page = await context.newPage();

@@ -2,32 +2,30 @@
 // prints the BOM, runs the spread (worst case, RSS, Monte Carlo) and the grade comparison, and writes the HTML
 // report when asked. Thin: src/design resolves, src/analysis computes, src/report renders (through the `spread`
 // and `grades` commands' exported pieces, so the three commands agree).
-import Table from 'cli-table3';
 import { Command, Option } from 'commander';
 import { loadDesignFile } from '../design/load.js';
 import { InputError } from '../errors.js';
-import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
+import { resolveDesign } from '../design/resolve.js';
 import { stringifyReport } from '../report/json.js';
 import { parsePercent } from '../units/index.js';
 import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
 import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, runGrades } from '../design/grade-study.js';
 import { runSpread, spreadYields } from '../design/spread-study.js';
 import { progressToTerminal } from './analysis-options.js';
-import { gradesJson, gradesReportTables, refuseUnreachableTarget, renderGradesText } from './grades.js';
+import { refuseUnreachableTarget } from './grades.js';
+import { designReportJson, renderDesignText } from '../report/design-report.js';
+import { gradesReportTables } from '../report/grades-tables.js';
+import { VERSION } from './version.js';
 import { integerOption } from './option-parsers.js';
 import {
-  bomRows,
   checkOutputPaths,
   refuseExisting,
-  renderSpreadRunText,
   seedOption,
-  spreadReportJson,
   trialsOption,
   workersOption,
   writeSpreadFiles,
   type SpreadFiles,
 } from './spread.js';
-import { COMPACT_TABLE } from './values.js';
 import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
 /** Monte Carlo trials for `design` when neither the file nor the command line says: adaptive (JCGM 101:2008 7.9). */
@@ -53,31 +51,6 @@ function targetYieldOption(value: string): number {
   return fraction * 100;
 }
 
-/** The BOM as a terminal table. */
-export function renderBomText(resolved: ResolvedDesign): string {
-  const table = new Table({
-    head: ['part', 'value', 'code', 'series', 'tol', 'TCR', 'power (rating)', 'role'],
-    colAligns: ['left', 'right', 'left', 'left', 'right', 'right', 'right', 'left'],
-    ...COMPACT_TABLE,
-  });
-  const rows = bomRows(resolved.bom);
-  resolved.bom.forEach((line, i) => {
-    const row = rows[i]!;
-    table.push([row.designator, row.value, row.code, row.series, row.tolerance, row.tcr, row.power, line.role]);
-  });
-  const at = [...new Set(resolved.bom.map((l) => `${l.designator}: ${l.powerAt}`))];
-  return `bill of materials\n${table.toString()}\npower taken ${summarisePowerBasis(at)}\n`;
-}
-
-function summarisePowerBasis(lines: string[]): string {
-  const byBasis = new Map<string, string[]>();
-  for (const line of lines) {
-    const [designator, basis] = line.split(': ') as [string, string];
-    byBasis.set(basis, [...(byBasis.get(basis) ?? []), designator]);
-  }
-  return [...byBasis].map(([basis, names]) => `${basis} (${names.join(', ')})`).join('; ');
-}
-
 async function run(file: string, options: DesignCliOptions, command: Command): Promise<void> {
   const force = options.force ?? false;
   refuseExisting(options.report, '--report', force);
@@ -98,13 +71,7 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   if (grades) files.tables = gradesReportTables(grades);
   const written = writeSpreadFiles(spread, files);
 
-  if (options.json) {
-    process.stdout.write(stringifyReport({ bom: resolved.bom, spread: spreadReportJson(spread), grades: grades ? gradesJson(grades) : null }));
-  } else {
-    // The spread already printed the cautions; the grade table follows without repeating them.
-    const gradesText = grades ? `\n${renderGradesText({ ...grades, resolved: { ...resolved, cautions: [] } }, file)}` : '';
-    process.stdout.write(`${renderBomText(resolved)}\n${renderSpreadRunText(spread, file)}${gradesText}`);
-  }
+  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
 }

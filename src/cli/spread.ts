@@ -7,18 +7,17 @@ import { existsSync, statSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { Command, Option } from 'commander';
 import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
-import type { BomLine } from '../design/bom.js';
 import { loadDesignFile } from '../design/load.js';
 import { resolveDesign, type ResolvedDesign } from '../design/resolve.js';
 import { spreadSamples } from '../design/spread-samples.js';
 import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields, type SpreadRun } from '../design/spread-study.js';
 import { InputError } from '../errors.js';
-import type { BomRow, ReportTable } from '../report/html-report.js';
-import { renderHtmlReport } from '../report/html-report.js';
-import { spreadJson, stringifyReport, type SpreadJson } from '../report/json.js';
+import type { ReportTable } from '../report/html-report.js';
+import { stringifyReport } from '../report/json.js';
 import { renderSamplesCsv } from '../report/samples-csv.js';
-import { renderSpreadText } from '../report/spread-text.js';
-import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
+import { spreadReportJson } from '../report/spread-run-json.js';
+import { renderSpreadRunHtml } from '../report/spread-run-html.js';
+import { renderSpreadRunText } from '../report/spread-run-text.js';
 import { integerOption } from './option-parsers.js';
 import { writeOutputFile } from './output-file.js';
 import { progressToTerminal } from './analysis-options.js';
@@ -34,73 +33,6 @@ export const DEFAULT_SAMPLE_ROWS = 100_000;
 export const MAX_SAMPLE_ROWS = 250_000;
 /** Largest seed a design file accepts; the command line takes the same range. */
 const MAX_SEED = 2 ** 32 - 1;
-
-export interface SpreadReportJson extends SpreadJson {
-  notes: string[];
-  /** Limits no resistor grade can fix (also among the notes). */
-  limits: string[];
-  /** Adjustable output: the pot at the bottom of its travel. */
-  lowEnd?: SpreadJson;
-}
-
-export function spreadReportJson(run: SpreadRun): SpreadReportJson {
-  const json: SpreadReportJson = { ...spreadJson(run.result, { version: VERSION, cautions: run.resolved.cautions }), notes: run.resolved.notes.slice(), limits: (run.resolved.limits ?? []).slice() };
-  if (run.lowEnd) json.lowEnd = spreadJson(run.lowEnd.result, { version: VERSION });
-  return json;
-}
-
-export function renderSpreadRunText(run: SpreadRun, subject: string): string {
-  const partNames = run.model.parts.map((p) => p.name);
-  let text = renderSpreadText(run.result, { version: VERSION, subject, partNames });
-  if (run.lowEnd) {
-    text += `\n${renderSpreadText(run.lowEnd.result, { version: VERSION, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
-  }
-  const limits = run.resolved.limits ?? [];
-  const notes = run.resolved.notes.filter((n) => !limits.includes(n));
-  if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;
-  if (notes.length > 0) text += `\ndesign notes:\n${notes.map((n) => `  - ${n}`).join('\n')}\n`;
-  if (run.resolved.cautions.length > 0) text += `\ncaution:\n${run.resolved.cautions.map((c) => `  ! ${c}`).join('\n')}\n`;
-  return text;
-}
-
-/** The design layer's BOM lines, formatted for the report. */
-export function bomRows(bom: BomLine[]): BomRow[] {
-  return bom.map((line) => {
-    const row: BomRow = {
-      designator: line.designator,
-      value: formatEngineering(line.ohms, 'Ω', 4),
-      code: line.code,
-      series: line.series,
-      tolerance: formatPercent(line.tolerance, line.tolerance < 0.01 ? 2 : 1),
-      tcr: formatPpmPerK(line.tcrPerK),
-      power: `${formatEngineering(line.powerW, 'W')}${line.ratingW !== undefined ? ` of ${formatEngineering(line.ratingW, 'W')} rated` : ''}`,
-      note: `${line.role}; power ${/^at /.test(line.powerAt) ? '' : 'at '}${line.powerAt}`,
-    };
-    return row;
-  });
-}
-
-export function renderSpreadRunHtml(run: SpreadRun, subject: string, command?: string, tables?: ReportTable[]): string {
-  const input: Parameters<typeof renderHtmlReport>[0] = {
-    title: `trimfree spread report: ${subject}`,
-    subject,
-    version: VERSION,
-    result: run.result,
-    parts: run.model.parts,
-    bom: bomRows(run.resolved.bom),
-    cautions: run.resolved.cautions,
-    designNotes: run.resolved.notes,
-  };
-  if (command) input.command = command;
-  if (tables) input.tables = tables;
-  if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };
-  return renderHtmlReport(input);
-}
-
-/** The first `rows` trials of the run (the engine's own trials, same seed), parts and outputs, as CSV. */
-export function renderSpreadSamplesCsv(run: SpreadRun, rows: number): string {
-  return renderSamplesCsv(spreadSamples(run, rows));
-}
 
 export interface SpreadFiles {
   samples?: string;
@@ -123,11 +55,14 @@ export function checkOutputPaths(files: SpreadFiles): void {
 export function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): string[] {
   const written: string[] = [];
   if (files.samples !== undefined) {
-    writeOutputFile(files.samples, renderSpreadSamplesCsv(run, files.sampleRows ?? DEFAULT_SAMPLE_ROWS), { force: files.force, where: '--samples' });
+    writeOutputFile(files.samples, renderSamplesCsv(spreadSamples(run, files.sampleRows ?? DEFAULT_SAMPLE_ROWS)), { force: files.force, where: '--samples' });
     written.push(files.samples);
   }
   if (files.report !== undefined) {
-    writeOutputFile(files.report, renderSpreadRunHtml(run, files.subject, files.command, files.tables), { force: files.force, where: '--report' });
+    const html: Parameters<typeof renderSpreadRunHtml>[1] = { subject: files.subject, version: VERSION };
+    if (files.command !== undefined) html.command = files.command;
+    if (files.tables !== undefined) html.tables = files.tables;
+    writeOutputFile(files.report, renderSpreadRunHtml(run, html), { force: files.force, where: '--report' });
     written.push(files.report);
   }
   return written;
@@ -211,9 +146,9 @@ async function run(file: string, options: SpreadCliOptions): Promise<void> {
   const result = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS), progressToTerminal);
   const written = writeSpreadFiles(result, files);
   if (options.json) {
-    process.stdout.write(stringifyReport(spreadReportJson(result)));
+    process.stdout.write(stringifyReport(spreadReportJson(result, VERSION)));
   } else {
-    process.stdout.write(renderSpreadRunText(result, file));
+    process.stdout.write(renderSpreadRunText(result, { subject: file, version: VERSION }));
   }
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(result));

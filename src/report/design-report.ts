@@ -1,0 +1,25 @@
+// The `design` report: the BOM, the spread study and (unless skipped) the grade study, as terminal text or as one
+// JSON document { bom, spread, grades }.
+import type { GradesRun } from '../design/grade-study.js';
+import type { SpreadRun } from '../design/spread-study.js';
+import { renderBomText } from './bom-table.js';
+import { gradesJson } from './grades-json.js';
+import { renderGradesText } from './grades-text.js';
+import { spreadReportJson } from './spread-run-json.js';
+import { renderSpreadRunText } from './spread-run-text.js';
+
+export interface DesignTextOptions {
+  /** What was analysed, e.g. the design file's path. */
+  subject: string;
+  version: string;
+}
+
+export function renderDesignText(spread: SpreadRun, grades: GradesRun | undefined, options: DesignTextOptions): string {
+  // The spread already printed the cautions; the grade table follows without repeating them.
+  const gradesText = grades ? `\n${renderGradesText({ ...grades, resolved: { ...grades.resolved, cautions: [] } }, options)}` : '';
+  return `${renderBomText(spread.resolved.bom)}\n${renderSpreadRunText(spread, options)}${gradesText}`;
+}
+
+export function designReportJson(spread: SpreadRun, grades: GradesRun | undefined, version: string): unknown {
+  return { bom: spread.resolved.bom, spread: spreadReportJson(spread, version), grades: grades ? gradesJson(grades, version) : null };
+}

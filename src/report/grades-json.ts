@@ -1,0 +1,55 @@
+// The grade study as one JSON document: every grade side by side (per output with a spec window: sigma, 95 %
+// interval, worst case, yield, Cpk; the all-specs yield), the design as it stands, the cheapest grade mix and the
+// best single upgrade, with the notes on how they were obtained.
+import type { GradesRun } from '../design/grade-study.js';
+import { GRADES_SOURCE } from '../design/grades.js';
+import { specOutputs } from './grades-cells.js';
+import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+
+export function gradesJson(run: GradesRun, version: string): unknown {
+  const names = specOutputs(run);
+  return {
+    seed: run.rows[0]!.result.seed,
+    trials: run.rows.map((r) => r.result.trials),
+    version,
+    parts: run.parts.map((p) => ({ name: p.name, kind: p.kind, nominal: p.nominal, designedGrade: run.designed[p.name] })),
+    costs: run.resolved.costs,
+    costsSource: GRADES_SOURCE,
+    grades: run.rows.map((row) => ({
+      grade: row.grade.name,
+      tolerance: row.grade.tolerance,
+      tcrPerK: row.grade.tcrPerK,
+      cost: row.cost,
+      trials: row.result.trials,
+      allSpecsYieldPct: row.joint.pct,
+      allSpecsYieldInterval95: row.joint.interval,
+      outputs: Object.fromEntries(
+        names.map((name) => {
+          const o = row.result.outputs[name]!;
+          return [name, { sigma: o.sigma, interval95: o.interval95, worstCase: { min: o.worstCase.min, max: o.worstCase.max }, yieldPct: o.yield?.pct ?? null, cpk: o.cpk !== undefined && Number.isFinite(o.cpk) ? o.cpk : null }];
+        }),
+      ),
+    })),
+    targetYieldPct: run.options.targetYieldPct,
+    searchTrials: run.options.searchTrials,
+    designed: { grades: run.designed, cost: run.designedCost, allSpecsYieldPct: run.designedYieldPct, notes: run.designedNotes },
+    cheapest: {
+      found: run.mix.found,
+      reason: run.mix.reason ?? null,
+      grades: run.mix.assignment ?? null,
+      cost: run.mix.cost ?? null,
+      searchYieldPct: run.mix.searchYieldPct ?? null,
+      verifiedYieldPct: run.mix.verified?.pct ?? null,
+      verifiedYieldInterval95: run.mix.verified?.interval ?? null,
+      verifiedTrials: run.mix.verified?.trials ?? null,
+      evaluations: run.mix.evaluations,
+      skipped: run.mix.skipped,
+      method: SEARCH_METHOD,
+    },
+    bestUpgrade: run.upgrade,
+    notes: [
+      GRADING_NOTE,
+      `"all specs" yield: share of trials in which every output with a spec window (${names.join(', ')}) is inside it.`,
+    ],
+  };
+}

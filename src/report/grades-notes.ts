@@ -1,0 +1,14 @@
+// What the grade reports say about how the grade study was made: the grading assumptions and the search method.
+// Shared by the terminal text, the JSON, the HTML tables and `grades --help`.
+
+export const GRADING_NOTE =
+  "Each grade brings its usual TCR (common practice); the shunt takes the grade's tolerance and keeps its own TCR; " +
+  "resistor values stay as designed (a looser grade's usual series may not stock them).";
+
+export const SEARCH_METHOD =
+  'Every assignment is evaluated by Monte Carlo on the same seed and trials, so any two are compared on paired ' +
+  'trials. Taking yield not to fall when a part is tightened (the usual case with the nominal inside the window): ' +
+  'if every part at 0.1 % fails, nothing passes; for each part, grades that fail even with every other part at ' +
+  '0.1 % are ruled out; the remaining assignments are then visited in order of total cost, cheapest first, and the ' +
+  'first that reaches the target is the cheapest (assignments no tighter than a known failure are skipped). The ' +
+  'answer is re-run with the full trial count.';

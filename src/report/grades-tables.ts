@@ -1,0 +1,42 @@
+// The grade study as tables for the HTML review report (`design` passes them to the spread report): the grades side
+// by side (σ · yield · Cpk per output, the all-specs yield) and, when found, the cheapest grade mix.
+import type { GradesRun } from '../design/grade-study.js';
+import { GRADES_SOURCE } from '../design/grades.js';
+import { MISSING, formatIndex, formatSpread, formatYieldPct } from './format-value.js';
+import { costText, gradeLabel, specOutputs } from './grades-cells.js';
+import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import type { ReportTable } from './html-report.js';
+
+/** The grade comparison and the search's answer as tables for the HTML report (`design` passes them to writeSpreadFiles). */
+export function gradesReportTables(run: GradesRun): ReportTable[] {
+  const names = specOutputs(run);
+  const rows = run.rows.map((row) => [
+    gradeLabel(row.grade),
+    costText(row.cost),
+    ...names.map((name) => {
+      const o = row.result.outputs[name]!;
+      return `σ ${formatSpread(o.sigma, o.unit)} · ${o.yield ? formatYieldPct(o.yield.pct) : MISSING} · Cpk ${formatIndex(o.cpk)}`;
+    }),
+    formatYieldPct(row.joint.pct),
+  ]);
+  const tables: ReportTable[] = [
+    {
+      id: 'grades',
+      title: 'Tolerance grades side by side (every resistor in one grade)',
+      head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield'],
+      rows,
+      notes: [`Cells: σ · yield · Cpk. Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
+    },
+  ];
+  if (run.mix.found && run.mix.assignment) {
+    const v = run.mix.verified!;
+    tables.push({
+      id: 'grade-mix',
+      title: `Cheapest grades reaching ${run.options.targetYieldPct} % (cost ${costText(run.mix.cost!)}; as designed ${costText(run.designedCost)})`,
+      head: ['part', 'grade', 'as designed'],
+      rows: run.parts.map((p) => [p.name, run.mix.assignment![p.name]!, run.designed[p.name]!]),
+      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, ${v.trials.toLocaleString('en-US')} trials).`, SEARCH_METHOD],
+    });
+  }
+  return tables;
+}

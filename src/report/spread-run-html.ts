@@ -1,0 +1,33 @@
+// A spread study as the HTML review report (src/report/html-report.ts): the analysis, the parts, the BOM, the
+// cautions and design notes, the pot's bottom end for an adjustable output, and any further tables (`design` adds
+// the grade comparison: src/report/grades-tables.ts).
+import type { SpreadRun } from '../design/spread-study.js';
+import { bomRows } from './bom-table.js';
+import { renderHtmlReport, type ReportTable } from './html-report.js';
+
+export interface SpreadRunHtmlOptions {
+  /** What was analysed, e.g. the design file's path. */
+  subject: string;
+  version: string;
+  /** The command line that produced the report (for reproduction). */
+  command?: string;
+  tables?: ReportTable[];
+}
+
+export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOptions): string {
+  const { subject, command, tables } = options;
+  const input: Parameters<typeof renderHtmlReport>[0] = {
+    title: `trimfree spread report: ${subject}`,
+    subject,
+    version: options.version,
+    result: run.result,
+    parts: run.model.parts,
+    bom: bomRows(run.resolved.bom),
+    cautions: run.resolved.cautions,
+    designNotes: run.resolved.notes,
+  };
+  if (command) input.command = command;
+  if (tables) input.tables = tables;
+  if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };
+  return renderHtmlReport(input);
+}

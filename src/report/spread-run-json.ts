@@ -1,0 +1,18 @@
+// A spread study as one JSON document: the analysis (src/report/json.ts), the design notes, the limits no resistor
+// grade can fix and, for an adjustable output, the pot's bottom end.
+import type { SpreadRun } from '../design/spread-study.js';
+import { spreadJson, type SpreadJson } from './json.js';
+
+export interface SpreadReportJson extends SpreadJson {
+  notes: string[];
+  /** Limits no resistor grade can fix (also among the notes). */
+  limits: string[];
+  /** Adjustable output: the pot at the bottom of its travel. */
+  lowEnd?: SpreadJson;
+}
+
+export function spreadReportJson(run: SpreadRun, version: string): SpreadReportJson {
+  const json: SpreadReportJson = { ...spreadJson(run.result, { version, cautions: run.resolved.cautions }), notes: run.resolved.notes.slice(), limits: (run.resolved.limits ?? []).slice() };
+  if (run.lowEnd) json.lowEnd = spreadJson(run.lowEnd.result, { version });
+  return json;
+}

@@ -1,0 +1,25 @@
+// A spread study as the terminal report: each analysis (and the pot's bottom end for an adjustable output), then
+// the limits no resistor grade can fix, the design notes and the cautions from the design's resolution.
+import type { SpreadRun } from '../design/spread-study.js';
+import { renderSpreadText } from './spread-text.js';
+
+export interface SpreadRunTextOptions {
+  /** What was analysed, e.g. the design file's path. */
+  subject: string;
+  version: string;
+}
+
+export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
+  const { subject, version } = options;
+  const partNames = run.model.parts.map((p) => p.name);
+  let text = renderSpreadText(run.result, { version, subject, partNames });
+  if (run.lowEnd) {
+    text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
+  }
+  const limits = run.resolved.limits ?? [];
+  const notes = run.resolved.notes.filter((n) => !limits.includes(n));
+  if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;
+  if (notes.length > 0) text += `\ndesign notes:\n${notes.map((n) => `  - ${n}`).join('\n')}\n`;
+  if (run.resolved.cautions.length > 0) text += `\ncaution:\n${run.resolved.cautions.map((c) => `  ! ${c}`).join('\n')}\n`;
+  return text;
+}
