@@ -1,76 +1,48 @@
 // `trimfree design FILE`: the everyday flow. Loads the design file, fills every "auto" value with the pickers,
-// prints the BOM, runs the spread (worst case, RSS, Monte Carlo) and the grade comparison, and writes the HTML
-// report when asked. Thin: src/design resolves, src/analysis computes, src/report renders (through the `spread`
-// and `grades` commands' exported pieces, so the three commands agree).
+// runs the spread study and (unless --no-grades) the grade study (src/design/spread-study.ts, grade-study.ts: the
+// same ones `spread` and `grades` run, so the three commands agree), prints the BOM and both reports
+// (src/report/design-report.ts), and writes the HTML report when asked (src/cli/spread-files.ts).
 import { Command, Option } from 'commander';
+import { analysisChoice } from '../design/analysis-choice.js';
+import { DEFAULT_GRADES_TRIALS, runGrades } from '../design/grade-study.js';
 import { loadDesignFile } from '../design/load.js';
-import { InputError } from '../errors.js';
 import { resolveDesign } from '../design/resolve.js';
-import { stringifyReport } from '../report/json.js';
-import { parsePercent } from '../units/index.js';
-import { analysisChoice, type CommandLineAnalysis } from '../design/analysis-choice.js';
-import { DEFAULT_GRADES_TRIALS, DEFAULT_SEARCH_TRIALS, DEFAULT_TARGET_YIELD_PCT, runGrades } from '../design/grade-study.js';
-import { runSpread, spreadYields } from '../design/spread-study.js';
-import { progressToTerminal } from './analysis-options.js';
-import { refuseUnreachableTarget } from './grades.js';
+import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields } from '../design/spread-study.js';
 import { designReportJson, renderDesignText } from '../report/design-report.js';
 import { gradesReportTables } from '../report/grades-tables.js';
+import { stringifyReport } from '../report/json.js';
+import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
+import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
-import { integerOption } from './option-parsers.js';
-import {
-  checkOutputPaths,
-  refuseExisting,
-  seedOption,
-  trialsOption,
-  workersOption,
-  writeSpreadFiles,
-  type SpreadFiles,
-} from './spread.js';
 import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
-/** Monte Carlo trials for `design` when neither the file nor the command line says: adaptive (JCGM 101:2008 7.9). */
-export const DEFAULT_DESIGN_TRIALS = 'auto' as const;
-
-interface DesignCliOptions {
+interface DesignCliOptions extends AnalysisCliOptions {
   json?: boolean;
   grades: boolean;
   targetYield: number;
   searchTrials: number;
   report?: string;
   force?: boolean;
-  seed?: number;
-  trials?: number | 'auto';
-  workers?: number;
   failUnderYield?: number;
 }
 
-/** A yield target from "99.9%" or "99.9" (percent), strictly between 50 % and 100 %. */
-function targetYieldOption(value: string): number {
-  const fraction = parsePercent(value, '--target-yield');
-  if (!(fraction >= 0.5 && fraction < 1)) throw new InputError('--target-yield', `${value} is out of range`, 'a yield from 50 % up to but not including 100 %, e.g. 99.9%');
-  return fraction * 100;
-}
-
 async function run(file: string, options: DesignCliOptions, command: Command): Promise<void> {
-  const force = options.force ?? false;
-  refuseExisting(options.report, '--report', force);
-  const files: SpreadFiles = { force, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
+  const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
   if (options.report !== undefined) files.report = options.report;
-  checkOutputPaths(files);
-
+  checkSpreadFiles(files);
   const resolved = resolveDesign(loadDesignFile(file));
-  const cli: CommandLineAnalysis = {};
-  if (options.trials !== undefined) cli.trials = options.trials;
-  if (options.seed !== undefined) cli.seed = options.seed;
-  if (options.workers !== undefined) cli.workers = options.workers;
-  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_DESIGN_TRIALS), progressToTerminal);
+  const cli = commandLineAnalysis(options);
+  // The spread as `spread` runs it (same default trial count), then the grade study as `grades` runs it.
+  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS), progressToTerminal);
   const grades = options.grades
     ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
     : undefined;
-  if (grades) refuseUnreachableTarget(grades, command.getOptionValueSource('targetYield') === 'cli');
-  if (grades) files.tables = gradesReportTables(grades);
+  if (grades) {
+    refuseUnreachableTarget(grades, command);
+    files.tables = gradesReportTables(grades);
+  }
   const written = writeSpreadFiles(spread, files);
-
   process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
@@ -82,14 +54,14 @@ export function designCommand(): Command {
     .configureOutput({ outputError: () => undefined })
     .argument('<file>', 'design file (JSON); `trimfree init` writes a starter')
     .option('--json', 'print JSON: { bom: [{ designator, ohms, code, series, tolerance, tcrPerK, powerW, ratingW? }], spread: { seed, trials, outputs, … }, grades: { … } | null }')
-    .addOption(new Option('--report <file.html>', 'write the HTML review report (one self-contained file)'))
+    .addOption(reportFileFlag())
     .option('--force', 'overwrite an existing report file', false)
     .option('--no-grades', 'skip the grade comparison and the cheapest-grade search')
-    .addOption(new Option('--target-yield <pct>', 'share of units the cheapest grade mix must bring inside every spec window').argParser(targetYieldOption).default(DEFAULT_TARGET_YIELD_PCT, '99.9 %'))
-    .addOption(new Option('--search-trials <n>', 'Monte Carlo trials per grade assignment the search evaluates').argParser(integerOption('--search-trials', 1000, 10_000_000)).default(DEFAULT_SEARCH_TRIALS, '20000'))
-    .addOption(new Option('--seed <n>', "random seed (default: the file's, else 1)").argParser(seedOption('--seed')))
-    .addOption(new Option('--trials <n|auto>', "Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)").argParser(trialsOption('--trials')))
-    .addOption(new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers')))
+    .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window'))
+    .addOption(searchTrialsFlag('Monte Carlo trials per grade assignment the search evaluates'))
+    .addOption(seedFlag())
+    .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
+    .addOption(workersFlag())
     .addOption(new Option('--fail-under-yield <pct>', FAIL_UNDER_YIELD_HELP).argParser(failUnderYieldOption))
     .addHelpText(
       'after',
