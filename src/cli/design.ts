@@ -2,7 +2,7 @@
 // runs the spread study and (unless --no-grades) the grade study (src/design/spread-study.ts, grade-study.ts: the
 // same ones `spread` and `grades` run, so the three commands agree), prints the BOM and both reports
 // (src/report/design-report.ts), and writes the HTML report when asked (src/cli/spread-files.ts).
-import { Command, Option } from 'commander';
+import { Command } from 'commander';
 import { analysisChoice } from '../design/analysis-choice.js';
 import { DEFAULT_GRADES_TRIALS, runGrades } from '../design/grade-study.js';
 import { loadDesignFile } from '../design/load.js';
@@ -15,7 +15,7 @@ import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersF
 import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
-import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
+import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
 interface DesignCliOptions extends AnalysisCliOptions {
   json?: boolean;
@@ -62,7 +62,7 @@ export function designCommand(): Command {
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
     .addOption(workersFlag())
-    .addOption(new Option('--fail-under-yield <pct>', FAIL_UNDER_YIELD_HELP).argParser(failUnderYieldOption))
+    .addOption(failUnderYieldOptionWith())
     .addHelpText(
       'after',
       `

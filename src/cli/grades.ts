@@ -2,7 +2,7 @@
 // for each output with a spec window, and the yield of a unit that must meet every window at once), then the
 // cheapest per-part grade assignment that reaches --target-yield, and the single upgrade that buys the most yield
 // per unit cost. The grade study (src/design/grade-study.ts) computes and searches; src/report/grades-*.ts render.
-import { Command, Option } from 'commander';
+import { Command } from 'commander';
 import { analysisChoice } from '../design/analysis-choice.js';
 import { DEFAULT_GRADES_TRIALS, gradesYields, runGrades } from '../design/grade-study.js';
 import { loadDesignFile } from '../design/load.js';
@@ -15,7 +15,7 @@ import { wrapText } from '../report/wrap-text.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
-import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
+import { checkYieldGate, failUnderYieldOptionWith, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
 interface GradesCliOptions extends AnalysisCliOptions {
   json?: boolean;
@@ -43,7 +43,7 @@ export function gradesCommand(): Command {
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials per grade (default: the file's, else 100000)"))
     .addOption(workersFlag())
-    .addOption(new Option('--fail-under-yield <pct>', `${FAIL_UNDER_YIELD_HELP.replace("any output's yield", 'the all-specs yield of the design as it stands')}`).argParser(failUnderYieldOption))
+    .addOption(failUnderYieldOptionWith(FAIL_UNDER_YIELD_HELP.replace("any output's yield", 'the all-specs yield of the design as it stands')))
     .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
     .addHelpText(
       'after',

@@ -14,7 +14,7 @@ import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersF
 import { integerOption } from './option-parsers.js';
 import { checkSpreadFiles, DEFAULT_SAMPLE_ROWS, MAX_SAMPLE_ROWS, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { VERSION } from './version.js';
-import { checkYieldGate, failUnderYieldOption, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
+import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
 interface SpreadCliOptions extends AnalysisCliOptions {
   json?: boolean;
@@ -52,7 +52,7 @@ export function spreadCommand(): Command {
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
     .addOption(workersFlag())
-    .addOption(new Option('--fail-under-yield <pct>', FAIL_UNDER_YIELD_HELP).argParser(failUnderYieldOption))
+    .addOption(failUnderYieldOptionWith())
     .addHelpText(
       'after',
       `

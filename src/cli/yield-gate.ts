@@ -1,6 +1,7 @@
 // `--fail-under-yield PCT`: a gate for designers' own CI. After the report is printed, the command fails with exit
 // code 1 (not 2: the input was fine, the design is not) when any output's yield is below PCT, naming each such output
 // and its yield. The yields are the ones printed in the report (Monte Carlo share of trials inside the spec window).
+import { Option } from 'commander';
 import { InputError } from '../errors.js';
 import { formatYieldPct } from '../report/format-value.js';
 import { parsePercent } from '../units/index.js';
@@ -16,6 +17,11 @@ export function failUnderYieldOption(value: string): number {
   const fraction = parsePercent(value, '--fail-under-yield');
   if (!(fraction >= 0 && fraction <= 1)) throw new InputError('--fail-under-yield', `'${value}' is out of range`, accepted);
   return fraction * 100;
+}
+
+/** The `--fail-under-yield <pct>` option, with the help phrase given (the default phrase speaks of every output). */
+export function failUnderYieldOptionWith(help: string = FAIL_UNDER_YIELD_HELP): Option {
+  return new Option('--fail-under-yield <pct>', help).argParser(failUnderYieldOption);
 }
 
 /** One output's yield as the report shows it. */
