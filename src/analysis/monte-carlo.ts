@@ -11,7 +11,9 @@ import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
 import { checkOutWorkers, giveBackWorkers, startWorkersAhead } from './worker-pool.js';
-import type { Histogram, Interval, Percentile, YieldResult } from './result.js';
+import type { Interval, MonteCarloOutput, Percentile } from './result.js';
+
+export type { MonteCarloOutput } from './result.js';
 import { processCapability } from './statistics/capability.js';
 import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
@@ -57,28 +59,6 @@ export interface MonteCarloOptions {
   histogramBins?: number;
   /** Trials per chunk, default 65536. Part of what a seed reproduces: change it and the numbers change. */
   chunkSize?: number;
-}
-
-export interface MonteCarloOutput {
-  name: string;
-  unit: string;
-  spec?: [number, number];
-  mean: number;
-  sigma: number;
-  min: number;
-  max: number;
-  percentiles: Percentile[];
-  interval95: Interval;
-  interval9973: Interval;
-  shortest95: Interval;
-  shortest9973: Interval;
-  quantileMethod: 'exact' | 'histogram';
-  quantileBound: number;
-  yield?: YieldResult;
-  ppmOut?: number;
-  cp?: number;
-  cpk?: number;
-  histogram: Histogram;
 }
 
 export interface MonteCarloResult {

@@ -56,10 +56,10 @@ export interface Percentile {
   value: number;
 }
 
-export interface OutputResult {
+/** What Monte Carlo alone tells of one output (JCGM 101:2008). */
+export interface MonteCarloOutput {
   name: string;
   unit: string;
-  nominal: number;
   spec?: [number, number];
   mean: number;
   sigma: number;
@@ -76,9 +76,6 @@ export interface OutputResult {
   quantileMethod: 'exact' | 'histogram';
   /** Largest possible error of each quantile and interval end (0 when exact), output unit. */
   quantileBound: number;
-  worstCase: WorstCaseResult;
-  rss: RssResult;
-  contributions: Contribution[];
   /** Present when the output has a spec window. */
   yield?: YieldResult;
   ppmOut?: number;
@@ -86,6 +83,14 @@ export interface OutputResult {
   cp?: number;
   cpk?: number;
   histogram: Histogram;
+}
+
+/** One output's full result: Monte Carlo plus the nominal, worst case, RSS and contributions. */
+export interface OutputResult extends MonteCarloOutput {
+  nominal: number;
+  worstCase: WorstCaseResult;
+  rss: RssResult;
+  contributions: Contribution[];
 }
 
 export interface AnalysisResult {

@@ -16,13 +16,16 @@ export interface TrialStream {
   runTrials: number;
 }
 
-/** Calls `visit` chunk by chunk with the part values and output values of trials [offset, offset + n). */
-export function forEachTrialChunk(
-  model: Model,
-  stream: TrialStream,
-  count: number,
-  visit: (parts: Float64Array[], outputs: Float64Array[], n: number, offset: number) => void,
-): void {
+/** One chunk of drawn trials: part and output values of trials [offset, offset + n) (arrays reused between chunks). */
+export interface TrialChunk {
+  parts: Float64Array[];
+  outputs: Float64Array[];
+  n: number;
+  offset: number;
+}
+
+/** The first `count` trials of a run, chunk by chunk, drawn and evaluated exactly as the engine does. */
+export function* trialChunks(model: Model, stream: TrialStream, count: number): Generator<TrialChunk> {
   const chunkSize = stream.chunkSize ?? DEFAULT_CHUNK_SIZE;
   const p = model.parts.map(() => new Float64Array(chunkSize));
   const out = model.outputs.map(() => new Float64Array(chunkSize));
@@ -33,9 +36,19 @@ export function forEachTrialChunk(
     drawChunkParts(model.parts, stream.seed, k, p, length);
     evaluateOutputs(model, p, out, length);
     const n = Math.min(length, count - offset);
-    visit(p, out, n, offset);
+    yield { parts: p, outputs: out, n, offset };
     offset += n;
   }
+}
+
+/** Calls `visit` chunk by chunk with the part values and output values of trials [offset, offset + n). */
+export function forEachTrialChunk(
+  model: Model,
+  stream: TrialStream,
+  count: number,
+  visit: (parts: Float64Array[], outputs: Float64Array[], n: number, offset: number) => void,
+): void {
+  for (const chunk of trialChunks(model, stream, count)) visit(chunk.parts, chunk.outputs, chunk.n, chunk.offset);
 }
 
 export interface TrialValues {
@@ -75,25 +88,36 @@ export interface JointYield {
  * output's yield exactly.
  */
 export function jointYield(model: Model, stream: TrialStream & { runTrials: number }, trials: number): JointYield {
+  const counter = jointCounter(model);
+  forEachTrialChunk(model, stream, trials, (_p, out, n) => counter.add(out, n));
+  return counter.result(trials);
+}
+
+/** Counts trials that meet every spec window at once (lo ≤ y ≤ hi for each output that has one). */
+export function jointCounter(model: Model): { add(outputs: Float64Array[], n: number): void; result(trials: number): JointYield } {
   const checked = model.outputs.map((o, i) => ({ i, spec: o.spec })).filter((c): c is { i: number; spec: [number, number] } => c.spec !== undefined);
   let inSpec = 0;
-  forEachTrialChunk(model, stream, trials, (_p, out, n) => {
-    for (let j = 0; j < n; j++) {
-      let ok = true;
-      for (let c = 0; c < checked.length && ok; c++) {
-        const v = out[checked[c]!.i]![j]!;
-        const [lo, hi] = checked[c]!.spec;
-        ok = v >= lo && v <= hi;
-      }
-      if (ok) inSpec++;
-    }
-  });
-  const w = wilsonInterval(inSpec, trials);
   return {
-    outputs: checked.map((c) => model.outputs[c.i]!.name),
-    trials,
-    inSpec,
-    pct: trials > 0 ? (100 * inSpec) / trials : 0,
-    interval: { low: 100 * w.low, high: 100 * w.high },
+    add(outputs, n) {
+      for (let j = 0; j < n; j++) {
+        let ok = true;
+        for (let c = 0; c < checked.length && ok; c++) {
+          const v = outputs[checked[c]!.i]![j]!;
+          const [lo, hi] = checked[c]!.spec;
+          ok = v >= lo && v <= hi;
+        }
+        if (ok) inSpec++;
+      }
+    },
+    result(trials) {
+      const w = wilsonInterval(inSpec, trials);
+      return {
+        outputs: checked.map((c) => model.outputs[c.i]!.name),
+        trials,
+        inSpec,
+        pct: trials > 0 ? (100 * inSpec) / trials : 0,
+        interval: { low: 100 * w.low, high: 100 * w.high },
+      };
+    },
   };
 }

@@ -1,4 +1,4 @@
-// A source of uniform random numbers in [0, 1), passed in to everything that draws (never Math.random).
+// A source of uniform random numbers in [0, 1), passed in to everything that draws (never the global unseeded generator).
 export type UniformSource = () => number;
 
 /**
