@@ -85,7 +85,7 @@ const ROWS: Row[] = [
   { args: ['spread', CHARGER, '--seed', '4294967296'], code: 2, where: '--seed:', says: /4294967296 is out of range; accepted: a whole number from 0 to 4294967295/ },
   { args: ['spread', CHARGER, '--workers', '0'], code: 2, where: '--workers:', says: /0 is out of range; accepted: a whole number from 1 to 256/ },
   { args: ['spread', CHARGER, '--sample-rows', '0'], code: 2, where: '--sample-rows:', says: /0 is out of range/ },
-  { args: ['spread', CHARGER, '--sample-rows', '2000000'], code: 2, where: '--sample-rows:', says: /2000000 is out of range; accepted: a whole number from 1 to 250000/ },
+  { args: ['spread', CHARGER, '--sample-rows', '10000001'], code: 2, where: '--sample-rows:', says: /10000001 is out of range; accepted: a whole number from 1 to 10000000/ },
   { alone: true, args: ['spread', CHARGER, '--report', CHARGER], code: 2, where: '--report:', says: /already exists and would be overwritten; accepted: a new file name, or --force/ },
   { args: ['spread', CHARGER, '--samples', '/nonexistent-dir/x.csv', ...T], code: 2, where: '--samples:', says: /the folder \/nonexistent-dir does not exist/ },
   { args: ['spread', CHARGER, '--report', 'examples', '--force', ...T], code: 2, where: '--report:', says: /examples is a folder, not a file/ },

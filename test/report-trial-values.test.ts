@@ -3,7 +3,7 @@ import { analyze } from '../src/analysis/analyze.js';
 import { ChunkRunner } from '../src/analysis/chunk.js';
 import { buildSupplyModel } from '../src/analysis/models/supply.js';
 import { firstTrials, jointYield } from '../src/analysis/trial-values.js';
-import { renderSamplesCsv } from '../src/report/samples-csv.js';
+import { samplesCsvHeader, samplesCsvRows } from '../src/report/samples-csv.js';
 import { testSupply } from './report-supply-fixture.js';
 
 describe('trial values drawn as the engine draws them', { timeout: 120_000 }, () => {
@@ -60,11 +60,8 @@ describe('trial values drawn as the engine draws them', { timeout: 120_000 }, ()
 
   it('CSV: a header with units, one row per trial, numbers that read back to the same doubles', () => {
     const values = firstTrials(model, { seed: 'c', runTrials: 100 }, 5);
-    const csv = renderSamplesCsv({
-      ...values,
-      partUnits: model.parts.map((p) => p.unit),
-      outputUnits: model.outputs.map((o) => o.unit),
-    });
+    const header = samplesCsvHeader({ ...values, partUnits: model.parts.map((p) => p.unit), outputUnits: model.outputs.map((o) => o.unit) });
+    const csv = header + samplesCsvRows({ ...values, offset: 0 }, 0, values.count);
     const lines = csv.trimEnd().split('\r\n');
     expect(lines).toHaveLength(6);
     expect(lines[0].split(',')).toEqual(['trial', ...model.parts.map((p) => (p.unit ? `${p.name} (${p.unit})` : p.name)), ...model.outputs.map((o) => `${o.name} (${o.unit})`)]);

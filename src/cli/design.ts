@@ -42,7 +42,7 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
     refuseUnreachableTarget(grades, command);
     files.tables = gradesReportTables(grades);
   }
-  const written = writeSpreadFiles(spread, files);
+  const written = await writeSpreadFiles(spread, files);
   process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));

@@ -7,9 +7,10 @@ import { EXIT_INTERRUPTED, runCli } from './run.js';
 
 function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
   process.once(signal, () => {
-    // Output files are written synchronously through a temporary file, so this handler runs either before a write
-    // began or after it ended; removing what is still pending is the belt to those braces. Exiting ends the
-    // Monte Carlo worker threads with the process.
+    // Output files are written through a temporary file (src/cli/output-file.ts). A whole-text write is synchronous,
+    // so this handler runs before it began or after it ended; a streamed one (the samples CSV) pauses between chunks,
+    // so this handler may run mid-file: either way every temporary file still being written is removed here. Exiting
+    // ends the Monte Carlo worker threads with the process.
     removePendingTemporaries();
     process.stderr.write(`\ntrimfree: interrupted (${signal}); stopped, no output file left half-written\n`);
     process.exit(code);

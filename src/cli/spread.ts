@@ -33,7 +33,7 @@ async function run(file: string, options: SpreadCliOptions): Promise<void> {
   checkSpreadFiles(files);
   const resolved = resolveDesign(loadDesignFile(file));
   const study = await runSpread(resolved, analysisChoice(resolved, commandLineAnalysis(options), DEFAULT_SPREAD_TRIALS), progressToTerminal);
-  const written = writeSpreadFiles(study, files);
+  const written = await writeSpreadFiles(study, files);
   process.stdout.write(options.json ? stringifyReport(spreadReportJson(study, VERSION)) : renderSpreadRunText(study, { subject: file, version: VERSION }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(study));
@@ -46,7 +46,7 @@ export function spreadCommand(): Command {
     .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
     .option('--json', 'print JSON: { seed, trials, version, outputs: { NAME: { nominal, mean, sigma, interval95, worstCase, rss, yieldPct, cpk, contributions, … } } }')
     .addOption(new Option('--samples <file.csv>', 'write the Monte Carlo trials (parts and outputs, SI units) as CSV'))
-    .addOption(new Option('--sample-rows <n>', 'trials written to the samples CSV').argParser(integerOption('--sample-rows', 1, MAX_SAMPLE_ROWS)).default(DEFAULT_SAMPLE_ROWS, '100000'))
+    .addOption(new Option('--sample-rows <n>', `trials written to the samples CSV: 1 to ${MAX_SAMPLE_ROWS}, no more than the run's trials (about 0.5 kB a row)`).argParser(integerOption('--sample-rows', 1, MAX_SAMPLE_ROWS)).default(DEFAULT_SAMPLE_ROWS, '100000'))
     .addOption(reportFileFlag())
     .option('--force', 'overwrite existing output files', false)
     .addOption(seedFlag())
