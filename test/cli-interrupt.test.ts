@@ -2,7 +2,7 @@
 // shells' 128 + 2 convention), leaves no temporary or partial output file, and says so in one line; output files are
 // never replaced without --force, and with it are replaced whole, through a temporary file that does not linger.
 import { spawn, spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -61,6 +61,53 @@ describe('Ctrl-C during a long run (subprocess sent SIGINT)', { timeout: 120_000
       expect(ended.secondsToStop).toBeLessThan(15);
     });
   }
+});
+
+describe('Ctrl-C while the samples CSV is being streamed to disk (subprocess sent SIGINT)', { timeout: 120_000 }, () => {
+  it('the temporary file is removed: exit 130, one line on stderr, no CSV, no temporary file', async () => {
+    // 3e6 rows (about 1.5 GB, tens of seconds of writing): the signal is sent once the temporary file holds more
+    // than 4 MB, so it certainly comes mid-file, after the run and while rows are being written.
+    const dir = mkdtempSync(join(tmpdir(), 'trimfree-int-csv-'));
+    const child = spawn(process.execPath, [MAIN, 'spread', CHARGER, '--trials', '3000000', '--samples', 'out.csv', '--sample-rows', '3000000'], { cwd: dir });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+    let bytesAtSignal = 0;
+    let namesAtSignal: string[] = [];
+    let sentAt = 0;
+    const poll = setInterval(() => {
+      if (sentAt !== 0) return;
+      const names = readdirSync(dir);
+      const temporary = names.find((n) => /^\.out\.csv\..+\.tmp$/.test(n));
+      if (temporary === undefined) return;
+      let bytes = 0;
+      try {
+        bytes = statSync(join(dir, temporary)).size;
+      } catch {
+        return;
+      }
+      if (bytes < 4e6) return;
+      bytesAtSignal = bytes;
+      namesAtSignal = names;
+      sentAt = performance.now();
+      child.kill('SIGINT');
+    }, 20);
+    const ended = await new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((done) => child.on('close', (code, signal) => done({ code, signal })));
+    clearInterval(poll);
+    const secondsToStop = (performance.now() - sentAt) / 1000;
+    expect(sentAt, `the temporary file never passed 4 MB; stderr: ${stderr}`).toBeGreaterThan(0);
+    expect(namesAtSignal, 'mid-file: only the temporary file, no out.csv yet').toEqual([expect.stringMatching(/^\.out\.csv\..+\.tmp$/)]);
+    expect(bytesAtSignal).toBeLessThan(1e9); // far from the whole file (about 1.5 GB)
+    expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
+    expect(ended.code, stderr).toBe(130);
+    expect(stdout).toBe('');
+    expect(stderr.trim()).toMatch(/^trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
+    expect(readdirSync(dir), 'no CSV, partial or temporary').toEqual([]);
+    // Answered between two chunks (a chunk is a fraction of a second), not at the end of the file; a generous bound
+    // for a loaded two-core machine.
+    expect(secondsToStop).toBeLessThan(10);
+  });
 });
 
 describe('output files are never overwritten without --force', { timeout: 120_000 }, () => {
