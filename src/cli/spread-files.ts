@@ -17,10 +17,11 @@ import { VERSION } from './version.js';
 
 /** Rows written to the samples CSV unless --sample-rows says otherwise (about 50 MB for a typical design). */
 export const DEFAULT_SAMPLE_ROWS = 100_000;
-/** Most rows the samples CSV takes. The CSV is streamed, so memory does not grow with the rows (1 000 000 rows of the
- * charger example: 236 MB peak, of which the run itself takes 174 MB; measured with /usr/bin/time -v). The cap bounds
- * the file and the time instead: 400–700 bytes a row for the examples (up to about 1 kB for the widest design), so at
- * most about 5–10 GB, and about 7 s of writing per million rows on top of a run of at least as many trials. */
+/** Most rows the samples CSV takes. The CSV is streamed, so memory does not grow with the rows (charger example,
+ * measured with /usr/bin/time -v: 1 000 000 rows 240–280 MB peak, of which the run alone takes 175 MB; 3 000 000
+ * rows 270 MB). The cap bounds the file and the time instead: 400–700 bytes a row for the examples (up to about 1 kB
+ * for the widest design), so at most about 5–10 GB, and about 7 s of writing per million rows on top of a run of at
+ * least as many trials. */
 export const MAX_SAMPLE_ROWS = 10_000_000;
 /** Rows rendered per write: a few megabytes of text, so the piece in memory stays small. */
 const ROWS_PER_WRITE = 8192;
