@@ -2,41 +2,23 @@
 // first; this file builds it if it is missing). Checks exit codes, one-line errors naming the field path or option,
 // the refusal to overwrite without --force, atomic writes (no temporary file left), and that the JSON output
 // carries the BOM the design layer computed.
-import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { validateDesign } from '../src/design/load.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
+import { buildIfMissing, expectOneLineError, runTrimfree, type CliRun } from './cli-subprocess.js';
 import { baseDesign } from './design-fixture.js';
 
-const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 const EXAMPLES = join(PROJECT_ROOT, 'examples');
 
-beforeAll(() => {
-  if (!existsSync(MAIN)) execFileSync(process.execPath, [join(PROJECT_ROOT, 'node_modules', 'typescript', 'bin', 'tsc'), '-p', PROJECT_ROOT]);
-}, 120_000);
+beforeAll(buildIfMissing, 120_000);
 
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
+function cli(...args: string[]): CliRun {
+  return runTrimfree(args, PROJECT_ROOT);
 }
 
-function cli(...args: string[]): Run {
-  const run = spawnSync(process.execPath, [MAIN, ...args], { encoding: 'utf8', cwd: PROJECT_ROOT });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
-}
-
-function expectOneLineError(result: Run, pattern: RegExp): void {
-  expect(result.status).toBe(2);
-  expect(result.stdout).toBe('');
-  const lines = result.stderr.trimEnd().split('\n');
-  expect(lines).toHaveLength(1);
-  expect(lines[0]).toMatch(pattern);
-  expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
-}
 
 const dir = mkdtempSync(join(tmpdir(), 'trimfree-cli-design-'));
 const FAST = ['--trials', '2000', '--no-grades'];

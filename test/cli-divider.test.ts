@@ -1,26 +1,15 @@
 // `trimfree divider` as a user runs it: a subprocess of the built CLI (npm test builds dist/ first).
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../src/project-root.js';
+import { expectOneLineError, runTrimfree, type CliRun } from './cli-subprocess.js';
 
-const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 
-function divider(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const run = spawnSync(process.execPath, [MAIN, 'divider', ...args], { encoding: 'utf8' });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
+function divider(...args: string[]): CliRun {
+  return runTrimfree(['divider', ...args]);
 }
 
-function expectOneLineError(result: ReturnType<typeof divider>, pattern: RegExp): void {
-  expect(result.status).toBe(2);
-  expect(result.stdout).toBe('');
-  const lines = result.stderr.trimEnd().split('\n');
-  expect(lines).toHaveLength(1);
-  expect(lines[0]).toMatch(pattern);
-  expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
-}
 
 describe('trimfree divider (subprocess)', () => {
   it('the hand-worked 12 V example: 28.7 k over 3.3 k first, 12.121 V, +1.010 %', () => {

@@ -1,24 +1,13 @@
 // `trimfree sense` as a user runs it: a subprocess of the built CLI (npm test builds dist/ first).
 import { spawnSync } from 'node:child_process';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../src/project-root.js';
+import { expectOneLineError, MAIN, runTrimfree, type CliRun } from './cli-subprocess.js';
 
-const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 
-function sense(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const run = spawnSync(process.execPath, [MAIN, 'sense', ...args], { encoding: 'utf8' });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
+function sense(...args: string[]): CliRun {
+  return runTrimfree(['sense', ...args]);
 }
 
-function expectOneLineError(result: ReturnType<typeof sense>, where: RegExp): void {
-  expect(result.status).toBe(2);
-  expect(result.stdout).toBe('');
-  const lines = result.stderr.trimEnd().split('\n');
-  expect(lines).toHaveLength(1);
-  expect(lines[0]).toMatch(where);
-  expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
-}
 
 describe('trimfree sense (subprocess)', () => {
   it('prints ranked candidates, the Pareto front and the shunt caution', () => {

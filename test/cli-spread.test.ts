@@ -8,27 +8,18 @@ import { analyze } from '../src/analysis/analyze.js';
 import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
+import { expectOneLineError, MAIN, runTrimfree, type CliRun } from './cli-subprocess.js';
 import type { SpreadJson } from '../src/report/json.js';
 import { displayedMatches } from './report-check.js';
 
-const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 const EXAMPLES = readdirSync(join(PROJECT_ROOT, 'examples')).filter((f) => f.endsWith('.json')).map((f) => join(PROJECT_ROOT, 'examples', f));
 const CHARGER = join(PROJECT_ROOT, 'examples', 'charger-2s-liion.json');
 const FAST = ['--trials', '20000'];
 
-function spread(...args: string[]): { status: number | null; stdout: string; stderr: string } {
-  const run = spawnSync(process.execPath, [MAIN, 'spread', ...args], { encoding: 'utf8' });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
+function spread(...args: string[]): CliRun {
+  return runTrimfree(['spread', ...args]);
 }
 
-function expectOneLineError(result: ReturnType<typeof spread>, where: RegExp): void {
-  expect(result.status).toBe(2);
-  expect(result.stdout).toBe('');
-  const lines = result.stderr.trimEnd().split('\n');
-  expect(lines).toHaveLength(1);
-  expect(lines[0]).toMatch(where);
-  expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
-}
 
 describe('trimfree spread on every example (subprocess)', { timeout: 120_000 }, () => {
   it('there are examples to run', () => expect(EXAMPLES.length).toBeGreaterThanOrEqual(3));

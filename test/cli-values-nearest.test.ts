@@ -1,37 +1,16 @@
 // `trimfree values` and `trimfree nearest` as a user runs them: subprocesses of the built CLI (npm test builds
 // dist/ first; this file builds it if it is missing). Expected values: IEC 60063:2015 Table 1 (E24, E6) and
 // Table 2 (E96), hand arithmetic for errors and pairs.
-import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { PROJECT_ROOT } from '../src/project-root.js';
+import { buildIfMissing, expectOneLineError, runTrimfree, type CliRun } from './cli-subprocess.js';
 
-const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 
-beforeAll(() => {
-  if (!existsSync(MAIN)) execFileSync(process.execPath, [join(PROJECT_ROOT, 'node_modules', 'typescript', 'bin', 'tsc'), '-p', PROJECT_ROOT]);
-}, 120_000);
+beforeAll(buildIfMissing, 120_000);
 
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
+function cli(...args: string[]): CliRun {
+  return runTrimfree(args);
 }
 
-function cli(...args: string[]): Run {
-  const run = spawnSync(process.execPath, [MAIN, ...args], { encoding: 'utf8' });
-  return { status: run.status, stdout: run.stdout, stderr: run.stderr };
-}
-
-function expectOneLineError(result: Run, pattern: RegExp): void {
-  expect(result.status).toBe(2);
-  expect(result.stdout).toBe('');
-  const lines = result.stderr.trimEnd().split('\n');
-  expect(lines).toHaveLength(1);
-  expect(lines[0]).toMatch(pattern);
-  expect(result.stderr).not.toMatch(/\bat .*\.js:\d+|NaN|Infinity/);
-}
 
 describe('trimfree values (subprocess)', () => {
   it('E24 from 1k to 10k: the 24 values of IEC 60063:2015 Table 1 plus 10k, as a table with RKM codes', () => {
