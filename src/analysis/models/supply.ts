@@ -11,9 +11,9 @@
 // The physics lives in src/circuits/ (divider, combine, temperature, sense/*); this file only wires parts to it.
 import { parallelResistance, seriesResistance } from '../../circuits/combine.js';
 import { dividerVout } from '../../circuits/divider.js';
-import { diffLimit, diffOutput } from '../../circuits/sense/diff.js';
-import { directLimit, directSignal } from '../../circuits/sense/direct.js';
-import { noninvLimit, noninvOutput } from '../../circuits/sense/noninv.js';
+import { diffLimit, diffOutput, type DiffSense } from '../../circuits/sense/diff.js';
+import { directLimit, directSignal, type DirectSense } from '../../circuits/sense/direct.js';
+import { noninvLimit, noninvOutput, type NoninvSense } from '../../circuits/sense/noninv.js';
 import { REFERENCE_TEMPERATURE_C } from '../../circuits/temperature.js';
 import { InputError } from '../../errors.js';
 import type { DistributionSpec, Part } from '../../tolerance/part.js';
@@ -325,21 +325,11 @@ function legColumn(p: Float64Array[], leg: LegSlots, dT: Float64Array, n: number
   return out;
 }
 
-/** One parameter object shape for every topology, so the limit functions see a single (monomorphic) shape. */
-interface SenseParams {
-  shunt: number;
-  feedback: number;
-  ground: number;
-  r1: number;
-  r2: number;
-  r3: number;
-  r4: number;
-  commonMode: number;
-  threshold: number;
-  amplifierOffset: number;
-  biasCurrent: number;
-  compareOffset: number;
-}
+/**
+ * One parameter object shape for every topology (the union of the circuits' own parameter types), so the limit
+ * functions see a single (monomorphic) shape.
+ */
+type SenseParams = NoninvSense & DiffSense & DirectSense;
 
 /**
  * Shunt self-heating, solved in closed form. Every topology's limit is inversely proportional to the shunt
