@@ -1,5 +1,5 @@
 // Reproducibility: the same seed gives bit-identical results for 1, 2 and 4 workers (chunk k always draws from its
-// own stream seeded `${seed}:k`, and chunk results merge in chunk order); different seeds give different numbers.
+// own stream started from SHA-256 of (seed, k), and chunk results merge in chunk order); different seeds give different numbers.
 // Worker threads run the compiled JavaScript, so this file builds dist/ first (tsc emits even when another
 // engineer's file has a type error; only the worker file matters here).
 import { execFileSync } from 'node:child_process';

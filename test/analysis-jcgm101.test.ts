@@ -50,8 +50,12 @@ describe('JCGM 101:2008 9.2 additive model', () => {
     expect(Math.abs(y.sigma - 2)).toBeLessThan(0.01);
     expect(Math.abs(y.interval95.low + 3.92)).toBeLessThan(0.03);
     expect(Math.abs(y.interval95.high - 3.92)).toBeLessThan(0.03);
-    expect(Math.abs(y.shortest95.low + 3.92)).toBeLessThan(0.03);
-    expect(Math.abs(y.shortest95.high - 3.92)).toBeLessThan(0.03);
+    // The shortest interval's width is what is minimised; its position sits on a flat minimum (for a symmetric
+    // density the width grows only to second order as the interval slides), so its ends scatter more than a
+    // quantile's (standard error of a 97.5 % quantile here ≈ 0.0053): the width to 0.03, each end to 0.06.
+    expect(Math.abs(y.shortest95.high - y.shortest95.low - 7.84)).toBeLessThan(0.03);
+    expect(Math.abs(y.shortest95.low + 3.92)).toBeLessThan(0.06);
+    expect(Math.abs(y.shortest95.high - 3.92)).toBeLessThan(0.06);
     // Law of propagation: exact for a linear model, u(y) = √4 = 2; contributions 1/4 each.
     expect(y.rss.sigma).toBeCloseTo(2, 9);
     for (const c of y.contributions) expect(c.varianceShare).toBeCloseTo(0.25, 9);

@@ -160,6 +160,7 @@ describe('streaming moments (Chan, Golub & LeVeque 1979)', () => {
       specs: model.outputs.map((o) => o.spec ?? null),
       keepSamples: true,
       chunkIntervals: false,
+      perUnit: false,
     };
     const summary = new ChunkRunner(model, config).run(0);
     // Reference: draw with the one-call-per-draw generator, evaluate, reduce with the plain functions.

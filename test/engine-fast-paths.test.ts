@@ -280,6 +280,7 @@ describe('adaptive runs: each chunk’s 95 % interval from its histogram equals 
       specs: model.outputs.map((o) => o.spec ?? null),
       keepSamples: true,
       chunkIntervals: true,
+      perUnit: false,
     };
     const runner = new ChunkRunner(model, config);
     for (const k of [0, 1]) {

@@ -54,6 +54,8 @@ export const FIXTURE_RESULT: AnalysisResult = {
     }),
     shuntLoss: output({ name: 'shuntLoss', unit: 'W', nominal: 0.1125, mean: 0.1124, sigma: 0.003 }),
   },
+  ambientGridC: null,
+  allSpecs: { pct: 98.75, low: 98.68, high: 98.82, outputs: ['vout', 'ilimit'] },
 };
 
 export const FIXTURE_PARTS: Part[] = [

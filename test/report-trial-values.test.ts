@@ -16,7 +16,7 @@ describe('trial values drawn as the engine draws them', { timeout: 120_000 }, ()
     const mine = firstTrials(model, { seed: 's', chunkSize, runTrials }, 1500);
     const runner = new ChunkRunner(model, {
       seed: 's', chunkSize, trials: runTrials, ranges: model.outputs.map(() => ({ lo: -1e9, hi: 1e9 })), bins: 4,
-      specs: model.outputs.map(() => null), keepSamples: true, chunkIntervals: false,
+      specs: model.outputs.map(() => null), keepSamples: true, chunkIntervals: false, perUnit: false,
     });
     const engine = [runner.run(0), runner.run(1)];
     model.outputs.forEach((_, o) => {

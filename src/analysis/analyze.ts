@@ -64,6 +64,9 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     };
     if (m.spec) result.spec = m.spec;
     if (m.yield) result.yield = m.yield;
+    if (m.yieldAtRandomAmbient) result.yieldAtRandomAmbient = m.yieldAtRandomAmbient;
+    if (m.ambientSweep) result.ambientSweep = m.ambientSweep;
+    if (m.capabilityAmbientC !== undefined) result.capabilityAmbientC = m.capabilityAmbientC;
     if (m.ppmOut !== undefined) result.ppmOut = m.ppmOut;
     if (m.cp !== undefined) result.cp = m.cp;
     if (m.cpk !== undefined) result.cpk = m.cpk;
@@ -85,7 +88,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       'Caution: at some tolerance corners the current limit falls to zero or below: the offsets or the common-mode error exceed the threshold there. Raise the shunt voltage at the limit or tighten the parts that lead the contributions.',
     );
   }
-  const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs };
+  const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
   assertFinite(result, 'analysis');
   return result;
 }

@@ -1,6 +1,12 @@
 // The random stream of one chunk of Monte Carlo trials: seedrandom's xor128 generator (G. Marsaglia, "Xorshift
-// RNGs", Journal of Statistical Software 8(14), 2003) seeded with `${seed}:${k}` for chunk k. Seeding per chunk,
-// never per worker, is what makes a run's numbers the same for any worker count.
+// RNGs", Journal of Statistical Software 8(14), 2003) started, for chunk k, from a state derived from (seed, k)
+// through SHA-256 (FIPS 180-4, node:crypto). Seeding per chunk, never per worker, is what makes a run's numbers the
+// same for any worker count.
+//
+// Why a hash: seedrandom's own string seeding of xor128 XORs the seed's character codes into the state and steps
+// the generator, which is linear over GF(2); seeding chunk k with the string `${seed}:${k}` therefore made the
+// state words of chunks 0, 1, 2 and 3 XOR to exactly zero (and likewise across seeds). SHA-256 of the stream's name
+// gives each chunk 128 state bits with no linear relation to any other chunk's (test/chunk-seeding.test.ts).
 //
 // Why xor128: measured side by side on the development machine (2 cores, shared with other jobs, so absolute
 // figures are noisy), seedrandom's Alea cost 7–13 ns per draw through its function call and its recurrence is
@@ -10,27 +16,38 @@
 // bit-level structure, not for Monte Carlo of smooth circuit functions.
 //
 // `fillXor128` continues exactly seedrandom's xor128 recurrence (lib/xor128.js: `next` and `(next() >>> 0) / 2^32`)
-// from the state seedrandom computed from the seed, so it gives the same numbers as the library's generator, call by
-// call (a test checks it).
+// from the same state, so it gives the same numbers as the library's generator given that state, call by call (a
+// test checks it).
+import { createHash } from 'node:crypto';
 import seedrandom from 'seedrandom';
 import type { UniformSource } from '../tolerance/uniform-source.js';
 
-export function chunkSeed(seed: string, chunk: number): string {
-  return `${seed}:${chunk}`;
+/** The text whose SHA-256 gives chunk k's state: a prefix of our own, the seed and k, separated by NUL. */
+export function chunkStreamName(seed: string, chunk: number): string {
+  return `trimfree chunk stream\u0000${seed}\u0000${chunk}`;
 }
 
-/** seedrandom's xor128 for chunk k, one call per draw (the reference). */
+/** xor128's state words for chunk k: the first 16 bytes of SHA-256(chunkStreamName), little-endian 32-bit words. */
+export function chunkStateWords(seed: string, chunk: number): { x: number; y: number; z: number; w: number } {
+  const digest = createHash('sha256').update(chunkStreamName(seed, chunk), 'utf8').digest();
+  const words = { x: digest.readInt32LE(0), y: digest.readInt32LE(4), z: digest.readInt32LE(8), w: digest.readInt32LE(12) };
+  // xor128 never leaves the all-zero state; a digest starting with 128 zero bits is not expected, but is handled.
+  if ((words.x | words.y | words.z | words.w) === 0) words.w = 1;
+  return words;
+}
+
+/** seedrandom's xor128 for chunk k started from chunkStateWords, one call per draw (the reference). */
 export function chunkRandom(seed: string, chunk: number): UniformSource {
-  return seedrandom.xor128(chunkSeed(seed, chunk));
+  return seedrandom.xor128('', { state: chunkStateWords(seed, chunk) });
 }
 
 /** xor128's state words [x, y, z, w]. A typed array: the fill loops then read and write it with the same access
  *  every time (a plain object's field representation varies with the seed, which upset V8's compiled loops). */
 export type Xor128State = Int32Array;
 
-/** xor128's state after seedrandom seeded it for chunk k. */
+/** xor128's starting state for chunk k (chunkStateWords as a typed array). */
 export function chunkState(seed: string, chunk: number): Xor128State {
-  const { x, y, z, w } = seedrandom.xor128(chunkSeed(seed, chunk), { state: true }).state();
+  const { x, y, z, w } = chunkStateWords(seed, chunk);
   return Int32Array.of(x, y, z, w);
 }
 

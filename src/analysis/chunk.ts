@@ -8,6 +8,7 @@ import { evaluateOutputs, type Model } from './model.js';
 import { coverageCount, symmetricIntervalOf, symmetricStartRank } from './statistics/coverage.js';
 import type { FineHistogram } from './statistics/histogram.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
+import { countPassing, UnitChecker } from './unit-check.js';
 
 export const DEFAULT_CHUNK_SIZE = 65536;
 
@@ -24,6 +25,8 @@ export interface ChunkConfig {
   keepSamples: boolean;
   /** Adaptive runs also need each chunk's own 95 % interval ends (JCGM 101:2008 7.9). */
   chunkIntervals: boolean;
+  /** Check each unit over the model's ambient grid (unit-check.ts); off, a trial is judged at its drawn ambient only. */
+  perUnit: boolean;
 }
 
 export interface OutputChunk {
@@ -39,11 +42,18 @@ export interface OutputChunk {
   /** This chunk's probabilistically symmetric 95 % interval (adaptive runs only). */
   low95: number;
   high95: number;
+  /** Units inside this output's window at every ambient of the grid (n without a window; inSpec when not per unit). */
+  unitInSpec: number;
 }
 
 export interface ChunkSummary {
   k: number;
+  /** Each output over the trials as drawn (the ambient drawn with the unit). */
   outputs: OutputChunk[];
+  /** Units that met every window at every ambient. */
+  allInSpec: number;
+  /** Per unit: ambient[g][o] is output o over the chunk's units held at grid ambient g (no values kept). */
+  ambient: OutputChunk[][] | null;
 }
 
 export function chunkLength(config: ChunkConfig, k: number): number {
@@ -74,6 +84,7 @@ export function drawChunkParts(parts: Part[], seed: string, k: number, p: Float6
 export class ChunkRunner {
   private readonly p: Float64Array[];
   private outs: Float64Array[];
+  private readonly units: UnitChecker;
 
   /** With `reuse`, the counts buffer is reused for every chunk: only for a caller that consumes each summary
    *  before asking for the next (the in-thread run), never when summaries are transferred to another thread. */
@@ -86,6 +97,9 @@ export class ChunkRunner {
   ) {
     this.p = model.parts.map(() => new Float64Array(config.chunkSize));
     this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
+    // Without the per-unit check a model's ambient grid is ignored: units are judged as drawn.
+    const { ambient: _grid, ...asDrawn } = model;
+    this.units = new UnitChecker(config.perUnit ? model : asDrawn, config.chunkSize);
   }
 
   run(k: number): ChunkSummary {
@@ -99,9 +113,19 @@ export class ChunkRunner {
     if (allCounts === null || !this.reuse) allCounts = new Uint32Array(stride * model.outputs.length);
     else allCounts.fill(0);
     if (this.reuse) this.counts = allCounts;
-    const outputs = this.outs.map((x, o) => this.reduce(o, x, n, allCounts.subarray(o * stride, (o + 1) * stride)));
+    const outputs = this.outs.map((x, o) => this.reduce(o, x, n, allCounts.subarray(o * stride, (o + 1) * stride), config.keepSamples, config.chunkIntervals));
+    // Each unit over the ambient grid: the pass flags, and each output's reduction at every grid ambient.
+    const grid = this.units.gridC;
+    const ambient: OutputChunk[][] | null = grid ? [] : null;
+    const ambientCounts = grid ? new Uint32Array(stride * model.outputs.length * grid.length) : null;
+    this.units.check(p, n, this.outs, (g, outs) => {
+      const base = g * stride * model.outputs.length;
+      ambient!.push(outs.map((x, o) => this.reduce(o, x, n, ambientCounts!.subarray(base + o * stride, base + (o + 1) * stride), false, false)));
+    });
+    this.units.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = countPassing(this.units.pass[i]!, n)));
+    const allInSpec = countPassing(this.units.all, n);
     if (config.keepSamples) this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
-    return { k, outputs };
+    return { k, outputs, allInSpec, ambient };
   }
 
   /**
@@ -109,7 +133,7 @@ export class ChunkRunner {
    * variance needs the mean first). Each accumulator adds in trial order, as the separate reference functions do
    * (chunkMoments, countInto), so the results are bit-identical to them (a test checks it).
    */
-  private reduce(o: number, x: Float64Array, n: number, counts: Uint32Array): OutputChunk {
+  private reduce(o: number, x: Float64Array, n: number, counts: Uint32Array, keepSamples: boolean, chunkIntervals: boolean): OutputChunk {
     const { config } = this;
     const spec = config.specs[o];
     const lo = config.ranges[o]!.lo;
@@ -125,7 +149,7 @@ export class ChunkRunner {
     const m2 = n > 0 ? Math.max(0, sq - (dev * dev) / n) : 0;
     let low95 = NaN;
     let high95 = NaN;
-    if (config.chunkIntervals && n > 0 && nonFinite === 0) {
+    if (chunkIntervals && n > 0 && nonFinite === 0) {
       // The two order statistics of the interval, exact: the chunk's own histogram says which bins hold those ranks,
       // and only the values in those bins are sorted (the same values a full sort would put at those ranks).
       const h: FineHistogram = { lo, hi: config.ranges[o]!.hi, bins: config.bins, counts, min, max };
@@ -134,8 +158,8 @@ export class ChunkRunner {
       const order = new OrderStatistics([x.subarray(0, n)], h, [[r, r], [end, end]]);
       ({ low: low95, high: high95 } = symmetricIntervalOf((rank) => order.at(rank), n, 0.95));
     }
-    const samples = config.keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
-    return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95 };
+    const samples = keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
+    return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95, unitInSpec: inSpec };
   }
 }
 

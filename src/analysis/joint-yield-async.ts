@@ -1,6 +1,6 @@
 // The joint yield of trial-values.ts (every spec window met by one unit), computed chunk by chunk with a pause for the
 // event loop every few chunks, so a long run on the calling thread (grades with many trials) still answers Ctrl-C at
-// once. Draws exactly as forEachTrialChunk does (chunk k from `${seed}:k`, the engine's chunk lengths), so the answer
+// once. Draws exactly as forEachTrialChunk does (chunk k from its (seed, k) stream, the engine's chunk lengths), so the answer
 // is identical to jointYield's: test/determinism.test.ts checks that.
 import type { Model } from './model.js';
 import { jointCounter, trialChunks, type JointYield, type TrialStream } from './trial-values.js';

@@ -11,7 +11,7 @@ export type FromWorker = { type: 'chunk'; run: number; summary: ChunkSummary } |
 function transferList(summary: ChunkSummary): ArrayBuffer[] {
   // Every output's counts share one buffer; list each buffer once.
   const list = new Set<ArrayBuffer>();
-  for (const o of summary.outputs) {
+  for (const o of [...summary.outputs, ...(summary.ambient ?? []).flat()]) {
     list.add(o.counts.buffer as ArrayBuffer);
     if (o.samples) list.add(o.samples.buffer as ArrayBuffer);
   }

@@ -26,6 +26,12 @@ export interface Model {
   evaluateAll?(p: Float64Array[], outs: Float64Array[], n: number): void;
   /** Notes on how the model treats its parts (e.g. 'Monte Carlo at a fixed 25 °C'); reports show them. */
   notes?: string[];
+  /**
+   * The operating range as the per-unit check sees it: the part that holds the ambient temperature and the
+   * temperatures (°C) at which every unit is evaluated (src/analysis/unit-check.ts). Without it a unit is checked
+   * at the values drawn for it, ambient included if the model has one.
+   */
+  ambient?: { part: number; gridC: number[] };
 }
 
 /** Evaluates one output at a single point (one value per part): for nominal values and checks, not hot loops. */

@@ -11,7 +11,8 @@ import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
 import { checkOutWorkers, giveBackWorkers, startWorkersAhead } from './worker-pool.js';
-import type { Interval, MonteCarloOutput, Percentile } from './result.js';
+import type { AllSpecsYield, AmbientPoint, Interval, MonteCarloOutput, Percentile, YieldResult } from './result.js';
+import { checkedOutputs } from './unit-check.js';
 
 export type { MonteCarloOutput } from './result.js';
 import { processCapability } from './statistics/capability.js';
@@ -59,6 +60,11 @@ export interface MonteCarloOptions {
   histogramBins?: number;
   /** Trials per chunk, default 65536. Part of what a seed reproduces: change it and the numbers change. */
   chunkSize?: number;
+  /**
+   * Check every unit at each ambient of the model's grid (default true; see unit-check.ts). Off, yields are those of
+   * units at the ambient drawn with them (the benchmark keeps this case for comparison across versions).
+   */
+  perUnit?: boolean;
 }
 
 export interface MonteCarloResult {
@@ -68,6 +74,10 @@ export interface MonteCarloResult {
   chunkSize: number;
   notes: string[];
   outputs: MonteCarloOutput[];
+  /** The ambients every unit was checked at, °C; null when units were judged at their drawn ambient. */
+  ambientGridC: number[] | null;
+  /** Units that met every window at every ambient; null when no output has a window. */
+  allSpecs: AllSpecsYield | null;
 }
 
 /** Percentiles reported for every output (the 0.135 and 99.865 pair bound the ±3σ-equivalent 99.73 %). */
@@ -83,6 +93,7 @@ class Accumulator {
   min = Infinity;
   max = -Infinity;
   inSpec = 0;
+  unitInSpec = 0;
   nonFinite = 0;
   counts: Float64Array;
   samples: Float64Array[] | null;
@@ -96,6 +107,7 @@ class Accumulator {
     if (c.min < this.min) this.min = c.min;
     if (c.max > this.max) this.max = c.max;
     this.inSpec += c.inSpec;
+    this.unitInSpec += c.unitInSpec;
     this.nonFinite += c.nonFinite;
     const counts = this.counts;
     for (let b = 0; b < counts.length; b++) counts[b]! += c.counts[b]!;
@@ -132,6 +144,7 @@ function pilotRanges(model: Model, seed: string, chunkSize: number): Array<{ lo:
     specs: model.outputs.map(() => null),
     keepSamples: false,
     chunkIntervals: false,
+    perUnit: false,
   };
   const summary = new ChunkRunner(model, config).run(0);
   return summary.outputs.map((o) => widenRange(o.min, o.max));
@@ -193,8 +206,12 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
     specs: outputs.map((o) => o.spec ?? null),
     keepSamples,
     chunkIntervals: adaptive,
+    perUnit: options.perUnit ?? true,
   };
+  const gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
   const accumulators = outputs.map(() => new Accumulator(bins, keepSamples));
+  const ambientAccumulators = (gridC ?? []).map(() => outputs.map(() => new Accumulator(bins, false)));
+  let allInSpec = 0;
   const adaptiveTrack: AdaptiveState[] | null = adaptive ? outputs.map(() => adaptiveState()) : null;
   const digits = options.significantDigits ?? 2;
   let merged = 0; // chunks merged so far (in order)
@@ -208,6 +225,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
       accumulators[o]!.add(c);
       if (adaptiveTrack) pushAdaptive(adaptiveTrack[o]!, c);
     }
+    allInSpec += summary.allInSpec;
+    summary.ambient?.forEach((chunks, g) => chunks.forEach((c, o) => ambientAccumulators[g]![o]!.add(c)));
     merged++;
     trialsDone += summary.outputs[0]?.n ?? 0;
     if (keepSamples && !samplesDropped && trialsDone * outputs.length * 8 > sampleMemory) {
@@ -243,15 +262,19 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
         : `Adaptive run (JCGM 101:2008 7.9): NOT stable to ${digits} significant digits within the cap of ${maxTrials} trials; the figures are those of ${trialsDone} trials.`,
     );
   }
-  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins));
+  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! }))));
   const exact = results.every((r) => r.quantileMethod === 'exact');
   notes.push(
     exact
       ? 'Quantiles and coverage intervals from all sorted Monte Carlo values (JCGM 101:2008 7.7).'
       : `Quantiles and coverage intervals read from a ${bins}-bin histogram (the values did not fit ${Math.round(sampleMemory / 2 ** 20)} MiB); each is within the stated bound of the exact order statistic.`,
   );
-  notes.push(`Seed "${seed}": chunk k of ${chunkSize} trials draws from xor128 seeded "${seed}:k"; identical for any worker count.`);
-  return { seed, trials: trialsDone, workers, chunkSize, notes, outputs: results };
+  notes.push(`Seed "${seed}": chunk k of ${chunkSize} trials draws from xor128 started from SHA-256 of (seed, k); identical for any worker count.`);
+  notes.push(...unitNotes(gridC));
+  const checked = checkedOutputs(model);
+  const allSpecs: AllSpecsYield | null =
+    checked.length === 0 || trialsDone === 0 ? null : { ...yieldOf(allInSpec, trialsDone), outputs: checked.map((c) => outputs[c.index]!.name) };
+  return { seed, trials: trialsDone, workers, chunkSize, notes, outputs: results, ambientGridC: gridC, allSpecs };
 }
 
 let runCounter = 0;
@@ -355,7 +378,58 @@ function runOnWorkers(
   });
 }
 
-function finishOutput(output: Model['outputs'][number], a: Accumulator, range: { lo: number; hi: number }, bins: number): MonteCarloOutput {
+/** What each yield means, for the method notes. */
+function unitNotes(gridC: number[] | null): string[] {
+  if (gridC === null) return ['Yield: share of trials inside the window at the ambient drawn with each trial.'];
+  const where = gridC.length === 1 ? `at ${formatC(gridC[0]!)}` : `at each of ${gridC.length} ambients evenly spaced from ${formatC(gridC[0]!)} to ${formatC(gridC[gridC.length - 1]!)} (${gridC.map(formatC).join(', ')})`;
+  return [
+    `Yield is per unit: a trial is one unit (parts, TCRs, drifts drawn once), evaluated ${where}; it counts only if inside the window at every one. The all-specs yield asks that of every window at once.`,
+    'Yield at a random ambient: the share of trials inside the window at the ambient drawn with each trial (a random unit at a random ambient); shown beside the per-unit yield, never in its place.',
+    'Cp and Cpk: from the mean and σ of the units at each grid ambient, the worst ambient reported; they assume a normal distribution, which flat (uniform) part bands do not give: read the yield for the share of units out.',
+  ];
+}
+
+function formatC(t: number): string {
+  return `${Number(t.toFixed(3))} °C`;
+}
+
+function yieldOf(inSpec: number, n: number): YieldResult {
+  const wilson = wilsonInterval(inSpec, n);
+  return { pct: (100 * inSpec) / n, low: 100 * wilson.low, high: 100 * wilson.high };
+}
+
+/** One output at one grid ambient: the units' spread there, its 0.135 … 99.865 % band and the capability. */
+function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi: number }, bins: number, spec: [number, number] | undefined): AmbientPoint {
+  const fine: FineHistogram = { lo: range.lo, hi: range.hi, bins, counts: a.counts, min: a.min, max: a.max };
+  const mean = a.moments.mean;
+  const sigma = momentsSigma(a.moments);
+  const point: AmbientPoint = {
+    ambientC,
+    mean,
+    sigma,
+    min: a.min,
+    max: a.max,
+    band9973: { low: histogramPercentile(fine, 0.135), high: histogramPercentile(fine, 99.865) },
+    bandBound: histogramQuantileBound(fine),
+  };
+  if (spec) {
+    point.yield = yieldOf(a.inSpec, a.moments.n);
+    const capability = processCapability(spec[0], spec[1], mean, sigma);
+    if (capability) {
+      point.cp = capability.cp;
+      point.cpk = capability.cpk;
+    }
+  }
+  return point;
+}
+
+function finishOutput(
+  output: Model['outputs'][number],
+  a: Accumulator,
+  range: { lo: number; hi: number },
+  bins: number,
+  grid: Array<{ ambientC: number; accumulator: Accumulator }> | null,
+): MonteCarloOutput {
   if (a.nonFinite > 0) {
     throw new ImpossibleError(
       `output ${output.name}`,
@@ -414,16 +488,28 @@ function finishOutput(output: Model['outputs'][number], a: Accumulator, range: {
     quantileBound,
     histogram: coarseHistogram(fine),
   };
+  if (grid) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec));
   if (output.spec) {
     const [lsl, usl] = output.spec;
     result.spec = [lsl, usl];
-    const wilson = wilsonInterval(a.inSpec, n);
-    result.yield = { pct: (100 * a.inSpec) / n, low: 100 * wilson.low, high: 100 * wilson.high };
-    result.ppmOut = (1e6 * (n - a.inSpec)) / n;
-    const capability = processCapability(lsl, usl, mean, sigma);
-    if (capability) {
-      result.cp = capability.cp;
-      result.cpk = capability.cpk;
+    result.yield = yieldOf(a.unitInSpec, n);
+    result.yieldAtRandomAmbient = yieldOf(a.inSpec, n);
+    result.ppmOut = (1e6 * (n - a.unitInSpec)) / n;
+    if (result.ambientSweep) {
+      // Cp and Cpk of the units at the grid ambient where Cpk is lowest.
+      let worst: AmbientPoint | null = null;
+      for (const point of result.ambientSweep) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
+      if (worst) {
+        result.cp = worst.cp!;
+        result.cpk = worst.cpk!;
+        result.capabilityAmbientC = worst.ambientC;
+      }
+    } else {
+      const capability = processCapability(lsl, usl, mean, sigma);
+      if (capability) {
+        result.cp = capability.cp;
+        result.cpk = capability.cpk;
+      }
     }
   }
   return result;

@@ -37,7 +37,7 @@ export interface Contribution {
 }
 
 export interface YieldResult {
-  /** Percentage of Monte Carlo trials inside the spec window. */
+  /** Percentage of units inside the window (what counts as inside is said where the yield is given). */
   pct: number;
   /** 95 % Wilson score interval for the yield, in %. */
   low: number;
@@ -54,6 +54,28 @@ export interface Percentile {
   /** Percent, e.g. 2.5. */
   pct: number;
   value: number;
+}
+
+/** All units held at one ambient of the operating grid. */
+export interface AmbientPoint {
+  ambientC: number;
+  mean: number;
+  sigma: number;
+  min: number;
+  max: number;
+  /** The 0.135 % and 99.865 % percentiles (the ±3σ-equivalent 99.73 % band), read from the fine histogram. */
+  band9973: Interval;
+  /** Largest error of the band ends (one fine histogram bin), output unit. */
+  bandBound: number;
+  /** Units inside the window at this ambient (with a window). */
+  yield?: YieldResult;
+  cp?: number;
+  cpk?: number;
+}
+
+export interface AllSpecsYield extends YieldResult {
+  /** The outputs whose windows a unit had to meet. */
+  outputs: string[];
 }
 
 /** What Monte Carlo alone tells of one output (JCGM 101:2008). */
@@ -76,12 +98,24 @@ export interface MonteCarloOutput {
   quantileMethod: 'exact' | 'histogram';
   /** Largest possible error of each quantile and interval end (0 when exact), output unit. */
   quantileBound: number;
-  /** Present when the output has a spec window. */
+  /**
+   * Per unit: the share of units inside the window at every ambient of the operating grid (present with a window).
+   * Without a grid (see MonteCarloResult.ambientGridC), at the ambient drawn with each unit.
+   */
   yield?: YieldResult;
+  /** The share of trials inside the window at the ambient drawn with each trial (a random unit at a random ambient). */
+  yieldAtRandomAmbient?: YieldResult;
+  /** Units out of the window somewhere in the range, per million (1e6 − yield·1e4). */
   ppmOut?: number;
-  /** Process capability (NIST/SEMATECH e-Handbook 6.1.6); present with a spec window and σ > 0. */
+  /**
+   * Process capability (NIST/SEMATECH e-Handbook 6.1.6); present with a spec window and σ > 0. With an ambient
+   * grid, from the units at the grid ambient where Cpk is lowest (capabilityAmbientC); they assume normality.
+   */
   cp?: number;
   cpk?: number;
+  capabilityAmbientC?: number;
+  /** The units at each ambient of the operating grid (per-unit runs). */
+  ambientSweep?: AmbientPoint[];
   histogram: Histogram;
 }
 
@@ -97,9 +131,13 @@ export interface AnalysisResult {
   seed: string;
   trials: number;
   workers: number;
-  /** Trials per chunk; chunk k draws from its own generator seeded `${seed}:${k}`. */
+  /** Trials per chunk; chunk k draws from its own xor128 stream, started from SHA-256 of (seed, k). */
   chunkSize: number;
   /** How the numbers were obtained (distributions, temperature handling, quantile method, adaptive stop). */
   notes: string[];
   outputs: Record<string, OutputResult>;
+  /** The ambients every unit was checked at, °C (null: judged at the ambient drawn with it). */
+  ambientGridC: number[] | null;
+  /** Units that met every window at every ambient (null without windows). */
+  allSpecs: AllSpecsYield | null;
 }

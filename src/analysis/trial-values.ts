@@ -1,5 +1,5 @@
 // The values of individual Monte Carlo trials, drawn exactly as the engine draws them (chunk k from its own stream
-// seeded `${seed}:k`, part i taking the chunk's draws i·n … (i+1)·n − 1, then every output evaluated: the same calls
+// started from SHA-256 of (seed, k) (chunk-random.ts), part i taking the chunk's draws i·n … (i+1)·n − 1, then every output evaluated: the same calls
 // as ChunkRunner.run, drawChunkParts then evaluateOutputs), so trial j here is trial j of the engine's run with the
 // same seed, chunk size and trial count. Used for the samples CSV and for the joint yield (every spec met by one
 // unit), which the per-output summaries cannot give.

@@ -19,6 +19,7 @@ import { InputError } from '../../errors.js';
 import type { DistributionSpec, Part } from '../../tolerance/part.js';
 import { partFromBound, partFromTolerance } from '../../tolerance/part.js';
 import type { Model, ModelOutput } from '../model.js';
+import { ambientGrid } from '../ambient-grid.js';
 
 /** One resistor: value, tolerance (fraction), TCR bound (1/K), drift allowance (fraction), distribution. */
 export interface ResistorSpec {
@@ -70,8 +71,13 @@ export interface TemperatureSpec {
   /** Operating ambient range, °C; worst case takes both ends. */
   minC: number;
   maxC: number;
-  /** Monte Carlo draws the ambient uniformly over the range, or holds it at one temperature. */
+  /**
+   * The ambient drawn with each Monte Carlo trial (the random-ambient figures and the distribution statistics):
+   * uniform over the range, or held at one temperature. The per-unit check covers the whole range either way.
+   */
   monteCarlo: 'uniform' | { fixedC: number };
+  /** Ambients per unit for the per-unit check, evenly spaced over minC..maxC, ends included (default ambient-grid.ts). */
+  unitPoints?: number;
 }
 
 export interface ShuntSpec extends ResistorSpec {
@@ -504,7 +510,10 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     if (window) output.spec = [window[0], window[1]];
     return output;
   });
-  return { parts: list.parts, outputs, notes, evaluateAll };
+  if (t.unitPoints !== undefined && (!Number.isInteger(t.unitPoints) || t.unitPoints < 2 || t.unitPoints > 101)) {
+    throw new InputError('supply.temperature.unitPoints', `${t.unitPoints} is not a usable count`, 'a whole number of ambients from 2 to 101');
+  }
+  return { parts: list.parts, outputs, notes, evaluateAll, ambient: { part: temperature, gridC: ambientGrid(t.minC, t.maxC, t.unitPoints) } };
 }
 
 function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot, notes: string[]): SenseEvaluator {
