@@ -7,6 +7,7 @@ import { monteCarlo } from '../src/analysis/monte-carlo.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
 import { evaluateOutputs } from '../src/analysis/model.js';
 import { drawChunkParts } from '../src/analysis/chunk.js';
+import { jointYield } from '../src/analysis/trial-values.js';
 import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
@@ -89,6 +90,17 @@ describe('per-unit yield against quadrature', () => {
     expect(mc.ambientGridC).toEqual([25]);
   });
 
+  it('the grade search’s joint counter counts the same units as the engine’s all-specs yield (a divider with feedback-pin bias, a full and a short chunk)', async () => {
+    const spec: SupplySpec = { ...plainDivider(-40, 90), windows: { vout: [5 * 0.996, 5 * 1.004] } };
+    spec.divider.feedbackBias = { nominal: 0, plusMinus: 50e-9 };
+    const model = buildSupplyModel(spec);
+    const trials = 70_000; // a full chunk and a short one
+    const mc = await monteCarlo(model, { trials, seed: 'joint', workers: 1 });
+    const joint = jointYield(buildSupplyModel(spec), { seed: 'joint', runTrials: trials }, trials);
+    expect(joint.inSpec).toBe(Math.round((mc.allSpecs!.pct / 100) * trials));
+    expect(joint.pct).toBe(mc.allSpecs!.pct);
+  });
+
   it('the same numbers for 1 and 2 workers', async () => {
     const spec = plainDivider(-40, 90);
     const one = await monteCarlo(buildSupplyModel(spec), { trials: 150_000, seed: 'w', workers: 1 });
@@ -98,14 +110,16 @@ describe('per-unit yield against quadrature', () => {
 });
 
 describe('the ambient grid', () => {
-  it('evenly spaced, ends included; one point for a single temperature', () => {
-    expect(ambientGrid(0, 40)).toEqual([0, 10, 20, 30, 40]);
-    expect(ambientGrid(-40, 90, 2)).toEqual([-40, 90]);
+  it('evenly spaced, ends included, 25 °C added inside the range; one point for a single temperature', () => {
+    expect(ambientGrid(0, 40)).toEqual([0, 10, 20, 25, 30, 40]);
+    expect(ambientGrid(-40, 90)).toEqual([-40, -7.5, 25, 57.5, 90]);
+    expect(ambientGrid(-40, 90, 2)).toEqual([-40, 25, 90]);
+    expect(ambientGrid(30, 60, 2)).toEqual([30, 60]);
     expect(ambientGrid(25, 25)).toEqual([25]);
   });
 
   it.each(['charger-2s-liion.json', 'bench-adjustable.json', 'led-driver-highside.json'])(
-    '%s: every unit’s extremes over the 5-point grid are within 1e-3 of the window half-width of those over 129 points',
+    '%s: every unit’s extremes over the default grid are within 1e-3 of the window half-width of those over 129 points',
     (file) => {
       const resolved = resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', file)));
       const model = buildSupplyModel(resolved.spec);

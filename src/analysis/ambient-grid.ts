@@ -9,11 +9,18 @@
 /** Points over a range when nothing else is said: the ends and three between (spacing a quarter of the range). */
 export const DEFAULT_AMBIENT_POINTS = 5;
 
-/** `points` evenly spaced temperatures from minC to maxC (one when the range is a single temperature). */
+/** The reference temperature of datasheet values, °C; added to the grid when inside the range (reports show it). */
+const ROOM_C = 25;
+
+/**
+ * `points` evenly spaced temperatures from minC to maxC, plus 25 °C when the range holds it and it is not already
+ * a point (ascending; one temperature when the range is a single one).
+ */
 export function ambientGrid(minC: number, maxC: number, points = DEFAULT_AMBIENT_POINTS): number[] {
   if (!(maxC > minC)) return [minC];
   const count = Math.max(2, Math.floor(points));
   const grid: number[] = [];
   for (let g = 0; g < count; g++) grid.push(g === count - 1 ? maxC : minC + ((maxC - minC) * g) / (count - 1));
-  return grid;
+  if (ROOM_C > minC && ROOM_C < maxC && !grid.includes(ROOM_C)) grid.push(ROOM_C);
+  return grid.sort((a, b) => a - b);
 }

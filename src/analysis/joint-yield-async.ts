@@ -15,7 +15,7 @@ export async function jointYieldAsync(model: Model, stream: TrialStream, trials:
   const counter = jointCounter(model);
   let k = 0;
   for (const chunk of trialChunks(model, stream, trials)) {
-    counter.add(chunk.outputs, chunk.n);
+    counter.add(chunk.parts, chunk.outputs, chunk.n);
     if (++k % CHUNKS_PER_PAUSE === 0) await pause();
   }
   return counter.result(trials);

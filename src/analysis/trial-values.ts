@@ -7,6 +7,7 @@ import { DEFAULT_CHUNK_SIZE, drawChunkParts } from './chunk.js';
 import { evaluateOutputs, type Model } from './model.js';
 import type { Interval } from './result.js';
 import { wilsonInterval } from './statistics/wilson.js';
+import { checkedOutputs, countPassing, UnitChecker } from './unit-check.js';
 
 export interface TrialStream {
   seed: string;
@@ -77,42 +78,39 @@ export interface JointYield {
   outputs: string[];
   trials: number;
   inSpec: number;
-  /** Percent of trials meeting every spec window at once, with its 95 % Wilson interval in %. */
+  /** Percent of units meeting every spec window at once at every ambient, with its 95 % Wilson interval in %. */
   pct: number;
   interval: Interval;
 }
 
 /**
- * Share of trials in which every output with a spec window is inside it: the yield of a unit that must meet all
- * of them. Same inclusive test as the engine's per-output yield (lo ≤ y ≤ hi). With one spec window it equals that
- * output's yield exactly.
+ * Share of units in which every output with a spec window is inside it at every ambient of the grid: the yield of a
+ * unit that must meet all of them (unit-check.ts). Equals the engine's allSpecs figure for the same run, and with one
+ * spec window that output's per-unit yield.
  */
 export function jointYield(model: Model, stream: TrialStream & { runTrials: number }, trials: number): JointYield {
   const counter = jointCounter(model);
-  forEachTrialChunk(model, stream, trials, (_p, out, n) => counter.add(out, n));
+  forEachTrialChunk(model, stream, trials, (p, out, n) => counter.add(p, out, n));
   return counter.result(trials);
 }
 
-/** Counts trials that meet every spec window at once (lo ≤ y ≤ hi for each output that has one). */
-export function jointCounter(model: Model): { add(outputs: Float64Array[], n: number): void; result(trials: number): JointYield } {
-  const checked = model.outputs.map((o, i) => ({ i, spec: o.spec })).filter((c): c is { i: number; spec: [number, number] } => c.spec !== undefined);
+/**
+ * Counts units that meet every spec window at once, at every ambient of the model's grid (unit-check.ts: the same
+ * test as the engine's all-specs yield).
+ */
+export function jointCounter(model: Model): { add(parts: Float64Array[], outputs: Float64Array[], n: number): void; result(trials: number): JointYield } {
+  let checker: UnitChecker | null = null;
   let inSpec = 0;
   return {
-    add(outputs, n) {
-      for (let j = 0; j < n; j++) {
-        let ok = true;
-        for (let c = 0; c < checked.length && ok; c++) {
-          const v = outputs[checked[c]!.i]![j]!;
-          const [lo, hi] = checked[c]!.spec;
-          ok = v >= lo && v <= hi;
-        }
-        if (ok) inSpec++;
-      }
+    add(parts, outputs, n) {
+      if (checker === null || parts[0]!.length > checker.all.length) checker = new UnitChecker(model, parts[0]?.length ?? n);
+      checker.check(parts, n, outputs);
+      inSpec += countPassing(checker.all, n);
     },
     result(trials) {
       const w = wilsonInterval(inSpec, trials);
       return {
-        outputs: checked.map((c) => model.outputs[c.i]!.name),
+        outputs: checkedOutputs(model).map((c) => model.outputs[c.index]!.name),
         trials,
         inSpec,
         pct: trials > 0 ? (100 * inSpec) / trials : 0,
