@@ -9,7 +9,7 @@ import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { AnalysisResult, OutputResult } from './result.js';
 import { rss } from './rss.js';
-import { worstCase } from './worst-case.js';
+import { worstCase, type WorstCaseOptions } from './worst-case.js';
 
 export interface AnalyzeOptions extends Omit<MonteCarloOptions, 'source' | 'ranges'> {
   /** Enumerate every vertex up to this many varying parts (default 20), else sensitivity signs then a check. */
@@ -38,6 +38,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const { maxEnumerationVariables: _ignored, ...mcOptions } = options;
   const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}) });
 
+  const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
   const outputs: Record<string, OutputResult> = {};
   model.outputs.forEach((output, o) => {
     const m = mc.outputs[o]!;
@@ -65,8 +66,9 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     if (m.spec) result.spec = m.spec;
     if (m.yield) result.yield = m.yield;
     if (m.yieldAtRandomAmbient) result.yieldAtRandomAmbient = m.yieldAtRandomAmbient;
-    if (m.ambientSweep) result.ambientSweep = m.ambientSweep;
+    if (m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
     if (m.capabilityAmbientC !== undefined) result.capabilityAmbientC = m.capabilityAmbientC;
+    if (m.numericalTolerance !== undefined) result.numericalTolerance = m.numericalTolerance;
     if (m.ppmOut !== undefined) result.ppmOut = m.ppmOut;
     if (m.cp !== undefined) result.cp = m.cp;
     if (m.cpk !== undefined) result.cpk = m.cpk;
@@ -91,6 +93,15 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
   assertFinite(result, 'analysis');
   return result;
+}
+
+/** The model with its ambient held at t °C: the nominal output and the worst case over every other part's band. */
+function nominalAndWorstAt(model: Model, t: number, wcOptions: WorstCaseOptions): Array<{ nominal: number; worstCase: { low: number; high: number } }> {
+  const ambient = model.ambient!.part;
+  const parts = model.parts.map((part, i) => (i === ambient ? { ...part, nominal: t, minus: 0, plus: 0, distribution: { kind: 'fixed' as const, value: t } } : part));
+  const held: Model = { ...model, parts };
+  const nominal = nominalOutputs(held);
+  return worstCase(held, wcOptions).map((w) => ({ nominal: nominal[w.name]!, worstCase: { low: w.min, high: w.max } }));
 }
 
 /** Fails loudly, naming the field, rather than hand a NaN or an infinity to a report. */

@@ -44,6 +44,8 @@ export interface OutputChunk {
   high95: number;
   /** Units inside this output's window at every ambient of the grid (n without a window; inSpec when not per unit). */
   unitInSpec: number;
+  /** Trials below the window's low end (0 without a window); those above are n − inSpec − belowSpec. */
+  belowSpec: number;
 }
 
 export interface ChunkSummary {
@@ -141,6 +143,7 @@ export class ChunkRunner {
     const scan = scanPass(x, n, lo, config.bins / (config.ranges[o]!.hi - lo), config.bins, counts, spec ? spec[0] : -Infinity, spec ? spec[1] : Infinity);
     const { min, max, sum } = scan;
     const inSpec = spec ? scan.inSpec : n;
+    const belowSpec = spec ? scan.below : 0;
     // A NaN or an infinity makes the sum non-finite; only then count them (the run then fails loudly).
     const nonFinite = Number.isFinite(sum) ? 0 : countNonFinite(x, n);
     // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
@@ -159,7 +162,7 @@ export class ChunkRunner {
       ({ low: low95, high: high95 } = symmetricIntervalOf((rank) => order.at(rank), n, 0.95));
     }
     const samples = keepSamples ? (n === x.length ? x : x.slice(0, n)) : null;
-    return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95, unitInSpec: inSpec };
+    return { n, mean, m2, min, max, inSpec, nonFinite, counts, samples, low95, high95, unitInSpec: inSpec, belowSpec };
   }
 }
 
@@ -167,13 +170,14 @@ export class ChunkRunner {
 // while it runs, by on-stack replacement; code after the loop that has not run yet can make that compiled code
 // deoptimise on later calls: see chunk-random.ts). This still happens now and then to the scan, on V8 11.3.
 
-/** min, max, sum (in trial order), histogram counts and the count inside [specLo, specHi]. */
-function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: number, counts: Uint32Array, specLo: number, specHi: number): { min: number; max: number; sum: number; inSpec: number } {
+/** min, max, sum (in trial order), histogram counts, the count inside [specLo, specHi] and the count below specLo. */
+function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: number, counts: Uint32Array, specLo: number, specHi: number): { min: number; max: number; sum: number; inSpec: number; below: number } {
   const above = bins + 1;
   let min = Infinity;
   let max = -Infinity;
   let sum = 0;
   let inSpec = 0;
+  let below = 0;
   for (let j = 0; j < n; j++) {
     const v = x[j]!;
     min = Math.min(min, v);
@@ -184,8 +188,9 @@ function scanPass(x: Float64Array, n: number, lo: number, scale: number, bins: n
     const t = (v - lo) * scale;
     counts[t < 0 ? 0 : t >= bins ? above : (t | 0) + 1]!++;
     inSpec += v >= specLo && v <= specHi ? 1 : 0;
+    below += v < specLo ? 1 : 0;
   }
-  return { min, max, sum, inSpec };
+  return { min, max, sum, inSpec, below };
 }
 
 /** Σ(x − mean)² and Σ(x − mean), in trial order. */

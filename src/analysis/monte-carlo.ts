@@ -1,5 +1,5 @@
-// Monte Carlo engine (JCGM 101:2008): trials in fixed chunks, chunk k drawn from its own generator seeded
-// `${seed}:${k}`, chunks spread over worker threads, each chunk reduced to moments + fine histogram (+ values while
+// Monte Carlo engine (JCGM 101:2008): trials in fixed chunks, chunk k drawn from its own generator started from
+// SHA-256 of (seed, k) (chunk-random.ts), each trial one unit checked over the ambient grid (unit-check.ts), chunks spread over worker threads, each chunk reduced to moments + fine histogram (+ values while
 // they fit the memory cap), and the reductions merged strictly in chunk order. Hence the same seed gives
 // bit-identical results for 1, 2 or 16 workers. With workers = 1 (or a Model that has no JSON source) the chunks
 // run on the calling thread.
@@ -28,7 +28,7 @@ import {
 } from './statistics/histogram.js';
 import { mergeMoments, momentsSigma, type Moments } from './statistics/moments.js';
 import { wilsonInterval } from './statistics/wilson.js';
-import { adaptiveState, adaptiveStable, pushAdaptive, type AdaptiveState } from './adaptive.js';
+import { adaptiveState, adaptiveStable, numericalTolerance, pushAdaptive, type AdaptiveState } from './adaptive.js';
 
 export interface Progress {
   trialsDone: number;
@@ -94,6 +94,7 @@ class Accumulator {
   max = -Infinity;
   inSpec = 0;
   unitInSpec = 0;
+  belowSpec = 0;
   nonFinite = 0;
   counts: Float64Array;
   samples: Float64Array[] | null;
@@ -108,6 +109,7 @@ class Accumulator {
     if (c.max > this.max) this.max = c.max;
     this.inSpec += c.inSpec;
     this.unitInSpec += c.unitInSpec;
+    this.belowSpec += c.belowSpec;
     this.nonFinite += c.nonFinite;
     const counts = this.counts;
     for (let b = 0; b < counts.length; b++) counts[b]! += c.counts[b]!;
@@ -271,6 +273,10 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   );
   notes.push(`Seed "${seed}": chunk k of ${chunkSize} trials draws from xor128 started from SHA-256 of (seed, k); identical for any worker count.`);
   notes.push(...unitNotes(gridC));
+  if (adaptiveTrack) {
+    // The numerical tolerance δ each output's u(y) was held to (JCGM 101:2008 7.9.2), for the reports.
+    results.forEach((r, o) => (r.numericalTolerance = numericalTolerance(momentsSigma(adaptiveTrack[o]!.all), digits)));
+  }
   const checked = checkedOutputs(model);
   const allSpecs: AllSpecsYield | null =
     checked.length === 0 || trialsDone === 0 ? null : { ...yieldOf(allInSpec, trialsDone), outputs: checked.map((c) => outputs[c.index]!.name) };
@@ -493,6 +499,8 @@ function finishOutput(
     const [lsl, usl] = output.spec;
     result.spec = [lsl, usl];
     result.yield = yieldOf(a.unitInSpec, n);
+    result.histogram.belowSpec = a.belowSpec;
+    result.histogram.aboveSpec = n - a.inSpec - a.belowSpec;
     result.yieldAtRandomAmbient = yieldOf(a.inSpec, n);
     result.ppmOut = (1e6 * (n - a.unitInSpec)) / n;
     if (result.ambientSweep) {

@@ -48,6 +48,9 @@ export interface Histogram {
   /** Bin edges, length counts.length + 1, ascending (the first and last bins reach the observed min and max). */
   edges: number[];
   counts: number[];
+  /** With a window: how many of the counted values lie below its low end and above its high end (exact counts). */
+  belowSpec?: number;
+  aboveSpec?: number;
 }
 
 export interface Percentile {
@@ -71,6 +74,10 @@ export interface AmbientPoint {
   yield?: YieldResult;
   cp?: number;
   cpk?: number;
+  /** Every part at its nominal value, at this ambient (added by analyze). */
+  nominal?: number;
+  /** Worst case with the ambient held here: every other part's band ends enumerated (added by analyze). */
+  worstCase?: Interval;
 }
 
 export interface AllSpecsYield extends YieldResult {
@@ -116,6 +123,8 @@ export interface MonteCarloOutput {
   capabilityAmbientC?: number;
   /** The units at each ambient of the operating grid (per-unit runs). */
   ambientSweep?: AmbientPoint[];
+  /** Adaptive runs: the numerical tolerance δ of u(y) the run was held to (JCGM 101:2008 7.9.2), output unit. */
+  numericalTolerance?: number;
   histogram: Histogram;
 }
 

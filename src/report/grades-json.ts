@@ -26,7 +26,7 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       outputs: Object.fromEntries(
         names.map((name) => {
           const o = row.result.outputs[name]!;
-          return [name, { sigma: o.sigma, interval95: o.interval95, worstCase: { min: o.worstCase.min, max: o.worstCase.max }, yieldPct: o.yield?.pct ?? null, cpk: o.cpk !== undefined && Number.isFinite(o.cpk) ? o.cpk : null }];
+          return [name, { sigma: o.sigma, interval95: o.interval95, worstCase: { min: o.worstCase.min, max: o.worstCase.max }, yieldPct: o.yield?.pct ?? null, yieldAtRandomAmbientPct: o.yieldAtRandomAmbient?.pct ?? null, cpk: o.cpk !== undefined && Number.isFinite(o.cpk) ? o.cpk : null }];
         }),
       ),
     })),

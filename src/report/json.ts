@@ -20,13 +20,35 @@ export interface SpreadJsonOutput {
   quantileBound: number;
   worstCase: { min: number; max: number; minVertex: Record<string, string>; maxVertex: Record<string, string>; method: string };
   rss: { sigma: number; halfWidth: number; center: number };
+  /** Per unit: share of units inside the window at every ambient checked. */
   yieldPct: number | null;
   yieldInterval95: { low: number; high: number } | null;
+  /** Share of trials inside the window at the ambient drawn with each (a random unit at a random ambient). */
+  yieldAtRandomAmbientPct: number | null;
+  yieldAtRandomAmbientInterval95: { low: number; high: number } | null;
+  /** Units out of the window at some ambient, per million. */
   ppmOut: number | null;
   cp: number | null;
   cpk: number | null;
+  /** The ambient whose units gave Cp and Cpk (the worst one), °C; null when from all trials. */
+  capabilityAmbientC: number | null;
+  median: number | null;
+  /** Adaptive runs: the numerical tolerance δ of σ reached (JCGM 101:2008 7.9.2). */
+  numericalTolerance: number | null;
+  /** The units held at each ambient checked. */
+  ambientSweep: Array<{
+    ambientC: number;
+    nominal: number | null;
+    mean: number;
+    sigma: number;
+    band9973: { low: number; high: number };
+    bandBound: number;
+    worstCase: { low: number; high: number } | null;
+    yieldPct: number | null;
+    cpk: number | null;
+  }>;
   contributions: Array<{ part: string; varianceShare: number; sensitivity: number; standardUncertainty: number }>;
-  histogram: { edges: number[]; counts: number[] };
+  histogram: { edges: number[]; counts: number[]; belowSpec: number | null; aboveSpec: number | null };
   notes: string[];
 }
 
@@ -34,6 +56,12 @@ export interface SpreadJson {
   seed: string;
   trials: number;
   version: string;
+  /** Per unit: share of units meeting every window at every ambient checked. */
+  allSpecsYieldPct: number | null;
+  allSpecsYieldInterval95: { low: number; high: number } | null;
+  allSpecsOutputs: string[];
+  /** The ambients each unit was checked at, °C (null: at the ambient drawn with it). */
+  ambientGridC: number[] | null;
   method: string[];
   cautions: string[];
   outputs: Record<string, SpreadJsonOutput>;
@@ -92,16 +120,37 @@ export function outputJson(output: OutputResult): SpreadJsonOutput {
     yieldInterval95: output.yield && Number.isFinite(output.yield.low) && Number.isFinite(output.yield.high)
       ? { low: output.yield.low, high: output.yield.high }
       : null,
+    yieldAtRandomAmbientPct: output.yieldAtRandomAmbient ? f(output.yieldAtRandomAmbient.pct, 'yieldAtRandomAmbientPct') : null,
+    yieldAtRandomAmbientInterval95: output.yieldAtRandomAmbient ? interval(output.yieldAtRandomAmbient, 'yieldAtRandomAmbientInterval95') : null,
     ppmOut: hasSpec ? finiteOrNull(output.ppmOut, 'ppmOut', 'not given by the analysis', notes) : null,
     cp: finiteOrNull(output.cp, 'cp', noSpread, notes),
     cpk: finiteOrNull(output.cpk, 'cpk', noSpread, notes),
+    capabilityAmbientC: output.capabilityAmbientC ?? null,
+    median: output.percentiles.find((p) => p.pct === 50)?.value ?? null,
+    numericalTolerance: output.numericalTolerance ?? null,
+    ambientSweep: (output.ambientSweep ?? []).map((p) => ({
+      ambientC: f(p.ambientC, 'ambientSweep.ambientC'),
+      nominal: p.nominal ?? null,
+      mean: f(p.mean, 'ambientSweep.mean'),
+      sigma: f(p.sigma, 'ambientSweep.sigma'),
+      band9973: interval(p.band9973, 'ambientSweep.band9973'),
+      bandBound: f(p.bandBound, 'ambientSweep.bandBound'),
+      worstCase: p.worstCase ? interval(p.worstCase, 'ambientSweep.worstCase') : null,
+      yieldPct: p.yield ? f(p.yield.pct, 'ambientSweep.yieldPct') : null,
+      cpk: p.cpk !== undefined && Number.isFinite(p.cpk) ? p.cpk : null,
+    })),
     contributions: output.contributions.map((c) => ({
       part: c.part,
       varianceShare: f(c.varianceShare, `contributions[${c.part}].varianceShare`),
       sensitivity: f(c.sensitivity, `contributions[${c.part}].sensitivity`),
       standardUncertainty: f(c.standardUncertainty, `contributions[${c.part}].standardUncertainty`),
     })),
-    histogram: { edges: output.histogram.edges.map((e, i) => f(e, `histogram.edges[${i}]`)), counts: output.histogram.counts.slice() },
+    histogram: {
+      edges: output.histogram.edges.map((e, i) => f(e, `histogram.edges[${i}]`)),
+      counts: output.histogram.counts.slice(),
+      belowSpec: output.histogram.belowSpec ?? null,
+      aboveSpec: output.histogram.aboveSpec ?? null,
+    },
     notes,
   };
 }
@@ -113,6 +162,10 @@ export function spreadJson(result: AnalysisResult, meta: SpreadJsonMeta): Spread
     seed: result.seed,
     trials: result.trials,
     version: meta.version,
+    allSpecsYieldPct: result.allSpecs ? result.allSpecs.pct : null,
+    allSpecsYieldInterval95: result.allSpecs ? { low: result.allSpecs.low, high: result.allSpecs.high } : null,
+    allSpecsOutputs: result.allSpecs ? result.allSpecs.outputs.slice() : [],
+    ambientGridC: result.ambientGridC ? result.ambientGridC.slice() : null,
     method: result.notes.slice(),
     cautions: meta.cautions ? meta.cautions.slice() : [],
     outputs,

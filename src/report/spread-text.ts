@@ -41,10 +41,12 @@ export function outputFigures(output: OutputResult): FigureRow[] {
   const d = outputDigits(output);
   const u = output.unit;
   const v = (x: number): string => formatValue(x, u, d);
+  const median = output.percentiles.find((p) => p.pct === 50)?.value;
   const rows: FigureRow[] = [
     { field: 'nominal', label: 'nominal (every part at its nominal value)', text: v(output.nominal), values: [output.nominal] },
     { field: 'spec', label: 'spec window', text: output.spec ? `${v(output.spec[0])} … ${v(output.spec[1])}` : MISSING, values: output.spec ? [...output.spec] : [] },
     { field: 'mean', label: 'Monte Carlo mean', text: v(output.mean), values: [output.mean] },
+    ...(median === undefined ? [] : [{ field: 'median', label: 'Monte Carlo median', text: v(median), values: [median] }]),
     { field: 'sigma', label: 'Monte Carlo σ', text: formatSpread(output.sigma, u), values: [output.sigma] },
     { field: 'interval95', label: '95 % coverage interval', text: `${v(output.interval95.low)} … ${v(output.interval95.high)}`, values: [output.interval95.low, output.interval95.high] },
     { field: 'interval9973', label: '99.73 % coverage interval', text: `${v(output.interval9973.low)} … ${v(output.interval9973.high)}`, values: [output.interval9973.low, output.interval9973.high] },
@@ -53,15 +55,57 @@ export function outputFigures(output: OutputResult): FigureRow[] {
     { field: 'rss', label: 'RSS: σ, ± tolerance half-width', text: `σ ${formatSpread(output.rss.sigma, u)}, ± ${formatSpread(output.rss.halfWidth, u)}`, values: [output.rss.sigma, output.rss.halfWidth] },
     {
       field: 'yieldPct',
-      label: 'yield (95 % Wilson interval)',
+      label: 'yield per unit: inside the window at every ambient checked (95 % Wilson interval)',
       text: output.yield ? `${formatYieldPct(output.yield.pct)} (${formatYieldPct(output.yield.low)} … ${formatYieldPct(output.yield.high)})` : MISSING,
       values: output.yield ? [output.yield.pct, output.yield.low, output.yield.high] : [],
     },
-    { field: 'ppmOut', label: 'out of spec, ppm', text: formatPpm(output.ppmOut), values: output.ppmOut !== undefined && Number.isFinite(output.ppmOut) ? [output.ppmOut] : [] },
-    { field: 'cp', label: 'Cp', text: formatIndex(output.cp), values: output.cp !== undefined && Number.isFinite(output.cp) ? [output.cp] : [] },
-    { field: 'cpk', label: 'Cpk', text: formatIndex(output.cpk), values: output.cpk !== undefined && Number.isFinite(output.cpk) ? [output.cpk] : [] },
+    {
+      field: 'yieldAtRandomAmbientPct',
+      label: 'yield at a random ambient: a unit at the ambient drawn with it (95 % Wilson interval)',
+      text: output.yieldAtRandomAmbient
+        ? `${formatYieldPct(output.yieldAtRandomAmbient.pct)} (${formatYieldPct(output.yieldAtRandomAmbient.low)} … ${formatYieldPct(output.yieldAtRandomAmbient.high)})`
+        : MISSING,
+      values: output.yieldAtRandomAmbient ? [output.yieldAtRandomAmbient.pct, output.yieldAtRandomAmbient.low, output.yieldAtRandomAmbient.high] : [],
+    },
+    { field: 'ppmOut', label: 'units out of the window at some ambient, ppm', text: formatPpm(output.ppmOut), values: output.ppmOut !== undefined && Number.isFinite(output.ppmOut) ? [output.ppmOut] : [] },
+    { field: 'cp', label: `Cp ${capabilityWhere(output)}`, text: formatIndex(output.cp), values: output.cp !== undefined && Number.isFinite(output.cp) ? [output.cp] : [] },
+    { field: 'cpk', label: `Cpk ${capabilityWhere(output)}`, text: formatIndex(output.cpk), values: output.cpk !== undefined && Number.isFinite(output.cpk) ? [output.cpk] : [] },
   ];
+  if (output.quantileMethod === 'histogram') {
+    rows.push({ field: 'quantileBound', label: 'quantiles and intervals read from the histogram: each end within ±', text: formatSpread(output.quantileBound, u), values: [output.quantileBound] });
+  }
+  if (output.numericalTolerance !== undefined) {
+    rows.push({ field: 'numericalTolerance', label: 'adaptive stop: numerical tolerance δ of σ reached (JCGM 101:2008 7.9.2)', text: formatSpread(output.numericalTolerance, u), values: [output.numericalTolerance] });
+  }
   return rows;
+}
+
+/** Which distribution Cp and Cpk describe. */
+function capabilityWhere(output: OutputResult): string {
+  if (output.capabilityAmbientC === undefined) return '(all trials; assumes a normal distribution)';
+  return `(units at ${formatAmbient(output.capabilityAmbientC)}, the worst ambient; assumes a normal distribution)`;
+}
+
+/** An ambient temperature for a label: '25 °C', '-7.5 °C'. */
+export function formatAmbient(t: number): string {
+  return `${Number(t.toFixed(2))} °C`;
+}
+
+/** The units over the range: nominal, Monte Carlo 0.135 … 99.865 % band and worst case at the coldest, 25 °C and hottest ambients. */
+export function ambientSweepTable(output: OutputResult): string | null {
+  const sweep = output.ambientSweep;
+  if (!sweep || sweep.length < 2) return null;
+  const d = outputDigits(output);
+  const v = (x: number | undefined): string => (x === undefined ? MISSING : formatValue(x, output.unit, d));
+  const shown = sweep.filter((p, i) => i === 0 || i === sweep.length - 1 || p.ambientC === 25);
+  const rows = shown.map((p) => [
+    formatAmbient(p.ambientC),
+    v(p.nominal),
+    `${v(p.band9973.low)} … ${v(p.band9973.high)}`,
+    p.worstCase ? `${v(p.worstCase.low)} … ${v(p.worstCase.high)}` : MISSING,
+    p.yield ? formatYieldPct(p.yield.pct) : MISSING,
+  ]);
+  return textTable(['ambient', 'nominal', 'Monte Carlo 0.135 … 99.865 %', 'worst case', 'in window'], rows, [true, true, true, true, true]);
 }
 
 function summaryTable(result: AnalysisResult): string {
@@ -77,7 +121,21 @@ function summaryTable(result: AnalysisResult): string {
       formatIndex(o.cpk),
     ];
   });
-  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk'], rows, [false, true, true, true, true, true, true]);
+  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield per unit', 'Cpk'], rows, [false, true, true, true, true, true, true]);
+}
+
+/** The all-specs yield and what a unit was checked at, under the summary. */
+function unitYieldLines(result: AnalysisResult): string[] {
+  const lines: string[] = [];
+  const grid = result.ambientGridC;
+  if (grid) lines.push(`each unit checked at ${grid.length === 1 ? formatAmbient(grid[0]!) : `${grid.length} ambients, ${grid.map(formatAmbient).join(', ')}`}; yield = share of units inside the window at every one`);
+  const all = result.allSpecs;
+  if (all) {
+    lines.push(
+      `all specs (${all.outputs.join(', ')}): ${formatYieldPct(all.pct)} of units meet every window at every ambient (95 % Wilson interval ${formatYieldPct(all.low)} … ${formatYieldPct(all.high)})`,
+    );
+  }
+  return lines;
 }
 
 /** A sensitivity coefficient: plain digits between 0.01 and 1000, exponent notation outside. */
@@ -97,10 +155,16 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
   out.push(`${options.subject}: Monte Carlo ${result.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(result.seed)}; trimfree ${options.version}`);
   out.push('');
   out.push(summaryTable(result));
+  out.push(...unitYieldLines(result));
   for (const output of Object.values(result.outputs)) {
     out.push('');
     out.push(`== ${outputTitle(output.name)} ==`);
     out.push(textTable(['figure', 'value'], outputFigures(output).map((r) => [r.label, r.text]), [false, true]));
+    const sweep = ambientSweepTable(output);
+    if (sweep) {
+      out.push('over the ambient range (units held at each ambient):');
+      out.push(sweep);
+    }
     if (output.contributions.length > 0) {
       out.push('largest contributors:');
       out.push(contributorsTable(output, options.contributors ?? 5));
