@@ -68,6 +68,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     if (m.yieldAtRandomAmbient) result.yieldAtRandomAmbient = m.yieldAtRandomAmbient;
     if (m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
     if (m.capabilityAmbientC !== undefined) result.capabilityAmbientC = m.capabilityAmbientC;
+    if (m.capabilitySides) result.capabilitySides = m.capabilitySides;
     if (m.numericalTolerance !== undefined) result.numericalTolerance = m.numericalTolerance;
     if (m.ppmOut !== undefined) result.ppmOut = m.ppmOut;
     if (m.cp !== undefined) result.cp = m.cp;

@@ -10,6 +10,11 @@ export interface ModelOutput {
   /** Acceptance window [lo, hi] for yield, ppm out, Cp and Cpk. */
   spec?: [number, number];
   /**
+   * Which of the window's limits the design gave: 'both' (default), or only the 'low' or the 'high' one (the other
+   * end is there to count units, e.g. an adjustable output's reach). One-sided windows get Cpl or Cpu, no Cp.
+   */
+  specSides?: 'both' | 'low' | 'high';
+  /**
    * Fills out[j] for j < n from the part values p[i][j] (p has one Float64Array per part, in `Model.parts` order).
    * Must be a plain loop: no allocation per trial, no randomness, no I/O.
    */

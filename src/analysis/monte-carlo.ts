@@ -15,7 +15,7 @@ import type { AllSpecsYield, AmbientPoint, Interval, MonteCarloOutput, Percentil
 import { checkedOutputs } from './unit-check.js';
 
 export type { MonteCarloOutput } from './result.js';
-import { processCapability } from './statistics/capability.js';
+import { oneSidedCapability, processCapability } from './statistics/capability.js';
 import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
 import {
@@ -405,7 +405,14 @@ function yieldOf(inSpec: number, n: number): YieldResult {
 }
 
 /** One output at one grid ambient: the units' spread there, its 0.135 … 99.865 % band and the capability. */
-function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi: number }, bins: number, spec: [number, number] | undefined): AmbientPoint {
+/** Cp and Cpk against the window, or the one-sided Cpl/Cpu (no Cp) when the design gave only one limit. */
+function capabilityOf(spec: [number, number], sides: 'both' | 'low' | 'high', mean: number, sigma: number): { cp?: number; cpk: number } | null {
+  if (sides === 'both') return processCapability(spec[0], spec[1], mean, sigma);
+  const cpk = oneSidedCapability(sides, sides === 'low' ? spec[0] : spec[1], mean, sigma);
+  return cpk === null ? null : { cpk };
+}
+
+function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi: number }, bins: number, spec: [number, number] | undefined, sides: 'both' | 'low' | 'high'): AmbientPoint {
   const fine: FineHistogram = { lo: range.lo, hi: range.hi, bins, counts: a.counts, min: a.min, max: a.max };
   const mean = a.moments.mean;
   const sigma = momentsSigma(a.moments);
@@ -420,9 +427,9 @@ function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi:
   };
   if (spec) {
     point.yield = yieldOf(a.inSpec, a.moments.n);
-    const capability = processCapability(spec[0], spec[1], mean, sigma);
+    const capability = capabilityOf(spec, sides, mean, sigma);
     if (capability) {
-      point.cp = capability.cp;
+      if (capability.cp !== undefined) point.cp = capability.cp;
       point.cpk = capability.cpk;
     }
   }
@@ -494,7 +501,8 @@ function finishOutput(
     quantileBound,
     histogram: coarseHistogram(fine),
   };
-  if (grid) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec));
+  const sides = output.specSides ?? 'both';
+  if (grid) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec, sides));
   if (output.spec) {
     const [lsl, usl] = output.spec;
     result.spec = [lsl, usl];
@@ -508,17 +516,18 @@ function finishOutput(
       let worst: AmbientPoint | null = null;
       for (const point of result.ambientSweep) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
       if (worst) {
-        result.cp = worst.cp!;
+        if (worst.cp !== undefined) result.cp = worst.cp;
         result.cpk = worst.cpk!;
         result.capabilityAmbientC = worst.ambientC;
       }
     } else {
-      const capability = processCapability(lsl, usl, mean, sigma);
+      const capability = capabilityOf([lsl, usl], sides, mean, sigma);
       if (capability) {
-        result.cp = capability.cp;
+        if (capability.cp !== undefined) result.cp = capability.cp;
         result.cpk = capability.cpk;
       }
     }
+    if (sides !== 'both') result.capabilitySides = sides;
   }
   return result;
 }

@@ -121,6 +121,8 @@ export interface MonteCarloOutput {
   cp?: number;
   cpk?: number;
   capabilityAmbientC?: number;
+  /** Only this limit of the window is the design's: cpk is then Cpl ('low') or Cpu ('high'), and there is no cp. */
+  capabilitySides?: 'low' | 'high';
   /** The units at each ambient of the operating grid (per-unit runs). */
   ambientSweep?: AmbientPoint[];
   /** Adaptive runs: the numerical tolerance δ of u(y) the run was held to (JCGM 101:2008 7.9.2), output unit. */

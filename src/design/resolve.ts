@@ -79,23 +79,24 @@ export function resolveDesign(design: Design): ResolvedDesign {
     voutWindow = design.voltage.window ? windowBounds(design.voltage.window, hi) : [hi, Math.max(top.max, hi) * (1 + 1e-9)];
     lowWindow = [Math.min(bottom.min, lo) * (1 - 1e-9), lo];
     notes.push(
-      `Adjustable output: vout is analysed at the top of the pot's travel against ${formatEngineering(voutWindow[0], 'V', 4)}..${formatEngineering(voutWindow[1], 'V', 4)}${design.voltage.window ? '' : ' (up to its worst case: the file gives no upper limit)'} and at the bottom against ${formatEngineering(lowWindow[0], 'V', 4)}..${formatEngineering(lowWindow[1], 'V', 4)}; the yield is the share of units covering ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)}; Cp and Cpk of these one-sided windows mean little.`,
+      `Adjustable output: vout is analysed at the top of the pot's travel against ${formatEngineering(voutWindow[0], 'V', 4)}..${formatEngineering(voutWindow[1], 'V', 4)}${design.voltage.window ? '' : ' (up to its worst case: the file gives no upper limit)'} and at the bottom against ${formatEngineering(lowWindow[0], 'V', 4)}..${formatEngineering(lowWindow[1], 'V', 4)}; the yield is the share of units covering ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)}; where only one limit is the design's, Cpk is the one-sided Cpl or Cpu and no Cp is given.`,
     );
   }
 
-  function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number]): SupplySpec {
+  function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number], voutSides: 'both' | 'low' | 'high' = 'both'): SupplySpec {
     const spec: SupplySpec = {
       reference,
       divider: { ...legs, ...(bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
       temperature: { minC: temperature.min, maxC: temperature.max, monteCarlo: 'uniform' },
       sense: sense.sense,
-      windows: { vout: window, ilimit: ilimitWindow },
+      windows: { vout: window, ilimit: ilimitWindow, ...(voutSides === 'both' ? {} : { voutSides }) },
       voutTarget: adjustable ? hi : lo,
     };
     return spec;
   }
-  const spec = base(divider.legs, voutWindow);
-  const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow), voutTarget: lo } : undefined;
+  // Without a window from the file only the limit each end must reach is the design's: HI at the top, LO at the bottom.
+  const spec = base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both');
+  const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo } : undefined;
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);

@@ -12,10 +12,24 @@ export interface SpreadRunTextOptions {
 export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
   const { subject, version } = options;
   const partNames = run.model.parts.map((p) => p.name);
-  let text = renderSpreadText(run.result, { version, subject, partNames });
-  if (run.lowEnd) {
-    text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
-  }
+  if (!run.lowEnd) return withDesignNotes(renderSpreadText(run.result, { version, subject, partNames }), run);
+  const top = 'pot at the top of its travel';
+  const bottom = 'pot at the bottom of its travel';
+  let text = renderSpreadText(run.result, { version, subject: `${subject}, ${top}`, partNames, where: top });
+  // The current-sense path never reads the divider, and both ends draw the same parts from the same seed: its
+  // outputs are identical at both ends, so the bottom shows only what the pot moves.
+  const moved = POT_OUTPUTS.filter((name) => name in run.lowEnd!.result.outputs);
+  text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, ${bottom}`, partNames, where: bottom, outputs: moved })}`;
+  const same = Object.keys(run.lowEnd.result.outputs).filter((name) => !moved.includes(name));
+  if (same.length > 0) text += `(${same.join(', ')}: the same at both ends of the travel, shown once above)\n`;
+  return withDesignNotes(text, run);
+}
+
+/** The outputs the pot's position changes. */
+const POT_OUTPUTS = ['vout', 'dividerCurrent'];
+
+function withDesignNotes(body: string, run: SpreadRun): string {
+  let text = body;
   const limits = run.resolved.limits ?? [];
   const notes = run.resolved.notes.filter((n) => !limits.includes(n));
   if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;

@@ -25,6 +25,10 @@ export interface SpreadTextOptions {
   partNames?: string[];
   /** Contributors listed per output (default 5). */
   contributors?: number;
+  /** Only these outputs (default: all), e.g. the pot's bottom end, where the current-limit outputs do not change. */
+  outputs?: string[];
+  /** Said after each output's title, e.g. 'pot at the top of its travel'. */
+  where?: string;
   histogram?: boolean;
 }
 
@@ -42,7 +46,7 @@ export function outputFigures(output: OutputResult): FigureRow[] {
   const u = output.unit;
   const v = (x: number): string => formatValue(x, u, d);
   const median = output.percentiles.find((p) => p.pct === 50)?.value;
-  const rows: FigureRow[] = [
+  let rows: FigureRow[] = [
     { field: 'nominal', label: 'nominal (every part at its nominal value)', text: v(output.nominal), values: [output.nominal] },
     { field: 'spec', label: 'spec window', text: output.spec ? `${v(output.spec[0])} … ${v(output.spec[1])}` : MISSING, values: output.spec ? [...output.spec] : [] },
     { field: 'mean', label: 'Monte Carlo mean', text: v(output.mean), values: [output.mean] },
@@ -71,6 +75,10 @@ export function outputFigures(output: OutputResult): FigureRow[] {
     { field: 'cp', label: `Cp ${capabilityWhere(output)}`, text: formatIndex(output.cp), values: output.cp !== undefined && Number.isFinite(output.cp) ? [output.cp] : [] },
     { field: 'cpk', label: `Cpk ${capabilityWhere(output)}`, text: formatIndex(output.cpk), values: output.cpk !== undefined && Number.isFinite(output.cpk) ? [output.cpk] : [] },
   ];
+  // Yield and capability exist only against a window the design gave; Cp only with both of its limits.
+  const windowFields = ['yieldPct', 'yieldAtRandomAmbientPct', 'ppmOut', 'cp', 'cpk'];
+  if (!output.spec) rows = rows.filter((r) => !windowFields.includes(r.field));
+  else if (output.capabilitySides) rows = rows.filter((r) => r.field !== 'cp');
   if (output.quantileMethod === 'histogram') {
     rows.push({ field: 'quantileBound', label: 'quantiles and intervals read from the histogram: each end within ±', text: formatSpread(output.quantileBound, u), values: [output.quantileBound] });
   }
@@ -80,10 +88,11 @@ export function outputFigures(output: OutputResult): FigureRow[] {
   return rows;
 }
 
-/** Which distribution Cp and Cpk describe. */
+/** Which distribution Cp and Cpk describe, and against which limits. */
 function capabilityWhere(output: OutputResult): string {
-  if (output.capabilityAmbientC === undefined) return '(all trials; assumes a normal distribution)';
-  return `(units at ${formatAmbient(output.capabilityAmbientC)}, the worst ambient; assumes a normal distribution)`;
+  const sides = output.capabilitySides === 'low' ? 'one-sided Cpl: only the low limit is the design’s; ' : output.capabilitySides === 'high' ? 'one-sided Cpu: only the high limit is the design’s; ' : '';
+  if (output.capabilityAmbientC === undefined) return `(${sides}all trials; assumes normality)`;
+  return `(${sides}units at ${formatAmbient(output.capabilityAmbientC)}, the worst ambient; assumes normality)`;
 }
 
 /** An ambient temperature for a label: '25 °C', '-7.5 °C'. */
@@ -154,11 +163,12 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
   const out: string[] = [];
   out.push(`${options.subject}: Monte Carlo ${result.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(result.seed)}; trimfree ${options.version}`);
   out.push('');
-  out.push(summaryTable(result));
+  const shown = Object.values(result.outputs).filter((o) => !options.outputs || options.outputs.includes(o.name));
+  out.push(summaryTable({ ...result, outputs: Object.fromEntries(shown.map((o) => [o.name, o])) }));
   out.push(...unitYieldLines(result));
-  for (const output of Object.values(result.outputs)) {
+  for (const output of shown) {
     out.push('');
-    out.push(`== ${outputTitle(output.name)} ==`);
+    out.push(`== ${outputTitle(output.name)}${options.where ? `, ${options.where}` : ''} ==`);
     out.push(textTable(['figure', 'value'], outputFigures(output).map((r) => [r.label, r.text]), [false, true]));
     const sweep = ambientSweepTable(output);
     if (sweep) {

@@ -133,8 +133,11 @@ export interface SupplySpec {
   divider: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
   temperature: TemperatureSpec;
   sense?: SenseSpec;
-  /** Acceptance windows [lo, hi]: output voltage (V) and current limit (A). */
-  windows?: { vout?: [number, number]; ilimit?: [number, number] };
+  /**
+   * Acceptance windows [lo, hi]: output voltage (V) and current limit (A). `voutSides` says which vout limits the
+   * design gave (an adjustable output's ends give one each; the other end is its worst case, to count units).
+   */
+  windows?: { vout?: [number, number]; ilimit?: [number, number]; voutSides?: 'both' | 'low' | 'high' };
   /** The output voltage the design aims at, V (for reports). */
   voutTarget?: number;
 }
@@ -508,6 +511,7 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     const window =
       name === 'vout' ? spec.windows?.vout : name === 'ilimit' ? sense?.ilimitSpec : name === 'shuntLoss' ? sense?.shuntLossSpec : name === 'ampOutput' ? sense?.ampOutputSpec : undefined;
     if (window) output.spec = [window[0], window[1]];
+    if (name === 'vout' && spec.windows?.voutSides && spec.windows.voutSides !== 'both') output.specSides = spec.windows.voutSides;
     return output;
   });
   if (t.unitPoints !== undefined && (!Number.isInteger(t.unitPoints) || t.unitPoints < 2 || t.unitPoints > 101)) {
