@@ -14,7 +14,7 @@ import { PROJECT_ROOT } from '../src/project-root.js';
 import { testSupply } from './report-supply-fixture.js';
 
 function resolvedOf(spec: SupplySpec): ResolvedDesign {
-  return { spec, bom: [], notes: [], cautions: [], nominal: {}, costs: gradeCosts(), analysis: {} };
+  return { spec, bom: [], notes: [], cautions: [], nominal: {}, costs: gradeCosts(), analysis: {}, cautionLimits: { application: undefined, voutWindow: null } };
 }
 
 const CHOICE = { trials: 20000, seed: 3, workers: 1, progress: false } as const;

@@ -9,6 +9,7 @@ import { ImpossibleError } from '../errors.js';
 import { formatEngineering, formatPercent } from '../units/index.js';
 import { bomLine, diffBranchCurrents, noninvGainCurrent, resistorPower, type BomLine, type BomPart } from './bom.js';
 import { cautionsFor } from './cautions.js';
+import type { OutputCautionLimits } from './output-cautions.js';
 import { windowBounds } from './fields.js';
 import { gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
@@ -32,6 +33,8 @@ export interface ResolvedDesign {
   analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
   /** Limits no part choice can fix (e.g. a window narrower than the reference alone allows), stated in the output. */
   limits?: string[];
+  /** What the analysed figures are checked against in the caution box (output-cautions.ts). */
+  cautionLimits: OutputCautionLimits;
 }
 
 /** Monte Carlo seed when neither the file nor the command line gives one. */
@@ -55,8 +58,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
   const sense = resolveSense(design);
   notes.push(...sense.notes);
 
-  const temperature = design.temperature ?? { min: 25, max: 25 };
+  const temperature = operatingRange(design.temperature);
   if (!design.temperature) notes.push('No temperature range given: analysed at 25 °C only, so TCRs and drifts with temperature play no part.');
+  else if (design.temperature.fixed !== undefined) notes.push(`One ambient given: every figure is at ${design.temperature.fixed} °C, where TCRs and tempcos act through the ${design.temperature.fixed - 25} K from 25 °C (give min and max to check units over a range).`);
   const bias = feedbackBias(design);
 
   const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
@@ -127,7 +131,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (design.analysis?.seed !== undefined) analysis.seed = design.analysis.seed;
   if (design.analysis?.workers !== undefined) analysis.workers = design.analysis.workers;
 
-  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis };
+  const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: design.voltage.window ? voutWindow : null };
+  if (design.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = design.voltage.absoluteMax;
+  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits };
   if (lowEnd) resolved.lowEnd = lowEnd;
   if (limits.length > 0) {
     resolved.limits = limits;
@@ -137,6 +143,13 @@ export function resolveDesign(design: Design): ResolvedDesign {
 }
 
 /** Loads and heat the nominal design must stay within, whatever picked its values. */
+/** The design's ambient as a range (a fixed ambient is a range of one temperature; none given: 25 °C). */
+function operatingRange(t: Design['temperature']): { min: number; max: number } {
+  if (!t) return { min: 25, max: 25 };
+  if (t.fixed !== undefined) return { min: t.fixed, max: t.fixed };
+  return { min: t.min!, max: t.max! };
+}
+
 function checkOperatingPoint(design: Design, nominal: Record<string, number>, derating: number): void {
   const c = design.current;
   const loss = nominal['shuntLoss']!;

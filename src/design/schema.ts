@@ -116,6 +116,7 @@ const voltageSection = z
   .strictObject({
     target: rangeField(PARSERS.voltage, 'output voltage target: 8.4 V, or 1.25..20 V for an adjustable output with a pot'),
     window: windowField(PARSERS.voltage, 'V').optional(),
+    absoluteMax: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'an output voltage the supply must never exceed (e.g. what the load survives); the caution box reports a worst case above it').optional(),
     divider: z
       .union([z.literal('auto'), dividerValues])
       .meta({ description: '"auto" (picked from the series) or { top, bottom }' }),
@@ -288,13 +289,21 @@ const resistors = z
 // ---- temperature, analysis, costs ---------------------------------------------------------------------------------
 const temperature = z
   .strictObject({
-    min: describe(celsius(), 'lowest ambient, °C'),
-    max: describe(celsius(), 'highest ambient, °C'),
+    min: describe(celsius(), 'lowest ambient, °C').optional(),
+    max: describe(celsius(), 'highest ambient, °C').optional(),
+    fixed: describe(celsius(), 'the one ambient the supply runs at, °C, instead of min and max (every figure at that ambient)').optional(),
   })
   .superRefine((t, ctx) => {
-    if (t.min > t.max) ctx.issues.push({ code: 'custom', path: ['min'], input: t.min, message: `min ${t.min} °C is above max ${t.max} °C`, params: { accepted: 'min ≤ max' } });
+    const accepted = '{ min, max } for a range, or { fixed } for one ambient';
+    if (t.fixed !== undefined && (t.min !== undefined || t.max !== undefined)) {
+      ctx.issues.push({ code: 'custom', path: ['fixed'], input: t.fixed, message: 'fixed goes without min and max', params: { accepted } });
+    } else if (t.fixed === undefined && (t.min === undefined || t.max === undefined)) {
+      ctx.issues.push({ code: 'custom', path: [t.min === undefined ? 'min' : 'max'], input: undefined, message: 'missing required field', params: { accepted } });
+    } else if (t.min !== undefined && t.max !== undefined && t.min > t.max) {
+      ctx.issues.push({ code: 'custom', path: ['min'], input: t.min, message: `min ${t.min} °C is above max ${t.max} °C`, params: { accepted: 'min ≤ max' } });
+    }
   })
-  .meta({ description: 'operating ambient temperature range (default 25 °C only)' });
+  .meta({ description: 'operating ambient: a range { min, max } (every unit checked over it) or one ambient { fixed } (default 25 °C only)' });
 
 const positiveInteger = (what: string) =>
   z.number().int().min(1).meta({ description: what });

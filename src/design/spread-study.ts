@@ -5,6 +5,7 @@ import type { Model } from '../analysis/model.js';
 import { buildSupplyModel } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { outputCautions } from './output-cautions.js';
 import type { ResolvedDesign } from './resolve.js';
 
 /** Monte Carlo trials when neither the file nor the command line says: the adaptive procedure of JCGM 101:2008 7.9. */
@@ -23,7 +24,9 @@ export interface SpreadRun {
 export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
   const model = buildSupplyModel(resolved.spec);
   const result = await analyzeAsChosen(resolved.spec, choice, 'spread', progressFor);
-  const run: SpreadRun = { resolved, choice, model, result };
+  // The cautions that quote analysed figures go first in the caution box.
+  const cautions = [...outputCautions(resolved.cautionLimits, result), ...resolved.cautions];
+  const run: SpreadRun = { resolved: { ...resolved, cautions }, choice, model, result };
   if (resolved.lowEnd) {
     run.lowEnd = { model: buildSupplyModel(resolved.lowEnd), result: await analyzeAsChosen(resolved.lowEnd, choice, 'spread, low end', progressFor) };
   }
