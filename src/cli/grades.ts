@@ -38,18 +38,20 @@ export function gradesCommand(): Command {
     .description('tolerance grades side by side; the cheapest per-part grade mix that meets a yield target')
     .configureOutput({ outputError: () => undefined })
     .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
-    .addOption(targetYieldFlag('share of units that must meet every spec window'))
+    .addOption(targetYieldFlag('share of units that must meet every spec window at every ambient of the range'))
     .addOption(searchTrialsFlag('Monte Carlo trials per assignment the search evaluates'))
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials per grade (default: the file's, else 100000)"))
     .addOption(workersFlag())
     .addOption(failUnderYieldOptionWith(FAIL_UNDER_YIELD_HELP.replace("any output's yield", 'the all-specs yield of the design as it stands')))
-    .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
+    .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct per unit, yieldAtRandomAmbientPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
     .addHelpText(
       'after',
       `
 Grades: 5 %, 1 %, 0.5 %, 0.1 % (IEC 60062:2016 letters J, F, D, B), each with the TCR it usually comes with
 (common practice); relative costs are illustrative unless the design file's "costs" gives yours.
+Every yield here is per unit: the share of units (parts drawn once) inside the windows at every ambient checked
+over the design's range; "all specs" asks that of every window at once.
 
 ${wrapText(SEARCH_METHOD, 112)}
 

@@ -44,7 +44,7 @@ export function spreadCommand(): Command {
     .description('worst case, RSS and Monte Carlo spread of a design file: yield, Cpk, contributors, histogram')
     .configureOutput({ outputError: () => undefined })
     .argument('<file>', 'design file (JSON); "auto" values are filled as `design` does')
-    .option('--json', 'print JSON: { seed, trials, version, outputs: { NAME: { nominal, mean, sigma, interval95, worstCase, rss, yieldPct, cpk, contributions, … } } }')
+    .option('--json', 'print JSON: { seed, trials, version, allSpecsYieldPct, ambientGridC, outputs: { NAME: { nominal, mean, median, sigma, interval95, worstCase, rss, yieldPct, yieldAtRandomAmbientPct, cpk, ambientSweep, contributions, … } } }')
     .addOption(new Option('--samples <file.csv>', 'write the Monte Carlo trials (parts and outputs, SI units) as CSV'))
     .addOption(new Option('--sample-rows <n>', `trials written to the samples CSV: 1 to ${MAX_SAMPLE_ROWS}, no more than the run's trials (about 0.5 kB a row)`).argParser(integerOption('--sample-rows', 1, MAX_SAMPLE_ROWS)).default(DEFAULT_SAMPLE_ROWS, '100000'))
     .addOption(reportFileFlag())
@@ -57,10 +57,17 @@ export function spreadCommand(): Command {
       'after',
       `
 Monte Carlo per JCGM 101:2008 (same seed, same numbers for any worker count); worst case over every tolerance
-extreme and temperature corner; RSS by JCGM 100:2008 5.1.2. Yield counts the trials inside each output's spec
-window, with a 95 % Wilson interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.
+extreme and temperature corner; RSS by JCGM 100:2008 5.1.2, first order.
+What each figure means:
+  yield per unit          share of units (a trial = one unit, parts drawn once) inside the window at every ambient
+                          checked (the range's ends, points between and 25 °C), with a 95 % Wilson interval
+  all specs               share of units inside every window at every ambient; what --fail-under-yield gates too
+  yield at random ambient a second figure: a unit at one ambient drawn uniformly over the range
+  ppm out                 units out of the window at some ambient, per million
+  Cp, Cpk                 NIST/SEMATECH e-Handbook 6.1.6, from the units at the worst ambient; they assume normality
+  mean, σ, intervals      over the trials at the ambient drawn with each (the histogram shows the same values)
 
-Exit codes: 0 done; 1 an output's yield is below --fail-under-yield (the report is printed in full first, then one
+Exit codes: 0 done; 1 an output's per-unit yield is below --fail-under-yield (the report is printed in full first, then one
 line naming each such output and its yield); 2 bad input or an impossible design (one line on stderr); 130 Ctrl-C.
 
 Examples:
