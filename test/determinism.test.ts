@@ -126,7 +126,7 @@ function agreeWithinUncertainty(a: string, b: string): void {
   expect(checkedYields).toBeGreaterThanOrEqual(2);
 }
 
-describe('the interruptible joint yield equals the engine’s', () => {
+describe('the interruptible joint yield equals the engine’s', { timeout: 120_000 }, () => {
   it('every example, two seeds, a run length with a short last chunk and an open-ended one', async () => {
     for (const file of EXAMPLES) {
       const model = buildSupplyModel(resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', file))).spec);
