@@ -130,7 +130,7 @@ export function outputJson(output: OutputResult): SpreadJsonOutput {
       totalEffectStandardError: f(c.totalEffectStandardError, `contributions[${c.part}].totalEffectStandardError`),
       firstOrderShare: f(c.firstOrderShare, `contributions[${c.part}].firstOrderShare`),
       firstOrderStandardError: f(c.firstOrderStandardError, `contributions[${c.part}].firstOrderStandardError`),
-      firstOrderRssShare: f(c.varianceShare, `contributions[${c.part}].varianceShare`),
+      firstOrderRssShare: f(c.varianceShare, `contributions[${c.part}].firstOrderRssShare`),
       sensitivity: f(c.sensitivity, `contributions[${c.part}].sensitivity`),
       standardUncertainty: f(c.standardUncertainty, `contributions[${c.part}].standardUncertainty`),
     })),
