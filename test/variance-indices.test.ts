@@ -225,3 +225,26 @@ describe('a 1S charger with 200 ppm/K resistors over −40…90 °C (range centr
     expect(two.outputs.vout!.varianceBudget.method).toEqual(vout.varianceBudget.method);
   });
 });
+
+describe('the verdict on the first-order RSS σ (variance-budget.ts)', () => {
+  it('y = exp(x), x uniform ±1.5: one part (no interaction), RSS σ 25 % short of Monte Carlo → nonlinearity', async () => {
+    // Closed form: RSS σ = e⁰·1.5/√3 = 0.866; Var(eˣ) = sinh(3)/3 − (sinh(1.5)/1.5)² = 1.324, σ = 1.151; ratio 0.753.
+    const model: Model = { parts: [part('x', 1.5)], outputs: [{ name: 'y', unit: '', evaluate: (p, out, n) => { for (let j = 0; j < n; j++) out[j] = Math.exp(p[0]![j]!); } }] };
+    const y = (await analyze(model, { trials: 65536, seed: 'exp', workers: 1 })).outputs.y!;
+    expect(y.rss.sigma).toBeCloseTo(1.5 / Math.sqrt(3), 6);
+    const sigma = Math.sqrt(Math.sinh(3) / 3 - (Math.sinh(1.5) / 1.5) ** 2);
+    // MC σ relative SE ≈ √((κ − 1)/4n) ≈ 0.4 % at n = 65536 (κ ≈ 4 here): the ratio is known to ±0.003; 0.05 allowed.
+    expect(y.varianceBudget.rssToMonteCarloSigma!).toBeCloseTo((1.5 / Math.sqrt(3)) / sigma, 1);
+    expect(y.varianceBudget.rssAgreement).toBe('nonlinearity');
+    // One part: all of the variance is its own, both ways.
+    expectWithin(y.contributions[0]!.totalEffectShare, y.contributions[0]!.totalEffectStandardError, 1);
+    expectWithin(y.contributions[0]!.firstOrderShare, y.contributions[0]!.firstOrderStandardError, 1);
+  });
+
+  it('a linear sum: RSS σ equals the Monte Carlo σ within its error → agrees', async () => {
+    const model: Model = { parts: [part('a', 1), part('b', 2)], outputs: [{ name: 'y', unit: '', evaluate: (p, out, n) => { for (let j = 0; j < n; j++) out[j] = p[0]![j]! - 0.5 * p[1]![j]!; } }] };
+    const y = (await analyze(model, { trials: 65536, seed: 'sum', workers: 1 })).outputs.y!;
+    expect(y.varianceBudget.rssAgreement).toBe('agrees');
+    expect(y.varianceBudget.method.evaluations).toBe(8192 * 4);
+  });
+});
