@@ -186,8 +186,9 @@ describe('RSS (JCGM 100:2008 5.1.2) against closed forms and Monte Carlo', () =>
     const variance = widths.reduce((s, w) => s + (w * w) / 12, 0); // 39/12 = 3.25
     expect(rss(model)[0]!.rss.sigma).toBeCloseTo(Math.sqrt(variance), 10);
     expect(rss(model)[0]!.rss.center).toBeCloseTo(6, 12);
-    // Tolerance half-widths in quadrature: √(0.25 + 1 + 2.25 + 6.25).
-    expect(rss(model)[0]!.rss.halfWidth).toBeCloseTo(Math.sqrt(9.75), 10);
+    // Expanded uncertainty U = k·u(y) with k = 2 (JCGM 100:2008 6.2.1, 6.3.3).
+    expect(rss(model)[0]!.rss.coverageFactor).toBe(2);
+    expect(rss(model)[0]!.rss.expandedUncertainty).toBeCloseTo(2 * Math.sqrt(variance), 10);
     const mc = await monteCarlo(model, { trials: 500_000, seed: 'sum', workers: 1 });
     // SE of the mean √(3.25/5e5) = 2.5e-3; of σ about σ/√(2n) = 1.8e-3.
     expect(Math.abs(mc.outputs[0]!.mean - 6)).toBeLessThan(0.0125);

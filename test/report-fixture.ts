@@ -26,12 +26,19 @@ function output(partial: Partial<OutputResult> & Pick<OutputResult, 'name' | 'un
     quantileMethod: 'exact',
     quantileBound: 0,
     worstCase: { min: nominal - 6 * sigma, max: nominal + 6.5 * sigma, minVertex: { R1: 'low', R2: 'high' }, maxVertex: { R1: 'high', R2: 'low' }, method: 'enumeration', evaluations: 16 },
-    rss: { sigma: sigma * 1.01, halfWidth: sigma * 3.1, center: nominal },
+    rss: { sigma: sigma * 1.01, expandedUncertainty: sigma * 2.02, coverageFactor: 2, center: nominal },
     contributions: [
-      { part: 'Vref', sensitivity: 6.72, standardUncertainty: 0.0036, varianceShare: 0.61 },
-      { part: 'R1', sensitivity: 2.1e-4, standardUncertainty: 12, varianceShare: 0.3 },
-      { part: 'R2 <bottom>', sensitivity: -1.1e-3, standardUncertainty: 1.7, varianceShare: 0.09 },
+      { part: 'Vref', sensitivity: 6.72, standardUncertainty: 0.0036, varianceShare: 0.61, totalEffectShare: 0.62, totalEffectStandardError: 0.011, firstOrderShare: 0.6, firstOrderStandardError: 0.013 },
+      { part: 'R1', sensitivity: 2.1e-4, standardUncertainty: 12, varianceShare: 0.3, totalEffectShare: 0.31, totalEffectStandardError: 0.006, firstOrderShare: 0.29, firstOrderStandardError: 0.012 },
+      { part: 'R2 <bottom>', sensitivity: -1.1e-3, standardUncertainty: 1.7, varianceShare: 0.09, totalEffectShare: 0.095, totalEffectStandardError: 0.002, firstOrderShare: 0.088, firstOrderStandardError: 0.01 },
     ],
+    varianceBudget: {
+      method: { estimator: 'fixture estimator', baseSamples: 8192, evaluations: 40960, seed: 'variance-indices:fixture' },
+      totalEffectSum: 1.025,
+      firstOrderSum: 0.978,
+      rssToMonteCarloSigma: 1.01,
+      rssAgreement: 'agrees',
+    },
     histogram: bell(nominal - 4 * sigma, nominal + 4 * sigma, 200, 100000),
     ...partial,
   };

@@ -48,7 +48,7 @@ describe('HTML report: the numbers on the page are the JSON figures', () => {
         interval95: [o.interval95.low, o.interval95.high],
         interval9973: [o.interval9973.low, o.interval9973.high],
         worstCase: [o.worstCase.min, o.worstCase.max],
-        rss: [o.rss.sigma, o.rss.halfWidth],
+        rss: [o.rss.sigma, o.rss.expandedUncertainty, o.rss.coverageFactor],
         yieldPct: o.yieldPct === null ? [] : [o.yieldPct, o.yieldInterval95!.low, o.yieldInterval95!.high],
         cpk: o.cpk === null ? [] : [o.cpk],
         cp: o.cp === null ? [] : [o.cp],
@@ -102,12 +102,21 @@ describe('HTML report: histograms and markers', () => {
     });
   }
 
-  it('the contributors chart has one bar per contribution with its exact share', () => {
+  it('the contributors chart has one bar per contribution with its exact shares (total-effect, first-order, RSS)', () => {
     const s = section('vout');
-    const bars = [...s.matchAll(/<rect class="contribution" data-part="([^"]+)" data-share="([^"]+)"/g)];
-    expect(bars.map((b) => [b[1], Number(b[2])])).toEqual(
-      json.outputs.vout.contributions.filter((c) => c.varianceShare >= 0.001).map((c) => [c.part.replace('<', '&lt;').replace('>', '&gt;'), c.varianceShare]),
+    const bars = [...s.matchAll(/<rect class="contribution" data-part="([^"]+)" data-share="([^"]+)" data-first-order="([^"]+)" data-rss-share="([^"]+)"/g)];
+    expect(bars.map((b) => [b[1], Number(b[2]), Number(b[3]), Number(b[4])])).toEqual(
+      json.outputs.vout.contributions
+        .filter((c) => c.totalEffectShare >= 0.001)
+        .map((c) => [c.part.replace('<', '&lt;').replace('>', '&gt;'), c.totalEffectShare, c.firstOrderShare, c.firstOrderRssShare]),
     );
+  });
+
+  it('the shares carry their one-line explanation: what the total-effect shares sum to for that output', () => {
+    const lines = [...section('vout').matchAll(/<p class="meta variance-budget">([^<]+)<\/p>/g)].map((m) => m[1]);
+    // The fixture's Σ total-effect is 1.025: past 100 %, said with the figure.
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/^Total-effect shares sum to 102\.5 % \(first-order 97\.8 %\): past 100 %/);
   });
 });
 

@@ -15,7 +15,7 @@ describe('spread JSON', () => {
       sigma: r.sigma,
       interval95: r.interval95,
       worstCase: { min: r.worstCase.min, max: r.worstCase.max },
-      rss: { sigma: r.rss.sigma, halfWidth: r.rss.halfWidth },
+      rss: { sigma: r.rss.sigma, expandedUncertainty: r.rss.expandedUncertainty, coverageFactor: 2 },
       yieldPct: r.yield!.pct,
       cpk: r.cpk,
     });

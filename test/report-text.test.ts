@@ -49,6 +49,31 @@ describe('terminal report', () => {
     expect(formatYieldPct(98.764)).toBe('98.76 %');
   });
 
+  it('contributors: ranked by total-effect share with its standard error, the three shares labelled, the sum explained', () => {
+    const lines = text.split('\n');
+    const at = lines.indexOf('largest contributors (ranked by total-effect share of the variance):');
+    expect(at).toBeGreaterThan(0);
+    const header = lines[at + 2]!.split('│').map((c) => c.trim()).filter((c) => c !== '');
+    expect(header.slice(0, 4)).toEqual(['part', 'total-effect share ± std. error', 'first-order share ± std. error', 'first-order (RSS) share']);
+    // Fixture: Vref total-effect 0.62 ± 0.011, first-order 0.60 ± 0.013, RSS 0.61.
+    const vref = lines[at + 3]!.split('│').map((c) => c.trim()).filter((c) => c !== '');
+    expect(vref.slice(0, 4)).toEqual(['Vref', '62.0 % ± 1.1 %', '60.0 % ± 1.3 %', '61.0 %']);
+    expect(text).toContain('Total-effect shares sum to 102.5 % (first-order 97.8 %): past 100 % because');
+    // The fixture's RSS σ is within 10 % of Monte Carlo's: no RSS note.
+    expect(text).not.toContain('differs from the Monte Carlo σ');
+    expect(text).toMatch(/RSS, first order \(JCGM 100 5\.1\.2\): u\(y\), U = k·u\(y\) *│ *u 12\.1 mV, U 24\.2 mV \(k = 2\)/);
+  });
+
+  it('an RSS σ more than 10 % off the Monte Carlo σ is said, with the reason the budget found', () => {
+    const vout = FIXTURE_RESULT.outputs.vout;
+    const budget = { ...vout.varianceBudget, firstOrderSum: 0.03, totalEffectSum: 1.97, rssToMonteCarloSigma: 0.18, rssAgreement: 'interaction' as const };
+    const interacting = { ...FIXTURE_RESULT, outputs: { vout: { ...vout, varianceBudget: budget } } };
+    const shown = renderSpreadText(interacting, { version: '1.0.0', subject: 'fixture.json' });
+    expect(shown).toContain('RSS σ (first order) 12.1 mV differs from the Monte Carlo σ 12.0 mV by more than 10 %: parts interact (first-order shares sum to only 3.0 %)');
+    const nonlinear = { ...FIXTURE_RESULT, outputs: { vout: { ...vout, varianceBudget: { ...budget, firstOrderSum: 0.97, rssAgreement: 'nonlinearity' as const } } } };
+    expect(renderSpreadText(nonlinear, { version: '1.0.0', subject: 'fixture.json' })).toContain('the output is not linear across the parts\' bands (first-order shares sum to 97.0 %');
+  });
+
   it('shows enough digits to resolve a tenth of σ: 8.4 V with σ = 12 mV → 4 significant digits', () => {
     expect(outputDigits(FIXTURE_RESULT.outputs.vout)).toBe(4); // 8.400 V: last digit 1 mV ≤ σ/10 = 1.2 mV
   });

@@ -1,5 +1,6 @@
-// The whole tolerance analysis of a design: nominal, worst case, RSS with contributions, and Monte Carlo with
-// yield and capability, for every output, in one AnalysisResult (plain JSON for the reports).
+// The whole tolerance analysis of a design: nominal, worst case, RSS, each part's share of the variance
+// (variance-based indices, interactions included), and Monte Carlo with yield and capability, for every output, in
+// one AnalysisResult (plain JSON for the reports).
 import { ImpossibleError } from '../errors.js';
 import { describeDistribution } from '../tolerance/sample.js';
 import { partVaries } from '../tolerance/part.js';
@@ -9,6 +10,8 @@ import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { AnalysisResult, OutputResult } from './result.js';
 import { rss } from './rss.js';
+import { outputBudget } from './variance-budget.js';
+import { varianceIndicesSteps, type VarianceIndicesResult } from './variance-indices.js';
 import { worstCase, type WorstCaseOptions } from './worst-case.js';
 
 export interface AnalyzeOptions extends Omit<MonteCarloOptions, 'source' | 'ranges'> {
@@ -33,12 +36,18 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const wcOptions = options.maxEnumerationVariables === undefined ? {} : { maxVariables: options.maxEnumerationVariables };
   const worst = worstCase(model, wcOptions);
   const propagated = rss(model);
+  // On this thread, while the workers start: its own sample, seeded from the run's seed, so independent of workers.
+  const indices = await runVarianceIndices(model, String(options.seed));
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
   const { maxEnumerationVariables: _ignored, ...mcOptions } = options;
   const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}) });
 
   const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
+  const budgetOf = (o: number) => {
+    const { contributions, budget } = outputBudget(propagated[o]!, indices.outputs[o]!, indices.method, mc.outputs[o]!.sigma);
+    return { contributions, varianceBudget: budget };
+  };
   const outputs: Record<string, OutputResult> = {};
   model.outputs.forEach((output, o) => {
     const m = mc.outputs[o]!;
@@ -60,7 +69,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       quantileBound: m.quantileBound,
       worstCase: worstCaseResult,
       rss: propagated[o]!.rss,
-      contributions: propagated[o]!.contributions,
+      ...budgetOf(o),
       histogram: m.histogram,
     };
     if (m.spec) result.spec = m.spec;
@@ -82,7 +91,8 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     worst[0]?.method === 'sensitivity-signs'
       ? 'Worst case: too many varying parts to enumerate; the vertex from the sensitivity signs, checked by single-part flips.'
       : `Worst case: every combination of band ends (${worst[0]?.evaluations ?? 0} vertices).`,
-    'RSS: law of propagation of uncertainty, first order, sensitivities by central differences (JCGM 100:2008 5.1.2).',
+    'RSS: law of propagation of uncertainty, first order, sensitivities by central differences at the parts\' means (JCGM 100:2008 5.1.2); expanded uncertainty U = k·u(y) with k = 2 (JCGM 100:2008 6.2.1, 6.3.3).',
+    `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
     ...mc.notes,
   ];
   const ilimit = outputs.ilimit;
@@ -103,6 +113,18 @@ function nominalAndWorstAt(model: Model, t: number, wcOptions: WorstCaseOptions)
   const held: Model = { ...model, parts };
   const nominal = nominalOutputs(held);
   return worstCase(held, wcOptions).map((w) => ({ nominal: nominal[w.name]!, worstCase: { low: w.min, high: w.max } }));
+}
+
+const pause = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
+
+/** The variance indices, pausing for the event loop after each part's evaluations (Ctrl-C is answered at once). */
+async function runVarianceIndices(model: Model, seed: string): Promise<VarianceIndicesResult> {
+  const steps = varianceIndicesSteps(model, { seed });
+  for (;;) {
+    const step = steps.next();
+    if (step.done) return step.value;
+    await pause();
+  }
 }
 
 /** Fails loudly, naming the field, rather than hand a NaN or an infinity to a report. */

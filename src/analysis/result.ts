@@ -20,20 +20,66 @@ export interface WorstCaseResult {
 export interface RssResult {
   /** Combined standard uncertainty u(y) by the law of propagation (JCGM 100:2008, 5.1.2), first order. */
   sigma: number;
-  /** Tolerance half-widths combined in quadrature, sqrt(Σ (c_i·half-width_i)²): common practice. */
-  halfWidth: number;
+  /**
+   * Expanded uncertainty U = k·u(y) (JCGM 100:2008, 6.2.1), k = coverageFactor. With k = 2 the interval y ± U
+   * covers about 95 % when y is close to normal (JCGM 100:2008, 6.3.3); it is not a tolerance band.
+   */
+  expandedUncertainty: number;
+  /** The coverage factor k of expandedUncertainty (2, JCGM 100:2008 6.3.3). */
+  coverageFactor: number;
   /** Output at the parts' means (the linearisation point's estimate). */
   center: number;
 }
 
-export interface Contribution {
+/** One part's first-order figures from the law of propagation at the parts' means (rss.ts). */
+export interface RssContribution {
   part: string;
   /** Sensitivity coefficient ∂y/∂x_i (central difference), output unit per part unit. */
   sensitivity: number;
   /** The part's standard uncertainty u(x_i) (σ of its distribution as Monte Carlo draws it). */
   standardUncertainty: number;
-  /** (c_i·u_i)² / u(y)²; shares add to 1; ranked largest first. */
+  /** First-order (RSS) share: (c_i·u_i)² / u(y)², linearised at the parts' means; shares add to 1. */
   varianceShare: number;
+}
+
+/** One part's share of an output's variance: the RSS figures plus the variance-based indices (variance-indices.ts). */
+export interface Contribution extends RssContribution {
+  /** Total-effect share S_Ti (Jansen 1999 estimator): the part alone and through every interaction it takes part in. */
+  totalEffectShare: number;
+  /** Standard error of totalEffectShare (the estimator's own, from its N rows). */
+  totalEffectStandardError: number;
+  /** First-order share S_i (Saltelli et al. 2010 estimator): the part alone, averaged over the other parts. */
+  firstOrderShare: number;
+  firstOrderStandardError: number;
+}
+
+/** How the variance-based shares were estimated (one sample for every output of a run). */
+export interface VarianceIndicesMethod {
+  estimator: string;
+  /** N: rows of each of the sample matrices A and B. */
+  baseSamples: number;
+  /** Model evaluations spent: N·(k + 2), k the parts that vary in Monte Carlo. */
+  evaluations: number;
+  /** The seed name of the sample's own stream (its chunk 0 holds A, then B). */
+  seed: string;
+}
+
+/**
+ * Whether the first-order RSS σ tells the Monte Carlo σ within RSS_AGREEMENT (variance-budget.ts), and if not, why:
+ * 'interaction' when the first-order shares leave a tenth or more of the variance to interactions, else 'nonlinearity'.
+ */
+export type RssAgreement = 'agrees' | 'interaction' | 'nonlinearity';
+
+/** An output's variance budget: the method and the sums that say how far interactions reach. */
+export interface VarianceBudget {
+  method: VarianceIndicesMethod;
+  /** Σ total-effect shares: past 1 by what interactions add (each counted once per part it involves). */
+  totalEffectSum: number;
+  /** Σ first-order shares: 1 − this is the share of the variance in interactions. */
+  firstOrderSum: number;
+  /** RSS σ / Monte Carlo σ; null when the Monte Carlo σ is 0. */
+  rssToMonteCarloSigma: number | null;
+  rssAgreement: RssAgreement;
 }
 
 export interface YieldResult {
@@ -135,7 +181,9 @@ export interface OutputResult extends MonteCarloOutput {
   nominal: number;
   worstCase: WorstCaseResult;
   rss: RssResult;
+  /** Ranked by total-effect share, largest first. */
   contributions: Contribution[];
+  varianceBudget: VarianceBudget;
 }
 
 export interface AnalysisResult {

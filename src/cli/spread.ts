@@ -70,6 +70,10 @@ What each figure means:
 Exit codes: 0 done; 1 an output's per-unit yield is below --fail-under-yield (the report is printed in full first, then one
 line naming each such output and its yield); 2 bad input or an impossible design (one line on stderr); 130 Ctrl-C.
 
+Contributors are ranked by total-effect share of the variance (the part alone and through its interactions, e.g. a
+TCR with the ambient; Jansen 1999), shown with the first-order share (Saltelli et al. 2010) and the first-order (RSS)
+share; total-effect shares sum past 100 % by what interactions add. RSS gives u(y) and U = 2·u(y) (JCGM 100 6.2.1).
+
 Examples:
   $ trimfree spread examples/charger-2s-liion.json
   $ trimfree spread examples/charger-2s-liion.json --trials 1000000 --seed 7 --json

@@ -12,6 +12,7 @@ import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, output
 import { groupMethodNotes } from './method-notes.js';
 import { outputFigures } from './spread-text.js';
 import { renderSvgContributions } from './svg-contributions.js';
+import { varianceBudgetLines } from './variance-budget-lines.js';
 import { renderSvgHistogram } from './svg-histogram.js';
 
 /** One BOM line as the report shows it (already formatted by the design layer). */
@@ -77,6 +78,7 @@ svg .marker.nominal line{stroke:#1b1f24;stroke-width:1;stroke-dasharray:2 2}
 svg .marker.worst line{stroke:#6f42c1;stroke-width:1.5;stroke-dasharray:3 3}
 svg .worst-bracket{stroke:#6f42c1;stroke-width:2}
 svg .contribution{fill:#2e8b57}
+svg .first-order{fill:#a8d5ba}
 `;
 
 function cell(text: string, cls = ''): string {
@@ -150,7 +152,9 @@ ${figures.join('\n')}
 <div class="charts">
 ${renderSvgHistogram(output)}
 <div><h3>Share of the variance by part</h3>
-${renderSvgContributions(output)}</div>
+${renderSvgContributions(output)}
+<p class="meta">Bars: total-effect share ± its standard error (the part alone and through its interactions); the thin inner bar: first-order share (the part alone).</p>
+${varianceBudgetLines(output).map((line) => `<p class="meta variance-budget">${escapeHtml(line)}</p>`).join('\n')}</div>
 </div>
 </section>`;
 }
@@ -161,7 +165,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
   const method = [
     `Monte Carlo propagation of distributions (JCGM 101:2008): ${r.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(r.seed)}, ${r.workers} worker(s), chunks of ${r.chunkSize.toLocaleString('en-US')} trials each seeded on its own so the numbers do not depend on the worker count.`,
     'Worst case: the extremes over the tolerance band ends and temperature corners (method per output in its table).',
-    'RSS: law of propagation of uncertainty with numerical sensitivity coefficients (JCGM 100:2008, 5.1.2).',
+    'RSS: law of propagation of uncertainty, first order, with numerical sensitivity coefficients at the parts\' means (JCGM 100:2008, 5.1.2); U = k·u(y) with k = 2 (JCGM 100:2008, 6.2.1, 6.3.3).',
     'Yield: share of trials inside the spec window, with its 95 % Wilson score interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.',
     ...groupMethodNotes(r.notes, new Set(input.parts.map((p) => p.name))),
   ];

@@ -3,6 +3,7 @@
 // Every number is finite: a figure that does not exist for an output (Cpk without a spec window) is null, and the
 // output's `notes` say why. Nothing is recomputed: each figure is copied from the AnalysisResult.
 import type { AnalysisResult, OutputResult } from '../analysis/result.js';
+import { varianceBudgetLines } from './variance-budget-lines.js';
 
 export interface SpreadJsonOutput {
   name: string;
@@ -19,7 +20,8 @@ export interface SpreadJsonOutput {
   quantileMethod: string;
   quantileBound: number;
   worstCase: { min: number; max: number; minVertex: Record<string, string>; maxVertex: Record<string, string>; method: string };
-  rss: { sigma: number; halfWidth: number; center: number };
+  /** First order (JCGM 100:2008 5.1.2): u(y) as sigma, U = k·u(y) with k = coverageFactor. */
+  rss: { sigma: number; expandedUncertainty: number; coverageFactor: number; center: number };
   /** Per unit: share of units inside the window at every ambient checked. */
   yieldPct: number | null;
   yieldInterval95: { low: number; high: number } | null;
@@ -47,7 +49,29 @@ export interface SpreadJsonOutput {
     yieldPct: number | null;
     cpk: number | null;
   }>;
-  contributions: Array<{ part: string; varianceShare: number; sensitivity: number; standardUncertainty: number }>;
+  /** Ranked by total-effect share; firstOrderRssShare is the first-order (RSS) share at the parts' means. */
+  contributions: Array<{
+    part: string;
+    totalEffectShare: number;
+    totalEffectStandardError: number;
+    firstOrderShare: number;
+    firstOrderStandardError: number;
+    firstOrderRssShare: number;
+    sensitivity: number;
+    standardUncertainty: number;
+  }>;
+  varianceBudget: {
+    estimator: string;
+    baseSamples: number;
+    evaluations: number;
+    seed: string;
+    totalEffectSum: number;
+    firstOrderSum: number;
+    rssToMonteCarloSigma: number | null;
+    rssAgreement: string;
+    /** The one-line explanations the text and HTML reports print. */
+    explanation: string[];
+  };
   histogram: { edges: number[]; counts: number[]; belowSpec: number | null; aboveSpec: number | null };
   notes: string[];
 }
@@ -115,7 +139,12 @@ export function outputJson(output: OutputResult): SpreadJsonOutput {
       maxVertex: { ...output.worstCase.maxVertex },
       method: output.worstCase.method,
     },
-    rss: { sigma: f(output.rss.sigma, 'rss.sigma'), halfWidth: f(output.rss.halfWidth, 'rss.halfWidth'), center: f(output.rss.center, 'rss.center') },
+    rss: {
+      sigma: f(output.rss.sigma, 'rss.sigma'),
+      expandedUncertainty: f(output.rss.expandedUncertainty, 'rss.expandedUncertainty'),
+      coverageFactor: f(output.rss.coverageFactor, 'rss.coverageFactor'),
+      center: f(output.rss.center, 'rss.center'),
+    },
     yieldPct: finiteOrNull(output.yield?.pct, 'yieldPct', noSpec, notes),
     yieldInterval95: output.yield && Number.isFinite(output.yield.low) && Number.isFinite(output.yield.high)
       ? { low: output.yield.low, high: output.yield.high }
@@ -141,10 +170,25 @@ export function outputJson(output: OutputResult): SpreadJsonOutput {
     })),
     contributions: output.contributions.map((c) => ({
       part: c.part,
-      varianceShare: f(c.varianceShare, `contributions[${c.part}].varianceShare`),
+      totalEffectShare: f(c.totalEffectShare, `contributions[${c.part}].totalEffectShare`),
+      totalEffectStandardError: f(c.totalEffectStandardError, `contributions[${c.part}].totalEffectStandardError`),
+      firstOrderShare: f(c.firstOrderShare, `contributions[${c.part}].firstOrderShare`),
+      firstOrderStandardError: f(c.firstOrderStandardError, `contributions[${c.part}].firstOrderStandardError`),
+      firstOrderRssShare: f(c.varianceShare, `contributions[${c.part}].firstOrderRssShare`),
       sensitivity: f(c.sensitivity, `contributions[${c.part}].sensitivity`),
       standardUncertainty: f(c.standardUncertainty, `contributions[${c.part}].standardUncertainty`),
     })),
+    varianceBudget: {
+      estimator: output.varianceBudget.method.estimator,
+      baseSamples: output.varianceBudget.method.baseSamples,
+      evaluations: output.varianceBudget.method.evaluations,
+      seed: output.varianceBudget.method.seed,
+      totalEffectSum: f(output.varianceBudget.totalEffectSum, 'varianceBudget.totalEffectSum'),
+      firstOrderSum: f(output.varianceBudget.firstOrderSum, 'varianceBudget.firstOrderSum'),
+      rssToMonteCarloSigma: finiteOrNull(output.varianceBudget.rssToMonteCarloSigma ?? undefined, 'varianceBudget.rssToMonteCarloSigma', 'the Monte Carlo σ is 0', notes),
+      rssAgreement: output.varianceBudget.rssAgreement,
+      explanation: varianceBudgetLines(output),
+    },
     histogram: {
       edges: output.histogram.edges.map((e, i) => f(e, `histogram.edges[${i}]`)),
       counts: output.histogram.counts.slice(),

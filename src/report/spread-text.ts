@@ -15,6 +15,7 @@ import {
 } from './format-value.js';
 import { groupMethodNotes } from './method-notes.js';
 import { textTable } from './text-table.js';
+import { formatShareWithError, varianceBudgetLines } from './variance-budget-lines.js';
 
 export interface SpreadTextOptions {
   version: string;
@@ -56,7 +57,12 @@ export function outputFigures(output: OutputResult): FigureRow[] {
     { field: 'interval9973', label: '99.73 % coverage interval', text: `${v(output.interval9973.low)} … ${v(output.interval9973.high)}`, values: [output.interval9973.low, output.interval9973.high] },
     { field: 'shortest95', label: 'shortest 95 % interval', text: `${v(output.shortest95.low)} … ${v(output.shortest95.high)}`, values: [output.shortest95.low, output.shortest95.high] },
     { field: 'worstCase', label: `worst case (${output.worstCase.method})`, text: `${v(output.worstCase.min)} … ${v(output.worstCase.max)}`, values: [output.worstCase.min, output.worstCase.max] },
-    { field: 'rss', label: 'RSS: σ, ± tolerance half-width', text: `σ ${formatSpread(output.rss.sigma, u)}, ± ${formatSpread(output.rss.halfWidth, u)}`, values: [output.rss.sigma, output.rss.halfWidth] },
+    {
+      field: 'rss',
+      label: 'RSS, first order (JCGM 100 5.1.2): u(y), U = k·u(y)',
+      text: `u ${formatSpread(output.rss.sigma, u)}, U ${formatSpread(output.rss.expandedUncertainty, u)} (k = ${output.rss.coverageFactor})`,
+      values: [output.rss.sigma, output.rss.expandedUncertainty, output.rss.coverageFactor],
+    },
     {
       field: 'yieldPct',
       label: 'yield per unit: inside the window at every ambient checked (95 % Wilson interval)',
@@ -155,8 +161,20 @@ function formatCoefficient(value: number): string {
 }
 
 function contributorsTable(output: OutputResult, count: number): string {
-  const rows = output.contributions.slice(0, count).map((c) => [c.part, formatShare(c.varianceShare), formatCoefficient(c.sensitivity)]);
-  return textTable(['part', 'share of variance', `sensitivity (${output.unit || '1'} per part unit)`], rows, [false, true, true]);
+  const rows = output.contributions
+    .slice(0, count)
+    .map((c) => [
+      c.part,
+      formatShareWithError(c.totalEffectShare, c.totalEffectStandardError),
+      formatShareWithError(c.firstOrderShare, c.firstOrderStandardError),
+      formatShare(c.varianceShare),
+      formatCoefficient(c.sensitivity),
+    ]);
+  return textTable(
+    ['part', 'total-effect share ± std. error', 'first-order share ± std. error', 'first-order (RSS) share', `sensitivity at nominal (${output.unit || '1'} per part unit)`],
+    rows,
+    [false, true, true, true, true],
+  );
 }
 
 export function renderSpreadText(result: AnalysisResult, options: SpreadTextOptions): string {
@@ -176,8 +194,9 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
       out.push(sweep);
     }
     if (output.contributions.length > 0) {
-      out.push('largest contributors:');
+      out.push('largest contributors (ranked by total-effect share of the variance):');
       out.push(contributorsTable(output, options.contributors ?? 5));
+      for (const line of varianceBudgetLines(output)) out.push(`  ${line}`);
     }
     if (options.histogram ?? true) {
       out.push('');
