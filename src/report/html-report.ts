@@ -126,7 +126,7 @@ function summaryTable(result: AnalysisResult): string {
     const wc = `${formatValue(o.worstCase.min, o.unit, d)} … ${formatValue(o.worstCase.max, o.unit, d)}`;
     return `<tr data-output="${escapeHtml(o.name)}">${cell(outputTitle(o.name))}${cell(formatValue(o.nominal, o.unit, d), 'num')}${cell(formatValue(o.mean, o.unit, d), 'num')}${cell(formatSpread(o.sigma, o.unit), 'num')}${cell(wc, 'num')}${cell(o.yield ? formatYieldPct(o.yield.pct) : MISSING, 'num')}${cell(formatIndex(o.cpk), 'num')}</tr>`;
   });
-  return table(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk'], rows);
+  return table(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield per unit', 'Cpk'], rows);
 }
 
 function extraTable(t: ReportTable): string {
@@ -148,7 +148,7 @@ function outputSection(output: OutputResult, idPrefix = '', titleSuffix = ''): s
 <table class="figures"><tbody>
 ${figures.join('\n')}
 </tbody></table>
-<p class="meta">${quantileNote} Histogram: bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
+<p class="meta">${quantileNote} Histogram: each unit at the ambient drawn with it; bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
 <div class="charts">
 ${renderSvgHistogram(output)}
 <div><h3>Share of the variance by part</h3>
@@ -166,7 +166,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
     `Monte Carlo propagation of distributions (JCGM 101:2008): ${r.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(r.seed)}, ${r.workers} worker(s), chunks of ${r.chunkSize.toLocaleString('en-US')} trials each seeded on its own so the numbers do not depend on the worker count.`,
     'Worst case: the extremes over the tolerance band ends and temperature corners (method per output in its table).',
     'RSS: law of propagation of uncertainty, first order, with numerical sensitivity coefficients at the parts\' means (JCGM 100:2008, 5.1.2); U = k·u(y) with k = 2 (JCGM 100:2008, 6.2.1, 6.3.3).',
-    'Yield: share of trials inside the spec window, with its 95 % Wilson score interval; Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6.',
+    'Yield per unit: share of units (a trial is one unit, its parts drawn once) inside the spec window at every ambient checked over the range, with its 95 % Wilson score interval; the yield at a random ambient is a second figure, never in its place. Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6, from the units at the worst ambient.',
     ...groupMethodNotes(r.notes, new Set(input.parts.map((p) => p.name))),
   ];
   return `<!DOCTYPE html>
