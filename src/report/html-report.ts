@@ -10,6 +10,7 @@ import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.
 import { escapeHtml, exact } from './html-escape.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits, outputTitle } from './format-value.js';
 import { groupMethodNotes } from './method-notes.js';
+import { POT_OUTPUTS } from './pot-ends.js';
 import { outputFigures } from './spread-text.js';
 import { renderSvgContributions } from './svg-contributions.js';
 import { varianceBudgetLines } from './variance-budget-lines.js';
@@ -190,7 +191,7 @@ ${input.bom && input.bom.length > 0 ? `<h2>Bill of materials</h2>\n${bomTable(in
 ${input.designNotes && input.designNotes.length > 0 ? `<h2>Design notes</h2><ul>${input.designNotes.map((n) => `<li>${escapeHtml(n)}</li>`).join('')}</ul>` : ''}
 ${(input.tables ?? []).map(extraTable).join('\n')}
 ${Object.values(r.outputs).map((o) => outputSection(o)).join('\n')}
-${input.lowEnd ? `<h2>${escapeHtml(input.lowEnd.title)}</h2>\n${summaryTable(input.lowEnd.result)}\n${Object.values(input.lowEnd.result.outputs).map((o) => outputSection(o, 'lowend-', `, ${input.lowEnd!.title}`)).join('\n')}` : ''}
+${input.lowEnd ? `<h2>${escapeHtml(input.lowEnd.title)}</h2>\n${summaryTable({ ...input.lowEnd.result, outputs: Object.fromEntries(Object.entries(input.lowEnd.result.outputs).filter(([name]) => POT_OUTPUTS.includes(name))) })}\n${Object.values(input.lowEnd.result.outputs).filter((o) => POT_OUTPUTS.includes(o.name)).map((o) => outputSection(o, 'lowend-', `, ${input.lowEnd!.title}`)).join('\n')}\n<p class="meta">The current-limit outputs are the same at both ends of the travel: shown once above.</p>` : ''}
 <h2>How it was obtained</h2>
 <ul id="method">${method.map((m) => `<li>${escapeHtml(m)}</li>`).join('')}</ul>
 ${input.command ? `<p class="meta">Command: <code>${escapeHtml(input.command)}</code></p>` : ''}

@@ -1,6 +1,7 @@
 // A spread study as the terminal report: each analysis (and the pot's bottom end for an adjustable output), then
 // the limits no resistor grade can fix, the design notes and the cautions from the design's resolution.
 import type { SpreadRun } from '../design/spread-study.js';
+import { POT_OUTPUTS } from './pot-ends.js';
 import { renderSpreadText } from './spread-text.js';
 
 export interface SpreadRunTextOptions {
@@ -16,17 +17,13 @@ export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOption
   const top = 'pot at the top of its travel';
   const bottom = 'pot at the bottom of its travel';
   let text = renderSpreadText(run.result, { version, subject: `${subject}, ${top}`, partNames, where: top });
-  // The current-sense path never reads the divider, and both ends draw the same parts from the same seed: its
-  // outputs are identical at both ends, so the bottom shows only what the pot moves.
+  // The bottom shows only what the pot moves (pot-ends.ts).
   const moved = POT_OUTPUTS.filter((name) => name in run.lowEnd!.result.outputs);
   text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, ${bottom}`, partNames, where: bottom, outputs: moved })}`;
   const same = Object.keys(run.lowEnd.result.outputs).filter((name) => !moved.includes(name));
   if (same.length > 0) text += `(${same.join(', ')}: the same at both ends of the travel, shown once above)\n`;
   return withDesignNotes(text, run);
 }
-
-/** The outputs the pot's position changes. */
-const POT_OUTPUTS = ['vout', 'dividerCurrent'];
 
 function withDesignNotes(body: string, run: SpreadRun): string {
   let text = body;
