@@ -1,5 +1,5 @@
-// The HTML report in a real browser: Debian's chromium driven by playwright-core (CI installs it in .ci/run).
-// Checks that the inline SVG charts render with the expected bins and markers, and leaves a screenshot in /tmp.
+// The HTML report in a real browser: Chromium driven by playwright-core; Debian's package when installed, else the
+// build shipped in the dev dependency @sparticuz/chromium (test/browser-executable.ts; never a download). Checks that the inline SVG charts render with the expected bins and markers, and leaves a screenshot in /tmp.
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -17,21 +17,24 @@ import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
 import { FIXTURE_PARTS, FIXTURE_RESULT } from './report-fixture.js';
+import { BROWSER_ARGS, findChromium } from './browser-executable.js';
 
-const CHROMIUM = '/usr/bin/chromium';
 /** The SVG/DOM geometry used below (the project's TypeScript settings carry no DOM library). */
 type Graphic = { getBBox(): { width: number }; getBoundingClientRect(): { left: number; width: number; height: number } };
 export const SCREENSHOT = join(tmpdir(), 'trimfree-report.png');
 export const EXAMPLE_SCREENSHOT = join(tmpdir(), 'trimfree-report-example.png');
-const LAUNCH_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
-/** A fresh Chromium with its own profile folder; fails with a clear message when the browser is missing. */
+/** A fresh Chromium (test/browser-executable.ts says which) with its own profile folder. */
 async function launch(): Promise<{ context: BrowserContext; profile: string }> {
-  if (!existsSync(CHROMIUM)) {
-    throw new Error(`${CHROMIUM} is missing: install it with 'apt-get install -y chromium' (.ci/run does this under CI=true)`);
-  }
+  const browser = await findChromium();
   const profile = mkdtempSync(join(tmpdir(), 'trimfree-chromium-profile-'));
-  const context = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM, headless: true, viewport: { width: 1200, height: 900 }, args: LAUNCH_ARGS });
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: browser.path,
+    headless: true,
+    viewport: { width: 1200, height: 900 },
+    args: BROWSER_ARGS,
+    env: { ...process.env, ...browser.env } as Record<string, string>,
+  });
   return { context, profile };
 }
 
