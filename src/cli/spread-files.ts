@@ -43,7 +43,7 @@ export interface SpreadFiles {
 }
 
 /** Refuses an existing output file before the run (writeOutputFile checks again when it writes). */
-function refuseExisting(path: string | undefined, where: string, force: boolean): void {
+export function refuseExisting(path: string | undefined, where: string, force: boolean): void {
   if (path === undefined) return;
   const folder = dirname(resolve(path));
   if (!existsSync(folder) || !statSync(folder).isDirectory()) {

@@ -1,6 +1,7 @@
 // The `design` report: the BOM, the spread study and (unless skipped) the grade study, as terminal text or as one
 // JSON document { bom, spread, grades }.
 import type { GradesRun } from '../design/grade-study.js';
+import type { PurchaseBomLine } from '../design/purchase-bom.js';
 import type { SpreadRun } from '../design/spread-study.js';
 import { renderBomText } from './bom-table.js';
 import { gradesJson } from './grades-json.js';
@@ -20,6 +21,7 @@ export function renderDesignText(spread: SpreadRun, grades: GradesRun | undefine
   return `${renderBomText(spread.resolved.bom)}\n${renderSpreadRunText(spread, options)}${gradesText}`;
 }
 
-export function designReportJson(spread: SpreadRun, grades: GradesRun | undefined, version: string): unknown {
-  return { bom: spread.resolved.bom, spread: spreadReportJson(spread, version), grades: grades ? gradesJson(grades, version) : null };
+/** `bom` is the purchase BOM when given (`design` passes it: src/design/purchase-bom.ts), else the design's BOM. */
+export function designReportJson(spread: SpreadRun, grades: GradesRun | undefined, version: string, bom?: PurchaseBomLine[]): unknown {
+  return { bom: bom ?? spread.resolved.bom, spread: spreadReportJson(spread, version), grades: grades ? gradesJson(grades, version) : null };
 }
