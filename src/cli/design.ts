@@ -16,6 +16,7 @@ import { designReportJson, renderDesignText } from '../report/design-report.js';
 import { gradesReportTables } from '../report/grades-tables.js';
 import { stringifyReport } from '../report/json.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { colourWanted } from './colour.js';
 import { writeOutputFile } from './output-file.js';
 import { checkSpreadFiles, refuseExisting, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
@@ -58,7 +59,7 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
     writeOutputFile(options.bom, renderBomCsv(bom), { force: files.force, where: '--bom' });
     written.push(options.bom);
   }
-  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION, bom)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
+  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION, bom)) : renderDesignText(spread, grades, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
 }
@@ -74,7 +75,7 @@ export function designCommand(): Command {
     .addOption(new Option('--chip-sizes <file.json>', 'chip-size table the BOM picks sizes from (default: series/chip-sizes.json, common practice)'))
     .option('--force', 'overwrite existing output files', false)
     .option('--no-grades', 'skip the grade comparison and the cheapest-grade search')
-    .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window'))
+    .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window, and each output\'s yield must reach to read "pass" in the summary'))
     .addOption(searchTrialsFlag('Monte Carlo trials per grade assignment the search evaluates'))
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))

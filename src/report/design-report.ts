@@ -13,6 +13,10 @@ export interface DesignTextOptions {
   /** What was analysed, e.g. the design file's path. */
   subject: string;
   version: string;
+  /** Yield an output must reach for "pass" in the spread summary, %. */
+  targetYieldPct?: number;
+  /** Colour the pass/fail words (a terminal that takes colour only). */
+  colour?: boolean;
 }
 
 export function renderDesignText(spread: SpreadRun, grades: GradesRun | undefined, options: DesignTextOptions): string {

@@ -7,14 +7,19 @@ export interface SpreadRunTextOptions {
   /** What was analysed, e.g. the design file's path. */
   subject: string;
   version: string;
+  /** Yield an output must reach for "pass" in the summary, %. */
+  targetYieldPct?: number;
+  /** Colour the pass/fail words (a terminal that takes colour only). */
+  colour?: boolean;
 }
 
 export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
   const { subject, version } = options;
   const partNames = run.model.parts.map((p) => p.name);
-  let text = renderSpreadText(run.result, { version, subject, partNames });
+  const verdict = { ...(options.targetYieldPct !== undefined ? { targetYieldPct: options.targetYieldPct } : {}), colour: options.colour ?? false };
+  let text = renderSpreadText(run.result, { version, subject, partNames, ...verdict });
   if (run.lowEnd) {
-    text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, pot at the bottom of its travel`, partNames })}`;
+    text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, pot at the bottom of its travel`, partNames, ...verdict })}`;
   }
   const limits = run.resolved.limits ?? [];
   const notes = run.resolved.notes.filter((n) => !limits.includes(n));

@@ -15,6 +15,7 @@ import {
 } from './format-value.js';
 import { groupMethodNotes } from './method-notes.js';
 import { textTable } from './text-table.js';
+import { outputVerdict, verdictText } from './verdict-word.js';
 
 export interface SpreadTextOptions {
   version: string;
@@ -26,7 +27,14 @@ export interface SpreadTextOptions {
   /** Contributors listed per output (default 5). */
   contributors?: number;
   histogram?: boolean;
+  /** Yield an output must reach for "pass" in the summary, % (default DEFAULT_VERDICT_YIELD_PCT). */
+  targetYieldPct?: number;
+  /** Colour the pass/fail words (only for a terminal that takes colour: src/cli/colour.ts). */
+  colour?: boolean;
 }
+
+/** The summary's pass/fail target when the command names none (the grade search's default target). */
+export const DEFAULT_VERDICT_YIELD_PCT = 99.9;
 
 /** One output's figures as label/value pairs, in the order reports show them (shared by text and HTML). */
 export interface FigureRow {
@@ -64,7 +72,7 @@ export function outputFigures(output: OutputResult): FigureRow[] {
   return rows;
 }
 
-function summaryTable(result: AnalysisResult): string {
+function summaryTable(result: AnalysisResult, targetYieldPct: number, colour: boolean): string {
   const rows = Object.values(result.outputs).map((o) => {
     const d = outputDigits(o);
     return [
@@ -75,9 +83,11 @@ function summaryTable(result: AnalysisResult): string {
       `${formatValue(o.worstCase.min, o.unit, d)} … ${formatValue(o.worstCase.max, o.unit, d)}`,
       o.yield ? formatYieldPct(o.yield.pct) : MISSING,
       formatIndex(o.cpk),
+      o.spec ? `${formatValue(o.spec[0], o.unit, d)} … ${formatValue(o.spec[1], o.unit, d)}` : MISSING,
+      verdictText(outputVerdict(o, targetYieldPct), colour),
     ];
   });
-  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk'], rows, [false, true, true, true, true, true, true]);
+  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk', 'window', `yield ≥ ${targetYieldPct} %`], rows, [false, true, true, true, true, true, true, true, false]);
 }
 
 /** A sensitivity coefficient: plain digits between 0.01 and 1000, exponent notation outside. */
@@ -96,7 +106,7 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
   const out: string[] = [];
   out.push(`${options.subject}: Monte Carlo ${result.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(result.seed)}; trimfree ${options.version}`);
   out.push('');
-  out.push(summaryTable(result));
+  out.push(summaryTable(result, options.targetYieldPct ?? DEFAULT_VERDICT_YIELD_PCT, options.colour ?? false));
   for (const output of Object.values(result.outputs)) {
     out.push('');
     out.push(`== ${outputTitle(output.name)} ==`);
