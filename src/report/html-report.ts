@@ -90,7 +90,7 @@ svg .tick line{stroke:#57606a}svg .axis-title{font-style:italic}
 svg{max-width:100%;height:auto;box-sizing:border-box}
 section.table table{max-width:100%}td .line{display:block;white-space:nowrap}
 #provenance{display:grid;grid-template-columns:max-content 1fr max-content 1fr;gap:2px 12px;margin:8px 0 12px;color:#57606a}
-#provenance dt{font-weight:600}#provenance dd{margin:0;overflow-wrap:anywhere}
+#provenance dt{font-weight:600}#provenance dd{margin:0;overflow-wrap:anywhere}#provenance dd.wide{grid-column:2/-1}#provenance dd[data-field=sha256]{font-family:ui-monospace,monospace}
 @page{margin:14mm}
 @media print{
 body{font-size:11px;max-width:none;margin:0;padding:0}
@@ -111,11 +111,13 @@ function utcText(date: Date): string {
 /** Where the report came from, so it can be matched to its design file and reproduced. */
 function provenanceBlock(input: HtmlReportInput): string {
   const r = input.result;
+  // The file and its digest each take a whole row; the short figures pair up two to a row.
   const entries: [string, string, string][] = [['subject', 'design file', input.subject]];
   if (input.provenance?.designSha256) entries.push(['sha256', 'SHA-256 of the design file', input.provenance.designSha256]);
   if (input.provenance) entries.push(['generated', 'generated', utcText(input.provenance.generatedAt)]);
   entries.push(['version', 'trimfree version', input.version], ['seed', 'seed', JSON.stringify(r.seed)], ['trials', 'Monte Carlo trials', r.trials.toLocaleString('en-US')]);
-  const items = entries.map(([field, label, value]) => `<dt>${escapeHtml(label)}</dt><dd data-field="${field}">${escapeHtml(value)}</dd>`);
+  const wide = new Set(['subject', 'sha256']);
+  const items = entries.map(([field, label, value]) => `<dt>${escapeHtml(label)}</dt><dd data-field="${field}"${wide.has(field) ? ' class="wide"' : ''}>${escapeHtml(value)}</dd>`);
   return `<dl id="provenance">${items.join('')}</dl>`;
 }
 
