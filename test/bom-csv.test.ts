@@ -156,6 +156,18 @@ describe('the purchase BOM of the charger example', () => {
   });
 });
 
+describe('the purchase BOM of the adjustable example', () => {
+  it('the pot gets no chip size (not a chip resistor), with the reason in its place', async () => {
+    const run = await runSpread(resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', 'bench-adjustable.json'))), { trials: 5000, seed: 1, workers: 1, progress: false });
+    const lines = purchaseBom(run.resolved.bom, run.result, loadChipSizes());
+    const pot = lines.find((l) => l.designator === 'RV')!;
+    expect(pot.chipSize).toBeNull();
+    expect(pot.chipSizeNote).toMatch(/not a chip resistor/);
+    const records = parseCsv(renderBomCsv(lines));
+    expect(records.find((r) => r[0] === 'RV')![BOM_CSV_COLUMNS.indexOf('chip size')]).toBe(pot.chipSizeNote);
+  }, 60_000);
+});
+
 describe('design --bom as a user runs it', () => {
   beforeAll(buildIfMissing, 120_000);
 
@@ -169,7 +181,7 @@ describe('design --bom as a user runs it', () => {
     const records = parseCsv(readFileSync(file, 'utf8'));
     const json = JSON.parse(runTrimfree([...args, '--json']).stdout) as { bom: PurchaseBomLine[] };
     expect(records.slice(1).map((r) => r[0])).toEqual(json.bom.map((l) => l.designator));
-    expect(json.bom.every((l) => typeof l.powerWorstCaseW === 'number' && l.chipSize !== undefined)).toBe(true);
+    expect(json.bom.every((l) => typeof l.powerWorstCaseW === 'number' && (l.chipSize !== null) !== (l.chipSizeNote !== null))).toBe(true);
     const before = readFileSync(file, 'utf8');
     expectOneLineError(runTrimfree([...args, '--bom', file]), /^trimfree: --bom: .*already exists.*--force/);
     expect(readFileSync(file, 'utf8')).toBe(before);

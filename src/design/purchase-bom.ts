@@ -47,8 +47,10 @@ export interface PurchaseBomLine {
   worstCaseBasis: string;
   /** Power rating the design gives for the part, W, or null. */
   ratingW: number | null;
-  /** Smallest chip size covering the worst-case power (derated) and voltage, or null when none in the table does. */
+  /** Smallest chip size covering the worst-case power (derated) and voltage, or null (see chipSizeNote). */
   chipSize: string | null;
+  /** Why there is no chip size: none in the table covers the part, or the part is not a chip resistor. */
+  chipSizeNote: string | null;
 }
 
 /** Which model output drives each placed part's current. */
@@ -77,7 +79,10 @@ export function purchaseBom(bom: BomLine[], result: AnalysisResult, chips: ChipS
     const ohmsHigh = line.ohms * (1 + line.tolerance);
     const voltage = current * ohmsHigh;
     const power = current * voltage;
-    const chip = smallestChip(chips, power, voltage);
+    // The pot is a trimmer or panel part, not a chip resistor: the table does not apply to it.
+    const isPot = line.designator === DESIGNATORS.pot;
+    const chip = isPot ? undefined : smallestChip(chips, power, voltage);
+    const chipSizeNote = chip ? null : isPot ? "a potentiometer, not a chip resistor: choose one by its own rating" : 'none in the table covers it';
     return {
       designator: line.designator,
       members: [...(line.members ?? [])],
@@ -95,6 +100,7 @@ export function purchaseBom(bom: BomLine[], result: AnalysisResult, chips: ChipS
       worstCaseBasis: basis,
       ratingW: line.ratingW ?? null,
       chipSize: chip ? chip.size : null,
+      chipSizeNote,
     };
   });
 }

@@ -41,7 +41,7 @@ export function renderBomCsv(lines: PurchaseBomLine[]): string {
       plainNumber(l.voltageWorstCaseV, 4),
       l.worstCaseBasis,
       l.ratingW === null ? '' : plainNumber(l.ratingW),
-      l.chipSize ?? 'none in the table covers it',
+      l.chipSize ?? l.chipSizeNote ?? '',
     ]),
   );
   return csvRecord([...BOM_CSV_COLUMNS]) + records.join('');
