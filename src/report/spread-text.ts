@@ -87,7 +87,7 @@ function summaryTable(result: AnalysisResult, targetYieldPct: number, colour: bo
       verdictText(outputVerdict(o, targetYieldPct), colour),
     ];
   });
-  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk', 'window', `yield ≥ ${targetYieldPct} %`], rows, [false, true, true, true, true, true, true, true, false]);
+  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield', 'Cpk', 'spec window', `yield ≥ ${targetYieldPct} %`], rows, [false, true, true, true, true, true, true, true, false]);
 }
 
 /** A sensitivity coefficient: plain digits between 0.01 and 1000, exponent notation outside. */
