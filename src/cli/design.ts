@@ -2,8 +2,12 @@
 // runs the spread study and (unless --no-grades) the grade study (src/design/spread-study.ts, grade-study.ts: the
 // same ones `spread` and `grades` run, so the three commands agree), prints the BOM and both reports
 // (src/report/design-report.ts), and writes the HTML report when asked (src/cli/spread-files.ts).
-import { Command } from 'commander';
+import { Command, Option } from 'commander';
 import { analysisChoice } from '../design/analysis-choice.js';
+import { loadChipSizes } from '../design/chip-sizes.js';
+import { purchaseBom } from '../design/purchase-bom.js';
+import { renderBomCsv } from '../report/bom-csv.js';
+import { InputError } from '../errors.js';
 import { DEFAULT_GRADES_TRIALS, runGrades } from '../design/grade-study.js';
 import { loadDesignFile } from '../design/load.js';
 import { resolveDesign } from '../design/resolve.js';
@@ -12,7 +16,9 @@ import { designReportJson, renderDesignText } from '../report/design-report.js';
 import { gradesReportTables } from '../report/grades-tables.js';
 import { stringifyReport } from '../report/json.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
-import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
+import { colourWanted } from './colour.js';
+import { writeOutputFile } from './output-file.js';
+import { checkSpreadFiles, refuseExisting, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
 import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
@@ -23,6 +29,8 @@ interface DesignCliOptions extends AnalysisCliOptions {
   targetYield: number;
   searchTrials: number;
   report?: string;
+  bom?: string;
+  chipSizes?: string;
   force?: boolean;
   failUnderYield?: number;
 }
@@ -31,6 +39,9 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
   if (options.report !== undefined) files.report = options.report;
   checkSpreadFiles(files);
+  refuseExisting(options.bom, '--bom', files.force);
+  if (options.bom !== undefined && (options.bom === options.report)) throw new InputError('--bom', 'the same file as --report', 'two different file names');
+  const chips = options.chipSizes !== undefined ? loadChipSizes(options.chipSizes, '--chip-sizes') : loadChipSizes();
   const resolved = resolveDesign(loadDesignFile(file));
   const cli = commandLineAnalysis(options);
   // The spread as `spread` runs it (same default trial count), then the grade study as `grades` runs it.
@@ -42,8 +53,13 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
     refuseUnreachableTarget(grades, command);
     files.tables = gradesReportTables(grades);
   }
+  const bom = purchaseBom(resolved.bom, spread.result, chips);
   const written = await writeSpreadFiles(spread, files);
-  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
+  if (options.bom !== undefined) {
+    writeOutputFile(options.bom, renderBomCsv(bom), { force: files.force, where: '--bom' });
+    written.push(options.bom);
+  }
+  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION, bom)) : renderDesignText(spread, grades, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
 }
@@ -53,11 +69,13 @@ export function designCommand(): Command {
     .description('fill "auto" values with the pickers, then BOM, spread and grade comparison, and the HTML report')
     .configureOutput({ outputError: () => undefined })
     .argument('<file>', 'design file (JSON); `trimfree init` writes a starter')
-    .option('--json', 'print JSON: { bom: [{ designator, ohms, code, series, tolerance, tcrPerK, powerW, ratingW? }], spread: { seed, trials, outputs, … }, grades: { … } | null }')
+    .option('--json', 'print JSON: { bom: [{ designator, members, ohms, code, series, tolerance, toleranceLetter, tcrPerK, powerW, powerWorstCaseW, voltageWorstCaseV, chipSize, … }], spread: { seed, trials, outputs, … }, grades: { … } | null }')
     .addOption(reportFileFlag())
-    .option('--force', 'overwrite an existing report file', false)
+    .addOption(new Option('--bom <file.csv>', 'write the bill of materials as CSV (RFC 4180, SI units) for a purchasing import'))
+    .addOption(new Option('--chip-sizes <file.json>', 'chip-size table the BOM picks sizes from (default: series/chip-sizes.json, common practice)'))
+    .option('--force', 'overwrite existing output files', false)
     .option('--no-grades', 'skip the grade comparison and the cheapest-grade search')
-    .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window'))
+    .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window, and each output\'s yield must reach to read "pass" in the summary'))
     .addOption(searchTrialsFlag('Monte Carlo trials per grade assignment the search evaluates'))
     .addOption(seedFlag())
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
@@ -75,6 +93,7 @@ report; 2 bad input or an impossible design (one line on stderr); 130 Ctrl-C.
 Examples:
   $ trimfree design examples/charger-2s-liion.json
   $ trimfree design examples/led-driver-highside.json --report led.html --force
+  $ trimfree design examples/charger-2s-liion.json --bom charger-bom.csv
   $ trimfree design examples/bench-adjustable.json --json --trials 100000 --seed 7
   $ trimfree design examples/charger-2s-liion.json --fail-under-yield 99.5%`,
     )

@@ -12,6 +12,7 @@ import { InputError } from '../errors.js';
 import type { ReportTable } from '../report/html-report.js';
 import { samplesCsvHeader, samplesCsvRows } from '../report/samples-csv.js';
 import { renderSpreadRunHtml, type SpreadRunHtmlOptions } from '../report/spread-run-html.js';
+import { fileSha256 } from './file-digest.js';
 import { writeOutputFile, writeOutputFileStreaming, type WriteText } from './output-file.js';
 import { VERSION } from './version.js';
 
@@ -43,7 +44,7 @@ export interface SpreadFiles {
 }
 
 /** Refuses an existing output file before the run (writeOutputFile checks again when it writes). */
-function refuseExisting(path: string | undefined, where: string, force: boolean): void {
+export function refuseExisting(path: string | undefined, where: string, force: boolean): void {
   if (path === undefined) return;
   const folder = dirname(resolve(path));
   if (!existsSync(folder) || !statSync(folder).isDirectory()) {
@@ -73,7 +74,7 @@ export async function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): Prom
     written.push(files.samples);
   }
   if (files.report !== undefined) {
-    const html: SpreadRunHtmlOptions = { subject: files.subject, version: VERSION };
+    const html: SpreadRunHtmlOptions = { subject: files.subject, version: VERSION, provenance: { generatedAt: new Date(), designSha256: fileSha256(files.subject) } };
     if (files.command !== undefined) html.command = files.command;
     if (files.tables !== undefined) html.tables = files.tables;
     writeOutputFile(files.report, renderSpreadRunHtml(run, html), { force: files.force, where: '--report' });

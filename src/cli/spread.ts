@@ -11,8 +11,10 @@ import { stringifyReport } from '../report/json.js';
 import { spreadReportJson } from '../report/spread-run-json.js';
 import { renderSpreadRunText } from '../report/spread-run-text.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { colourWanted } from './colour.js';
 import { integerOption } from './option-parsers.js';
 import { checkSpreadFiles, DEFAULT_SAMPLE_ROWS, MAX_SAMPLE_ROWS, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
+import { targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
 import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
@@ -23,6 +25,7 @@ interface SpreadCliOptions extends AnalysisCliOptions {
   report?: string;
   force?: boolean;
   failUnderYield?: number;
+  targetYield: number;
 }
 
 async function run(file: string, options: SpreadCliOptions): Promise<void> {
@@ -34,7 +37,7 @@ async function run(file: string, options: SpreadCliOptions): Promise<void> {
   const resolved = resolveDesign(loadDesignFile(file));
   const study = await runSpread(resolved, analysisChoice(resolved, commandLineAnalysis(options), DEFAULT_SPREAD_TRIALS), progressToTerminal);
   const written = await writeSpreadFiles(study, files);
-  process.stdout.write(options.json ? stringifyReport(spreadReportJson(study, VERSION)) : renderSpreadRunText(study, { subject: file, version: VERSION }));
+  process.stdout.write(options.json ? stringifyReport(spreadReportJson(study, VERSION)) : renderSpreadRunText(study, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(study));
 }
@@ -53,6 +56,7 @@ export function spreadCommand(): Command {
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
     .addOption(workersFlag())
     .addOption(failUnderYieldOptionWith())
+    .addOption(targetYieldFlag('yield each output must reach to read "pass" in the summary (the exit code is set by --fail-under-yield only)'))
     .addHelpText(
       'after',
       `

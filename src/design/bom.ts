@@ -28,6 +28,9 @@ export interface BomLine {
   ratingW?: number;
   /** The operating point the power is taken at. */
   powerAt: string;
+  /** A resistor network's designators, the line standing for the whole package (the design file has no networks
+   * yet: when it gains them, resolve fills this and every BOM output lists the members on the network's line). */
+  members?: string[];
 }
 
 export interface BomPart {

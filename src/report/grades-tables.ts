@@ -15,17 +15,18 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
     costText(row.cost),
     ...names.map((name) => {
       const o = row.result.outputs[name]!;
-      return `σ ${formatSpread(o.sigma, o.unit)} · ${o.yield ? formatYieldPct(o.yield.pct) : MISSING} · Cpk ${formatIndex(o.cpk)}`;
+      return `σ ${formatSpread(o.sigma, o.unit)}\nyield ${o.yield ? formatYieldPct(o.yield.pct) : MISSING}\nCpk ${formatIndex(o.cpk)}`;
     }),
     formatYieldPct(row.joint.pct),
+    `${row.result.trials.toLocaleString('en-US')} at ${row.grade.name}`,
   ]);
   const tables: ReportTable[] = [
     {
       id: 'grades',
       title: 'Tolerance grades side by side (every resistor in one grade)',
-      head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield'],
+      head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield', 'Monte Carlo trials (this grade)'],
       rows,
-      notes: [`Cells: σ · yield · Cpk. Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
+      notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
     },
   ];
   if (run.mix.found && run.mix.assignment) {
@@ -35,7 +36,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
       title: `Cheapest grades reaching ${run.options.targetYieldPct} % (cost ${costText(run.mix.cost!)}; as designed ${costText(run.designedCost)})`,
       head: ['part', 'grade', 'as designed'],
       rows: run.parts.map((p) => [p.name, run.mix.assignment![p.name]!, run.designed[p.name]!]),
-      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, ${v.trials.toLocaleString('en-US')} trials).`, SEARCH_METHOD],
+      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, from ${v.trials.toLocaleString('en-US')} trials of this grade mix).`, SEARCH_METHOD],
     });
   }
   return tables;

@@ -17,8 +17,12 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
   const { subject, version } = options;
   const names = specOutputs(run);
   const out: string[] = [];
-  const trials = [...new Set(run.rows.map((r) => r.result.trials))].map((t) => t.toLocaleString('en-US')).join('/');
-  out.push(`${subject}: every resistor in each grade; Monte Carlo ${trials} trials, seed ${JSON.stringify(run.rows[0]!.result.seed)}; trimfree ${version}`);
+  // One count when every grade ran the same trials, else each grade's own count beside its name.
+  const counts = new Set(run.rows.map((r) => r.result.trials));
+  const trials = counts.size === 1
+    ? `${run.rows[0]!.result.trials.toLocaleString('en-US')} trials per grade`
+    : `trials per grade ${run.rows.map((r) => `${r.grade.name} ${r.result.trials.toLocaleString('en-US')}`).join(', ')}`;
+  out.push(`${subject}: every resistor in each grade; Monte Carlo ${trials}, seed ${JSON.stringify(run.rows[0]!.result.seed)}; trimfree ${version}`);
   out.push(`resistors graded: ${run.parts.map((p) => `${p.name} (as designed ${run.designed[p.name]})`).join(', ')}`);
   out.push('');
   const rows: string[][] = [];

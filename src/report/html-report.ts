@@ -46,11 +46,20 @@ export interface HtmlReportInput {
   lowEnd?: { title: string; result: AnalysisResult };
   /** Further tables (e.g. the grade comparison), shown after the summary; cells already formatted. */
   tables?: ReportTable[];
+  /** When the report was made and the design file's digest, shown at the top with version, seed and trials. */
+  provenance?: ReportProvenance;
+}
+
+export interface ReportProvenance {
+  generatedAt: Date;
+  /** SHA-256 of the design file's bytes, lowercase hex. */
+  designSha256?: string;
 }
 
 export interface ReportTable {
   title: string;
   head: string[];
+  /** Cells; a line break inside a cell starts a new line on the page. */
   rows: string[][];
   notes?: string[];
   /** Stable id for the section (letters, digits, '-'). */
@@ -80,10 +89,49 @@ svg .marker.worst line{stroke:#6f42c1;stroke-width:1.5;stroke-dasharray:3 3}
 svg .worst-bracket{stroke:#6f42c1;stroke-width:2}
 svg .contribution{fill:#2e8b57}
 svg .first-order{fill:#a8d5ba}
+svg .tick line{stroke:#57606a}svg .axis-title{font-style:italic}
+svg{max-width:100%;height:auto;box-sizing:border-box}
+section.table table{max-width:100%}td .line{display:block;white-space:nowrap}
+#provenance{display:grid;grid-template-columns:max-content 1fr max-content 1fr;gap:2px 12px;margin:8px 0 12px;color:#57606a}
+#provenance dt{font-weight:600}#provenance dd{margin:0;overflow-wrap:anywhere}#provenance dd.wide{grid-column:2/-1}#provenance dd[data-field=sha256]{font-family:ui-monospace,monospace}
+@page{margin:14mm}
+@media print{
+body{font-size:11px;max-width:none;margin:0;padding:0}
+h2{break-after:avoid}h3{break-after:avoid}
+table,svg,.caution,#provenance{break-inside:avoid}
+tr{break-inside:avoid}thead{display:table-header-group}
+td,th{padding:2px 5px}
+.charts{display:block}.charts>*{break-inside:avoid}
+svg{display:block;margin:4px 0}
+}
 `;
+
+/** "2026-12-02 09:55:12 UTC". */
+function utcText(date: Date): string {
+  return `${date.toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+}
+
+/** Where the report came from, so it can be matched to its design file and reproduced. */
+function provenanceBlock(input: HtmlReportInput): string {
+  const r = input.result;
+  // The file and its digest each take a whole row; the short figures pair up two to a row.
+  const entries: [string, string, string][] = [['subject', 'design file', input.subject]];
+  if (input.provenance?.designSha256) entries.push(['sha256', 'SHA-256 of the design file', input.provenance.designSha256]);
+  if (input.provenance) entries.push(['generated', 'generated', utcText(input.provenance.generatedAt)]);
+  entries.push(['version', 'trimfree version', input.version], ['seed', 'seed', JSON.stringify(r.seed)], ['trials', 'Monte Carlo trials', r.trials.toLocaleString('en-US')]);
+  const wide = new Set(['subject', 'sha256']);
+  const items = entries.map(([field, label, value]) => `<dt>${escapeHtml(label)}</dt><dd data-field="${field}"${wide.has(field) ? ' class="wide"' : ''}>${escapeHtml(value)}</dd>`);
+  return `<dl id="provenance">${items.join('')}</dl>`;
+}
 
 function cell(text: string, cls = ''): string {
   return `<td${cls ? ` class="${cls}"` : ''}>${escapeHtml(text)}</td>`;
+}
+
+/** A cell whose text may hold line breaks: each line kept whole, one under the other. */
+function multiLineCell(text: string, cls: string): string {
+  if (!text.includes('\n')) return cell(text, cls);
+  return `<td${cls ? ` class="${cls}"` : ''}>${text.split('\n').map((line) => `<span class="line">${escapeHtml(line)}</span>`).join('')}</td>`;
 }
 
 function table(head: string[], rows: string[]): string {
@@ -131,7 +179,7 @@ function summaryTable(result: AnalysisResult): string {
 }
 
 function extraTable(t: ReportTable): string {
-  const rows = t.rows.map((r) => `<tr>${r.map((c, i) => cell(c, i === 0 ? '' : 'num')).join('')}</tr>`);
+  const rows = t.rows.map((r) => `<tr>${r.map((c, i) => multiLineCell(c, i === 0 ? '' : 'num')).join('')}</tr>`);
   const notes = (t.notes ?? []).map((n) => `<p class="meta">${escapeHtml(n)}</p>`).join('\n');
   return `<section class="table" id="${escapeHtml(t.id)}"><h2>${escapeHtml(t.title)}</h2>\n${table(t.head, rows)}\n${notes}</section>`;
 }
@@ -149,7 +197,7 @@ function outputSection(output: OutputResult, idPrefix = '', titleSuffix = ''): s
 <table class="figures"><tbody>
 ${figures.join('\n')}
 </tbody></table>
-<p class="meta">${quantileNote} Histogram: each unit at the ambient drawn with it; bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
+<p class="meta">${quantileNote} Histogram: trials per bar against the output's value, each unit at the ambient drawn with it; bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
 <div class="charts">
 ${renderSvgHistogram(output)}
 <div><h3>Share of the variance by part</h3>
@@ -181,7 +229,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
 </head>
 <body data-seed="${escapeHtml(r.seed)}" data-trials="${r.trials}" data-version="${escapeHtml(input.version)}">
 <h1>${escapeHtml(input.title)}</h1>
-<p class="meta">${escapeHtml(input.subject)} · trimfree ${escapeHtml(input.version)} · seed ${escapeHtml(JSON.stringify(r.seed))} · ${r.trials.toLocaleString('en-US')} Monte Carlo trials</p>
+${provenanceBlock(input)}
 ${cautions.length > 0 ? `<div class="caution" id="caution"><strong>Caution</strong><ul>${cautions.map((c) => `<li>${escapeHtml(c)}</li>`).join('')}</ul></div>` : ''}
 <h2>Summary</h2>
 ${summaryTable(r)}

@@ -3,7 +3,7 @@
 // the grade comparison: src/report/grades-tables.ts).
 import type { SpreadRun } from '../design/spread-study.js';
 import { bomRows } from './bom-table.js';
-import { renderHtmlReport, type ReportTable } from './html-report.js';
+import { renderHtmlReport, type ReportProvenance, type ReportTable } from './html-report.js';
 
 export interface SpreadRunHtmlOptions {
   /** What was analysed, e.g. the design file's path. */
@@ -12,6 +12,8 @@ export interface SpreadRunHtmlOptions {
   /** The command line that produced the report (for reproduction). */
   command?: string;
   tables?: ReportTable[];
+  /** When the report was made and the design file's digest (the CLI supplies them: a report reads no clock). */
+  provenance?: ReportProvenance;
 }
 
 export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOptions): string {
@@ -28,6 +30,7 @@ export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOption
   };
   if (command) input.command = command;
   if (tables) input.tables = tables;
+  if (options.provenance) input.provenance = options.provenance;
   if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };
   return renderHtmlReport(input);
 }

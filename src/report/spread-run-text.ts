@@ -8,18 +8,23 @@ export interface SpreadRunTextOptions {
   /** What was analysed, e.g. the design file's path. */
   subject: string;
   version: string;
+  /** Yield an output must reach for "pass" in the summary, %. */
+  targetYieldPct?: number;
+  /** Colour the pass/fail words (a terminal that takes colour only). */
+  colour?: boolean;
 }
 
 export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
   const { subject, version } = options;
   const partNames = run.model.parts.map((p) => p.name);
-  if (!run.lowEnd) return withDesignNotes(renderSpreadText(run.result, { version, subject, partNames }), run);
+  const verdict = { ...(options.targetYieldPct !== undefined ? { targetYieldPct: options.targetYieldPct } : {}), colour: options.colour ?? false };
+  if (!run.lowEnd) return withDesignNotes(renderSpreadText(run.result, { version, subject, partNames, ...verdict }), run);
   const top = 'pot at the top of its travel';
   const bottom = 'pot at the bottom of its travel';
-  let text = renderSpreadText(run.result, { version, subject: `${subject}, ${top}`, partNames, where: top });
+  let text = renderSpreadText(run.result, { version, subject: `${subject}, ${top}`, partNames, where: top, ...verdict });
   // The bottom shows only what the pot moves (pot-ends.ts).
   const moved = POT_OUTPUTS.filter((name) => name in run.lowEnd!.result.outputs);
-  text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, ${bottom}`, partNames, where: bottom, outputs: moved })}`;
+  text += `\n${renderSpreadText(run.lowEnd.result, { version, subject: `${subject}, ${bottom}`, partNames, where: bottom, outputs: moved, ...verdict })}`;
   const same = Object.keys(run.lowEnd.result.outputs).filter((name) => !moved.includes(name));
   if (same.length > 0) text += `(${same.join(', ')}: the same at both ends of the travel, shown once above)\n`;
   return withDesignNotes(text, run);

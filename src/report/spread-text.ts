@@ -16,6 +16,7 @@ import {
 import { groupMethodNotes } from './method-notes.js';
 import { textTable } from './text-table.js';
 import { formatShareWithError, varianceBudgetLines } from './variance-budget-lines.js';
+import { outputVerdict, verdictText } from './verdict-word.js';
 
 export interface SpreadTextOptions {
   version: string;
@@ -31,7 +32,14 @@ export interface SpreadTextOptions {
   /** Said after each output's title, e.g. 'pot at the top of its travel'. */
   where?: string;
   histogram?: boolean;
+  /** Yield an output must reach for "pass" in the summary, % (default DEFAULT_VERDICT_YIELD_PCT). */
+  targetYieldPct?: number;
+  /** Colour the pass/fail words (only for a terminal that takes colour: src/cli/colour.ts). */
+  colour?: boolean;
 }
+
+/** The summary's pass/fail target when the command names none (the grade search's default target). */
+export const DEFAULT_VERDICT_YIELD_PCT = 99.9;
 
 /** One output's figures as label/value pairs, in the order reports show them (shared by text and HTML). */
 export interface FigureRow {
@@ -123,7 +131,7 @@ export function ambientSweepTable(output: OutputResult): string | null {
   return textTable(['ambient', 'nominal', 'Monte Carlo 0.135 … 99.865 %', 'worst case', 'in window'], rows, [true, true, true, true, true]);
 }
 
-function summaryTable(result: AnalysisResult): string {
+function summaryTable(result: AnalysisResult, targetYieldPct: number, colour: boolean): string {
   const rows = Object.values(result.outputs).map((o) => {
     const d = outputDigits(o);
     return [
@@ -134,9 +142,11 @@ function summaryTable(result: AnalysisResult): string {
       `${formatValue(o.worstCase.min, o.unit, d)} … ${formatValue(o.worstCase.max, o.unit, d)}`,
       o.yield ? formatYieldPct(o.yield.pct) : MISSING,
       formatIndex(o.cpk),
+      o.spec ? `${formatValue(o.spec[0], o.unit, d)} … ${formatValue(o.spec[1], o.unit, d)}` : MISSING,
+      verdictText(outputVerdict(o, targetYieldPct), colour),
     ];
   });
-  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield per unit', 'Cpk'], rows, [false, true, true, true, true, true, true]);
+  return textTable(['output', 'nominal', 'mean', 'σ', 'worst case', 'yield per unit', 'Cpk', 'spec window', `yield ≥ ${targetYieldPct} %`], rows, [false, true, true, true, true, true, true, true, false]);
 }
 
 /** The all-specs yield and what a unit was checked at, under the summary. */
@@ -182,7 +192,7 @@ export function renderSpreadText(result: AnalysisResult, options: SpreadTextOpti
   out.push(`${options.subject}: Monte Carlo ${result.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(result.seed)}; trimfree ${options.version}`);
   out.push('');
   const shown = Object.values(result.outputs).filter((o) => !options.outputs || options.outputs.includes(o.name));
-  out.push(summaryTable({ ...result, outputs: Object.fromEntries(shown.map((o) => [o.name, o])) }));
+  out.push(summaryTable({ ...result, outputs: Object.fromEntries(shown.map((o) => [o.name, o])) }, options.targetYieldPct ?? DEFAULT_VERDICT_YIELD_PCT, options.colour ?? false));
   out.push(...unitYieldLines(result));
   for (const output of shown) {
     out.push('');

@@ -1,8 +1,12 @@
 // An output's Monte Carlo histogram as inline SVG, with the spec limits, the 95 % coverage interval, the worst-case
 // range and the nominal value marked. Every element a test or a reader may look for has a stable class and data
 // attributes: bars `rect.bin[data-bin][data-count]`, markers `[data-marker="spec-low" | "spec-high" |
-// "interval95-low" | "interval95-high" | "worst-min" | "worst-max" | "nominal"]` with `data-value` (exact number).
+// "interval95-low" | "interval95-high" | "worst-min" | "worst-max" | "nominal"]` with `data-value` (exact number),
+// axis ticks `g.tick.x[data-value]` (the output's value, labelled with its unit) and `g.tick.y[data-count]` (trials
+// per bar).
 import type { OutputResult } from '../analysis/result.js';
+import { formatEngineering } from '../units/index.js';
+import { axisTicks } from './axis-ticks.js';
 import { displayBins } from './display-bins.js';
 import { formatValue, outputDigits } from './format-value.js';
 import { coordinate, escapeHtml, exact } from './html-escape.js';
@@ -10,11 +14,13 @@ import { coordinate, escapeHtml, exact } from './html-escape.js';
 export const HISTOGRAM_MAX_BINS = 60;
 
 const WIDTH = 720;
-const HEIGHT = 300;
-const LEFT = 48;
-const RIGHT = 16;
+const HEIGHT = 340;
+const LEFT = 72; // room for the count ticks and the vertical axis title
+const RIGHT = 24;
 const TOP = 46; // room for the worst-case bracket and the interval band's label
-const BOTTOM = 44;
+const BOTTOM = 70; // tick labels, then two rows of marker labels
+/** Marker label rows start below the tick labels. */
+const MARKER_ROW0 = 32;
 /** A spec limit further than this many spans of the spread beyond it is drawn off-scale at the axis end. */
 const OFF_SCALE_REACH = 1;
 
@@ -64,18 +70,35 @@ export function renderSvgHistogram(output: OutputResult): string {
     const x0 = x(bin.low);
     const w = Math.max(0.5, x(bin.high) - x0 - 0.5);
     parts.push(
-      `<rect class="bin ${inside ? 'in-spec' : 'out-of-spec'}" data-bin="${i}" data-low="${exact(bin.low)}" data-high="${exact(bin.high)}" data-count="${bin.count}" x="${coordinate(x0)}" y="${coordinate(y(bin.count))}" width="${coordinate(w)}" height="${coordinate(TOP + plotH - y(bin.count))}"><title>${label(bin.low)} … ${label(bin.high)}: ${bin.count.toLocaleString('en-US')} trials</title></rect>`,
+      `<rect class="bin ${inside ? 'in-spec' : 'out-of-spec'}" data-bin="${i}" data-low="${exact(bin.low)}" data-high="${exact(bin.high)}" data-count="${bin.count}" x="${coordinate(x0)}" y="${coordinate(y(bin.count))}" width="${coordinate(w)}" height="${coordinate(TOP + plotH - y(bin.count))}"><title>${label(bin.low)} … ${label(bin.high)}: ${trialsText(bin.count)}</title></rect>`,
     );
   });
-  // Axis.
+  // Axes: the output's value along the bottom (ticks labelled with the unit), trials per bar up the left side.
   parts.push(`<line class="axis" x1="${LEFT}" y1="${TOP + plotH}" x2="${WIDTH - RIGHT}" y2="${TOP + plotH}"/>`);
+  parts.push(`<line class="axis" x1="${LEFT}" y1="${TOP}" x2="${LEFT}" y2="${TOP + plotH}"/>`);
+  const xTicks = axisTicks(lo, hi, 6);
+  for (const v of xTicks.values) {
+    const px = coordinate(x(v));
+    parts.push(
+      `<g class="tick x" data-value="${exact(v)}"><line x1="${px}" y1="${TOP + plotH}" x2="${px}" y2="${TOP + plotH + 5}"/><text x="${px}" y="${TOP + plotH + 17}" text-anchor="middle">${escapeHtml(formatEngineering(v, output.unit, xTicks.digits))}</text></g>`,
+    );
+  }
+  for (const c of countTicks(peak)) {
+    const py = coordinate(y(c));
+    parts.push(
+      `<g class="tick y" data-count="${c}"><line x1="${LEFT - 5}" y1="${py}" x2="${LEFT}" y2="${py}"/><text x="${LEFT - 8}" y="${coordinate(y(c) + 4)}" text-anchor="end">${c.toLocaleString('en-US')}</text></g>`,
+    );
+  }
+  parts.push(
+    `<text class="axis-title y" x="14" y="${coordinate(TOP + plotH / 2)}" text-anchor="middle" transform="rotate(-90 14 ${coordinate(TOP + plotH / 2)})">trials per bar</text>`,
+  );
   const vertical = (marker: string, value: number, cls: string, text: string, row: number): void => {
     const px = coordinate(x(value));
     const offScale = value < lo || value > hi;
     const shown = offScale ? `${value < lo ? '← ' : ''}${text} (off scale)${value > hi ? ' →' : ''}` : text;
     const anchor = offScale ? (value < lo ? 'start' : 'end') : 'middle';
     parts.push(
-      `<g class="marker ${cls}${offScale ? ' off-scale' : ''}" data-marker="${marker}" data-value="${exact(value)}"${offScale ? ' data-off-scale="true"' : ''}><line x1="${px}" y1="${TOP - 4}" x2="${px}" y2="${TOP + plotH}"/><text x="${px}" y="${TOP + plotH + 14 + row * 13}" text-anchor="${anchor}">${shown}</text></g>`,
+      `<g class="marker ${cls}${offScale ? ' off-scale' : ''}" data-marker="${marker}" data-value="${exact(value)}"${offScale ? ' data-off-scale="true"' : ''}><line x1="${px}" y1="${TOP - 4}" x2="${px}" y2="${TOP + plotH}"/><text x="${px}" y="${TOP + plotH + MARKER_ROW0 + row * 14}" text-anchor="${anchor}">${shown}</text></g>`,
     );
   };
   if (output.spec) {
@@ -96,7 +119,20 @@ export function renderSvgHistogram(output: OutputResult): string {
     `<text class="worst-label" x="${coordinate((x(output.worstCase.min) + x(output.worstCase.max)) / 2)}" y="${wy - 4}" text-anchor="middle">worst case ${label(output.worstCase.min)} … ${label(output.worstCase.max)}</text>`,
     `<text class="interval-label" x="${coordinate((x(output.interval95.low) + x(output.interval95.high)) / 2)}" y="${TOP - 8}" text-anchor="middle">95 % interval</text>`,
   );
-  parts.push(`<text class="peak-label" x="${LEFT - 4}" y="${TOP + 4}" text-anchor="end">${peak.toLocaleString('en-US')}</text>`);
   parts.push('</svg>');
   return parts.join('\n');
+}
+
+/** "1 trial", "2,500 trials". */
+export function trialsText(count: number): string {
+  return `${count.toLocaleString('en-US')} ${count === 1 ? 'trial' : 'trials'}`;
+}
+
+/** Whole-number ticks from 0 up to the tallest bar's count. */
+function countTicks(peak: number): number[] {
+  const ticks = axisTicks(0, peak, 4);
+  const step = Math.max(1, ticks.step);
+  const out: number[] = [];
+  for (let c = 0; c <= peak; c += step) out.push(c);
+  return out;
 }
