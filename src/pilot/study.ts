@@ -20,8 +20,6 @@ import { bestSwap, swappableResistors } from './recentre.js';
 
 /** Trials for the prediction when neither the file nor the command line says. */
 export const DEFAULT_PILOT_TRIALS = 200_000;
-/** Yield the measured capability is judged against unless --target-yield says otherwise, %. */
-export const DEFAULT_PILOT_TARGET_YIELD_PCT = 99;
 
 export interface Recentring {
   designator: string;
