@@ -1,5 +1,5 @@
-// A pilot study as the terminal report: the provenance line, then per measured output its figures (pilot-figures.ts),
-// the parts that could explain a shift, the re-centring and the plain-words findings; then notes and cautions.
+// A pilot study as the terminal report: the run's line, then per measured output its figures (pilot-figures.ts),
+// the parts that could explain a shift, the re-centring and the plain-words findings; then the files' SHA-256, the methods, notes and cautions.
 import type { PilotOutput, PilotRun } from '../pilot/study.js';
 import { formatEngineering } from '../units/index.js';
 import { pilotFigures, pilotTitle, windowText, type PilotFigure, type PilotProvenance } from './pilot-figures.js';
@@ -48,12 +48,9 @@ function outputText(out: PilotOutput): string {
 
 export function renderPilotText(run: PilotRun, provenance: PilotProvenance): string {
   const r = run.prediction.result;
-  const head = [
-    `${provenance.designFile.path} against ${provenance.measurementsFile.path}: ${run.measurements.unitIds.length} units; prediction at ${run.prediction.ambientC.toFixed(1)} °C, Monte Carlo ${r.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(r.seed)}; trimfree ${provenance.version}`,
-    `sha256 ${provenance.designFile.sha256}  ${provenance.designFile.path}`,
-    `sha256 ${provenance.measurementsFile.sha256}  ${provenance.measurementsFile.path}`,
-  ];
-  let text = `${head.join('\n')}\n\n${run.outputs.map(outputText).join('\n')}`;
+  const head = `${provenance.designFile.path} against ${provenance.measurementsFile.path}: ${run.measurements.unitIds.length} units; prediction at ${run.prediction.ambientC.toFixed(1)} °C, Monte Carlo ${r.trials.toLocaleString('en-US')} trials, seed ${JSON.stringify(r.seed)}; trimfree ${provenance.version}`;
+  let text = `${head}\n\n${run.outputs.map(outputText).join('\n')}`;
+  text += `\nfiles (SHA-256):\n  ${provenance.designFile.sha256}  ${provenance.designFile.path}\n  ${provenance.measurementsFile.sha256}  ${provenance.measurementsFile.path}\n`;
   text += `\nhow it was obtained:\n${METHOD_NOTES.map((m) => `  - ${m}`).join('\n')}\n`;
   if (run.notes.length > 0) text += `\nnotes:\n${run.notes.map((n) => `  - ${n}`).join('\n')}\n`;
   if (run.cautions.length > 0) text += `\ncaution:\n${run.cautions.map((c) => `  ! ${c}`).join('\n')}\n`;
