@@ -43,6 +43,8 @@ export interface PilotOutput {
   unitIds: string[];
   predicted: { nominal: number; mean: number; sigma: number; interval95: Interval; yieldPct: number | null; histogram: Histogram; kurtosis: number };
   tests: OutputTests;
+  /** Measured units outside the spec window (lo ≤ y ≤ hi is inside, as the engine counts), or null without a window. */
+  outsideWindow: number | null;
   /** The id of the unit Grubbs' test flags, or null. */
   outlierUnit: string | null;
   diagnosis: ShiftDiagnosis;
@@ -88,6 +90,7 @@ export async function runPilot(design: Design, resolved: ResolvedDesign, measure
       unitIds: measurements.unitIds,
       predicted: { nominal: r.nominal, mean: r.mean, sigma: r.sigma, interval95: r.interval95, yieldPct: r.yield ? r.yield.pct : null, histogram: r.histogram, kurtosis: p.kurtosis },
       tests,
+      outsideWindow: r.spec ? m.values.filter((v) => v < r.spec![0] || v > r.spec![1]).length : null,
       outlierUnit: tests.outlier.outlier ? measurements.unitIds[tests.outlier.index]! : null,
       diagnosis,
       sigmaScale,

@@ -57,6 +57,7 @@ export function pilotFigures(out: PilotOutput): PilotFigure[] {
     { section: 'measured', label: 'σ, measured (95 % interval)', text: `${formatSpread(m.sigma, u)}  (${formatSpread(m.sigmaInterval.low, u)} … ${formatSpread(m.sigmaInterval.high, u)})`, field: 'measured.sigma', values: [m.sigma, m.sigmaInterval.low, m.sigmaInterval.high] },
     { section: 'measured', label: 'σ, predicted', text: formatSpread(out.predicted.sigma, u), field: 'predicted.sigma', values: [out.predicted.sigma] },
     { section: 'measured', label: 'min … max, measured', text: `${v(m.min)} … ${v(m.max)}`, field: 'measured.range', values: [m.min, m.max] },
+    ...(out.outsideWindow === null ? [] : [{ section: 'measured' as const, label: 'units outside the window, measured', text: `${out.outsideWindow} of ${m.n}`, field: 'measured.outsideWindow', values: [out.outsideWindow] }]),
     {
       section: 'tests',
       label: 'mean shift (t test)',

@@ -6,7 +6,7 @@ import type { PilotOutput, PilotRun } from '../pilot/study.js';
 import { escapeHtml, exact } from './html-escape.js';
 import { pilotFigures, pilotTitle, windowText, type PilotProvenance } from './pilot-figures.js';
 import { renderPilotSvg } from './pilot-svg.js';
-import { diagnosisLines, METHOD_NOTES } from './pilot-text.js';
+import { DIAGNOSIS_ROWS, METHOD_NOTES } from './pilot-text.js';
 
 const STYLE = `
 body{font:14px/1.45 system-ui,-apple-system,"Segoe UI",sans-serif;margin:24px auto;max-width:1100px;color:#1b1f24;padding:0 16px}
@@ -18,7 +18,7 @@ th{background:#f3f5f7;font-weight:normal}td.num{font-variant-numeric:tabular-num
 .meta{color:#57606a}code{font-size:12px}
 svg{background:#fff;border:1px solid #e1e4e8}
 svg text{font:11px system-ui,sans-serif;fill:#1b1f24}
-svg .bin{fill:#9db7d5}svg .unit{fill:#1b1f24}svg .unit.outlier{fill:#c0392b}
+svg .bin{fill:#9db7d5}svg .unit{fill:#1b1f24}svg .unit.out-of-spec{fill:#c0392b}svg .unit.outlier{stroke:#b35900;stroke-width:2}
 svg .interval-band{fill:#f2c94c;fill-opacity:.3}svg .axis{stroke:#57606a}
 svg .marker.spec line{stroke:#c0392b;stroke-width:2;stroke-dasharray:6 3}
 svg .marker.nominal line{stroke:#4878a8;stroke-width:1.5;stroke-dasharray:2 2}
@@ -26,11 +26,28 @@ svg .marker.measured line{stroke:#1b1f24;stroke-width:1.5}
 svg .marker.recentred line{stroke:#2e8b57;stroke-width:2;stroke-dasharray:4 2}
 `;
 
+const signedBands = (x: number): string => `${x >= 0 ? '+' : '−'}${Math.abs(x).toFixed(2)}`;
+
+/** The parts that could explain a significant shift: each alone (in units of its band), then the least-squares mix. */
+function diagnosisHtml(out: PilotOutput): string {
+  const d = out.diagnosis;
+  if (!out.tests.meanShift.significant || d.singleParts.length === 0) return '';
+  const rows = d.singleParts.slice(0, DIAGNOSIS_ROWS).map(
+    (p) => `<tr data-part="${escapeHtml(p.part)}"><td>${escapeHtml(p.part)}</td><td class="num" data-value="${exact(p.bands)}">${signedBands(p.bands)}</td><td>${p.plausible ? 'yes: inside its band' : 'no'}</td></tr>`,
+  );
+  const mix = d.leastSquares.filter((x) => Math.abs(x.bands) >= 0.005).slice(0, DIAGNOSIS_ROWS);
+  return `<h3>What could explain the shift</h3>
+<table class="diagnosis"><thead><tr><th>part</th><th>deviation that alone explains it, in bands (±1 = the band's edge)</th><th>plausible</th></tr></thead><tbody>
+${rows.join('\n')}
+</tbody></table>
+${d.singleParts.length > DIAGNOSIS_ROWS ? `<p class="meta">${d.singleParts.length - DIAGNOSIS_ROWS} more parts, each needing more.</p>` : ''}
+${mix.length > 0 ? `<p>Least-squares combination, one explanation among many: ${escapeHtml(mix.map((x) => `${x.part} ${signedBands(x.bands)}`).join(', '))}.</p>` : ''}`;
+}
+
 function outputSection(out: PilotOutput): string {
   const rows = pilotFigures(out).map(
     (f) => `<tr><th scope="row">${escapeHtml(f.label)}</th><td class="num" data-field="${f.field}" data-value="${f.values.map(exact).join(' ')}">${escapeHtml(f.text)}</td></tr>`,
   );
-  const diagnosis = diagnosisLines(out);
   return `<section class="output" id="output-${escapeHtml(out.name)}" data-output="${escapeHtml(out.name)}">
 <h2>${escapeHtml(pilotTitle(out))}</h2>
 <p class="meta">Spec window ${escapeHtml(windowText(out))}.</p>
@@ -38,7 +55,7 @@ ${renderPilotSvg(out)}
 <table class="figures"><tbody>
 ${rows.join('\n')}
 </tbody></table>
-${diagnosis.length > 0 ? `<h3>What could explain the shift</h3><ul class="diagnosis">${diagnosis.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>` : ''}
+${diagnosisHtml(out)}
 <h3>Re-centring</h3><p class="recentre">${escapeHtml(out.recentreNote)}</p>
 <h3>Findings</h3><ul class="findings">${out.findings.map((f) => `<li>${escapeHtml(f)}</li>`).join('')}</ul>
 </section>`;

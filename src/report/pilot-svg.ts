@@ -1,7 +1,7 @@
 // One measured output over its prediction as inline SVG: the predicted Monte Carlo histogram (bars), each measured
 // unit as a dot in a strip below it, the spec limits, the predicted and measured means (the measured mean with its
 // 95 % interval as a band) and, when a swap is suggested, the mean expected after it. Stable hooks for tests:
-// bars `rect.bin[data-bin][data-count]`, units `circle.unit[data-unit][data-value]`, markers `[data-marker=…]` with
+// bars `rect.bin[data-bin][data-count]`, units `circle.unit[data-unit][data-value]` (class out-of-spec outside the window), markers `[data-marker=…]` with
 // `data-value` ("spec-low", "spec-high", "predicted-mean", "measured-mean", "recentred-mean").
 import type { PilotOutput } from '../pilot/study.js';
 import { displayBins } from './display-bins.js';
@@ -59,7 +59,8 @@ export function renderPilotSvg(out: PilotOutput): string {
     rows[row]!.push(px);
     const y = STRIP_TOP + STRIP_HEIGHT - 6 - (row % 6) * 7;
     const outlier = out.outlierUnit === out.unitIds[i];
-    parts.push(`<circle class="unit${outlier ? ' outlier' : ''}" data-unit="${escapeHtml(out.unitIds[i]!)}" data-value="${exact(value)}" cx="${coordinate(px)}" cy="${coordinate(y)}" r="3"><title>${escapeHtml(out.unitIds[i]!)}: ${label(value)}</title></circle>`);
+    const outside = out.spec !== undefined && (value < out.spec[0] || value > out.spec[1]);
+    parts.push(`<circle class="unit${outlier ? ' outlier' : ''}${outside ? ' out-of-spec' : ''}" data-unit="${escapeHtml(out.unitIds[i]!)}" data-value="${exact(value)}" cx="${coordinate(px)}" cy="${coordinate(y)}" r="3"><title>${escapeHtml(out.unitIds[i]!)}: ${label(value)}</title></circle>`);
   });
   const vertical = (marker: string, value: number, cls: string, text: string, row: number): void => {
     const px = coordinate(x(value));
@@ -72,7 +73,7 @@ export function renderPilotSvg(out: PilotOutput): string {
   vertical('predicted-mean', out.predicted.mean, 'nominal', 'predicted', 0);
   vertical('measured-mean', m.mean, 'measured', 'measured', 0);
   if (out.recentre?.improves) vertical('recentred-mean', out.recentre.expectedMean, 'recentred', `after ${escapeHtml(out.recentre.designator)} swap`, 2);
-  parts.push(`<text x="${LEFT}" y="${TOP - 12}">bars: predicted (${out.predicted.histogram.counts.reduce((a, b) => a + b, 0).toLocaleString('en-US')} trials); dots: measured units; band: 95 % interval of the measured mean</text>`);
+  parts.push(`<text x="${LEFT}" y="${TOP - 12}">bars: predicted (${out.predicted.histogram.counts.reduce((a, b) => a + b, 0).toLocaleString('en-US')} trials); dots: measured units (red: outside the window); band: 95 % interval of the measured mean</text>`);
   parts.push('</svg>');
   return parts.join('\n');
 }
