@@ -82,6 +82,9 @@ describe('readPilotCsv: each bad input is one InputError naming line and column'
   it('an implausible ambient', () => {
     expect(errorOf(csv(HEADER, ...rows(2), 'U9,8.4,1.5,900', ...rows(3, 20))).message).toMatch(/line 4, column ambient: 900 °C is not a plausible bench ambient/);
   });
+  it('every unit reading the same value (no spread to test)', () => {
+    expect(errorOf(csv('vout', '8.4', '8.4', '8.4', '8.4', '8.4')).message).toMatch(/m\.csv, column vout: every unit reads 8\.4 V: no spread/);
+  });
   it('more cells than the header', () => {
     expect(errorOf(csv(HEADER, ...rows(2), 'U9,8.4,1.5,23,7', ...rows(3, 20))).message).toMatch(/line 4: 5 cells where the header has 4/);
   });

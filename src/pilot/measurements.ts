@@ -164,5 +164,10 @@ export function readPilotCsv(text: string, file: string, outputs: readonly Measu
     const others = ROWS_NEEDED.filter((r) => r !== needed).map((r) => `${r.test} ${r.rows}`).join(', ');
     throw new InputError(file, `${n} unit${n === 1 ? '' : 's'} measured: ${needed.test} needs at least ${needed.rows} (${others})`, `a CSV with one row per unit and at least ${needed.rows} rows`);
   }
+  for (const o of measured) {
+    if (o.values.every((v) => v === o.values[0])) {
+      throw new InputError(`${file}, column ${o.name}`, `every unit reads ${o.values[0]} ${o.unit}: no spread to compare with the prediction`, "each unit's reading at the meter's full resolution (more digits)");
+    }
+  }
   return { file, outputs: measured, unitIds, lines, ambientC: ambientIndex >= 0 ? ambient : null };
 }

@@ -18,8 +18,7 @@ import { predictPilot, REFERENCE_TRIALS, trialOutputs, type PilotPrediction } fr
 import { projectedYieldPct } from './projected-yield.js';
 import { bestSwap, swappableResistors } from './recentre.js';
 
-/** Trials for the prediction when neither the file nor the command line says. */
-export const DEFAULT_PILOT_TRIALS = 200_000;
+export { DEFAULT_PILOT_TRIALS } from './defaults.js';
 
 export interface Recentring {
   designator: string;
@@ -80,6 +79,9 @@ export async function runPilot(design: Design, resolved: ResolvedDesign, measure
   const outputs = measurements.outputs.map((m): PilotOutput => {
     const p = prediction.outputs[m.name]!;
     const r = p.result;
+    if (!(r.sigma > 0)) {
+      throw new ImpossibleError(`${measurements.file}, column ${m.name}`, 'the model predicts no spread for this output, so there is nothing to compare the spread with', 'measure outputs the parts\' tolerances move (vout, ilimit)');
+    }
     const tests = testOutput(m.values, { mean: r.mean, sigma: r.sigma, kurtosis: p.kurtosis, reference: p.reference }, r.spec, options.targetYieldPct);
     const diagnosis = diagnoseShift(tests.measured.mean - r.mean, r.contributions, prediction.model.parts);
     const sigmaScale = r.sigma > 0 ? Math.max(1, tests.measured.sigma / r.sigma) : 1;

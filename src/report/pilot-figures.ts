@@ -61,7 +61,7 @@ export function pilotFigures(out: PilotOutput): PilotFigure[] {
     {
       section: 'tests',
       label: 'mean shift (t test)',
-      text: `${signed(t.meanShift.shift, u)}  t = ${t.meanShift.t.toFixed(2)}, p ${formatP(t.meanShift.p)}: ${t.meanShift.significant ? 'differs' : 'agrees'}`,
+      text: `${signed(t.meanShift.shift, u)}  t = ${t.meanShift.t.toFixed(2).replace('-', '−')}, p ${formatP(t.meanShift.p)}: ${t.meanShift.significant ? 'differs' : 'agrees'}`,
       field: 'tests.meanShift',
       values: [t.meanShift.shift, t.meanShift.t, t.meanShift.p],
     },
