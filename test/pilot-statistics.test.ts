@@ -135,7 +135,7 @@ describe('Cpk interval (Bissell 1990, as in NIST/SEMATECH e-Handbook 6.1.6)', ()
   });
 });
 
-describe('two-sided tolerance factor (Howe 1969; NIST/SEMATECH e-Handbook 7.2.6.3) against exact factors (ISO 16269-6:2014 table C.x; from memory)', () => {
+describe('two-sided tolerance factor (Howe 1969; NIST/SEMATECH e-Handbook 7.2.6.3) against exact factors (ISO 16269-6:2014 annex tables; from memory)', () => {
   // Exact k2 (n, p, γ): Howe's approximation is within about 1 % of it; allowed 1 %.
   const table: Array<[number, number, number, number]> = [[10, 0.9, 0.95, 2.856], [20, 0.95, 0.95, 2.752], [30, 0.99, 0.95, 3.35], [50, 0.95, 0.99, 2.58]];
   for (const [n, p, g, k] of table) {

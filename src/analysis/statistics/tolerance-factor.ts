@@ -1,7 +1,8 @@
 // Two-sided normal tolerance interval x̄ ± k·s that covers at least a proportion p of the population with confidence
 // γ, with k by Howe's approximation (W. G. Howe, JASA 64, 1969; NIST/SEMATECH e-Handbook 7.2.6.3):
 //   k = √( (n − 1)·(1 + 1/n)·z²_{(1−p)/2} / χ²_{1−γ, n−1} )     (χ² the lower 1 − γ point)
-// Howe's k is within about 1 % of the exact factor for n ≥ 5 at the usual p and γ (ISO 16269-6:2014, annex tables).
+// Howe's k is within about 1 % of the exact factor for n ≥ 5 at the usual p and γ (compared with the exact factors of
+// ISO 16269-6:2014's annex tables, from memory; the test checks four of them).
 import { inverseNormalCdf } from '../../tolerance/distributions/normal.js';
 import { chiSquareQuantile } from './chi-square.js';
 
