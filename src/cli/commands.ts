@@ -6,9 +6,10 @@ import { dividerCommand } from './divider.js';
 import { gradesCommand } from './grades.js';
 import { initCommand } from './init.js';
 import { nearestCommand } from './nearest.js';
+import { pilotCommand } from './pilot.js';
 import { schemaCommand } from './schema.js';
 import { senseCommand } from './sense.js';
 import { spreadCommand } from './spread.js';
 import { valuesCommand } from './values.js';
 
-export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand, spreadCommand, gradesCommand, designCommand, initCommand, schemaCommand];
+export const commandFactories: Array<() => Command> = [valuesCommand, nearestCommand, dividerCommand, senseCommand, spreadCommand, gradesCommand, designCommand, pilotCommand, initCommand, schemaCommand];
