@@ -36,7 +36,7 @@ interface DesignCliOptions extends AnalysisCliOptions {
 }
 
 async function run(file: string, options: DesignCliOptions, command: Command): Promise<void> {
-  const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim() };
+  const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim(), targetYieldPct: options.targetYield };
   if (options.report !== undefined) files.report = options.report;
   checkSpreadFiles(files);
   refuseExisting(options.bom, '--bom', files.force);

@@ -41,6 +41,8 @@ export interface SpreadFiles {
   command?: string;
   /** Further tables for the HTML report (e.g. `design` adds the grade comparison: src/report/grades-tables.ts). */
   tables?: ReportTable[];
+  /** The yield the report's verdict block holds each output to, %. */
+  targetYieldPct?: number;
 }
 
 /** Refuses an existing output file before the run (writeOutputFile checks again when it writes). */
@@ -77,6 +79,7 @@ export async function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): Prom
     const html: SpreadRunHtmlOptions = { subject: files.subject, version: VERSION, provenance: { generatedAt: new Date(), designSha256: fileSha256(files.subject) } };
     if (files.command !== undefined) html.command = files.command;
     if (files.tables !== undefined) html.tables = files.tables;
+    if (files.targetYieldPct !== undefined) html.targetYieldPct = files.targetYieldPct;
     writeOutputFile(files.report, renderSpreadRunHtml(run, html), { force: files.force, where: '--report' });
     written.push(files.report);
   }

@@ -29,7 +29,7 @@ interface SpreadCliOptions extends AnalysisCliOptions {
 }
 
 async function run(file: string, options: SpreadCliOptions): Promise<void> {
-  const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree spread ${process.argv.slice(3).join(' ')}`.trim() };
+  const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree spread ${process.argv.slice(3).join(' ')}`.trim(), targetYieldPct: options.targetYield };
   if (options.samples !== undefined) files.samples = options.samples;
   if (options.report !== undefined) files.report = options.report;
   if (options.sampleRows !== undefined) files.sampleRows = options.sampleRows;

@@ -11,6 +11,8 @@ import { escapeHtml, exact } from './html-escape.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits, outputTitle } from './format-value.js';
 import { groupMethodNotes } from './method-notes.js';
 import { POT_OUTPUTS } from './pot-ends.js';
+import { renderVerdictBlock } from './html-verdict.js';
+import { renderSvgAmbientSweep } from './svg-ambient-sweep.js';
 import { outputFigures } from './spread-text.js';
 import { renderSvgContributions } from './svg-contributions.js';
 import { varianceBudgetLines } from './variance-budget-lines.js';
@@ -48,6 +50,8 @@ export interface HtmlReportInput {
   tables?: ReportTable[];
   /** When the report was made and the design file's digest, shown at the top with version, seed and trials. */
   provenance?: ReportProvenance;
+  /** The yield each output must reach to read "meets" in the verdict block, % (default 99.9). */
+  targetYieldPct?: number;
 }
 
 export interface ReportProvenance {
@@ -89,7 +93,8 @@ svg .marker.worst line{stroke:#6f42c1;stroke-width:1.5;stroke-dasharray:3 3}
 svg .worst-bracket{stroke:#6f42c1;stroke-width:2}
 svg .contribution{fill:#2e8b57}
 svg .first-order{fill:#a8d5ba}
-svg .tick line{stroke:#57606a}svg .axis-title{font-style:italic}
+svg .tick line{stroke:#57606a}svg .sweep-worst{fill:#dde4ee}svg .sweep-mc{fill:#8fa9c8}svg .sweep-nominal{fill:none;stroke:#1b1f24;stroke-width:1.5}svg .sweep-limit{stroke:#b42318;stroke-dasharray:5 4}svg .axis{stroke:#57606a}
+#verdict .overall{font-weight:600}#verdict td.word{font-weight:600}#verdict tr[data-verdict=fail] td.word{text-decoration:underline}svg .axis-title{font-style:italic}
 svg{max-width:100%;height:auto;box-sizing:border-box}
 section.table table{max-width:100%}td .line{display:block;white-space:nowrap}
 #provenance{display:grid;grid-template-columns:max-content 1fr max-content 1fr;gap:2px 12px;margin:8px 0 12px;color:#57606a}
@@ -200,12 +205,22 @@ ${figures.join('\n')}
 <p class="meta">${quantileNote} Histogram: trials per bar against the output's value, each unit at the ambient drawn with it; bars in red lie outside the spec window; dashed red lines are the spec limits, the shaded band the 95 % coverage interval, the purple bracket the worst-case range.</p>
 <div class="charts">
 ${renderSvgHistogram(output)}
+${sweepFigure(output)}
 <div><h3>Share of the variance by part</h3>
 ${renderSvgContributions(output)}
 <p class="meta">Bars: total-effect share ± its standard error (the part alone and through its interactions); the thin inner bar: first-order share (the part alone).</p>
 ${varianceBudgetLines(output).map((line) => `<p class="meta variance-budget">${escapeHtml(line)}</p>`).join('\n')}</div>
 </div>
 </section>`;
+}
+
+/** The ambient sweep chart with its caption, when the output has one. */
+function sweepFigure(output: OutputResult): string {
+  const svg = renderSvgAmbientSweep(output);
+  if (svg === '') return '';
+  return `<div><h3>Against ambient temperature</h3>
+${svg}
+<p class="meta">Light band: worst case with the ambient held; darker band: 0.135 … 99.865 % of Monte Carlo units at that ambient; line: nominal; dashed: the spec limits.</p></div>`;
 }
 
 export function renderHtmlReport(input: HtmlReportInput): string {
@@ -231,6 +246,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
 <h1>${escapeHtml(input.title)}</h1>
 ${provenanceBlock(input)}
 ${cautions.length > 0 ? `<div class="caution" id="caution"><strong>Caution</strong><ul>${cautions.map((c) => `<li>${escapeHtml(c)}</li>`).join('')}</ul></div>` : ''}
+${renderVerdictBlock(r, input.targetYieldPct ?? 99.9)}
 <h2>Summary</h2>
 ${summaryTable(r)}
 <h2>Inputs</h2>

@@ -14,6 +14,8 @@ export interface SpreadRunHtmlOptions {
   tables?: ReportTable[];
   /** When the report was made and the design file's digest (the CLI supplies them: a report reads no clock). */
   provenance?: ReportProvenance;
+  /** The yield each output must reach to read "meets" in the verdict block, %. */
+  targetYieldPct?: number;
 }
 
 export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOptions): string {
@@ -31,6 +33,7 @@ export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOption
   if (command) input.command = command;
   if (tables) input.tables = tables;
   if (options.provenance) input.provenance = options.provenance;
+  if (options.targetYieldPct !== undefined) input.targetYieldPct = options.targetYieldPct;
   if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };
   return renderHtmlReport(input);
 }
