@@ -17,6 +17,7 @@ import { VERSION } from '../src/cli/version.js';
 import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
+import { POT_OUTPUTS } from '../src/report/pot-ends.js';
 import { FIXTURE_PARTS, FIXTURE_RESULT } from './report-fixture.js';
 import { BROWSER_ARGS, findChromium } from './browser-executable.js';
 import { pdfFigures, pdfPageCount } from './pdf-structure.js';
@@ -158,9 +159,11 @@ describe('the report of an example design (adjustable bench module) in headless 
 
   it('histograms for both ends of the pot travel, the grade tables, and a screenshot of the whole page', async () => {
     expect(run.lowEnd).toBeDefined();
-    const outputs = Object.keys(run.result.outputs).length + Object.keys(run.lowEnd!.result.outputs).length;
-    expect(await page.locator('svg.histogram').count()).toBe(outputs);
-    expect(await page.locator('section[id^="lowend-output-"] svg.histogram').count()).toBe(Object.keys(run.lowEnd!.result.outputs).length);
+    // The bottom of the travel shows only what the pot moves (src/report/pot-ends.ts).
+    const lowEndShown = Object.keys(run.lowEnd!.result.outputs).filter((name) => POT_OUTPUTS.includes(name)).length;
+    expect(lowEndShown).toBe(2);
+    expect(await page.locator('svg.histogram').count()).toBe(Object.keys(run.result.outputs).length + lowEndShown);
+    expect(await page.locator('section[id^="lowend-output-"] svg.histogram').count()).toBe(lowEndShown);
     for (const svg of await page.locator('svg.histogram').all()) {
       const bins = await svg.locator('rect.bin').count();
       expect(bins).toBe(Number(await svg.getAttribute('data-bins')));
@@ -172,6 +175,55 @@ describe('the report of an example design (adjustable bench module) in headless 
     expect(await page.locator('tr[data-designator="RS"]').count()).toBe(1);
     await page.screenshot({ path: EXAMPLE_SCREENSHOT, fullPage: true });
     expect(existsSync(EXAMPLE_SCREENSHOT)).toBe(true);
+  });
+
+  it('the verdict block comes first: a row per output with a window, its words matching the result, and the overall line', async () => {
+    const verdict = page.locator('#verdict');
+    const box = await verdict.boundingBox();
+    const summary = await page.locator('h2', { hasText: 'Summary' }).boundingBox();
+    expect(box!.y).toBeLessThan(summary!.y);
+    const windowed = Object.values(run.result.outputs).filter((o) => o.spec);
+    const rows = await verdict.locator('tbody tr').evaluateAll((nodes) => nodes.map((n) => ({ output: n.getAttribute('data-output'), verdict: n.getAttribute('data-verdict'), cells: Array.from(n.querySelectorAll('td') as ArrayLike<{ textContent: string | null }>).map((td) => td.textContent ?? '') })));
+    expect(rows.map((r) => r.output)).toEqual(windowed.map((o) => o.name));
+    for (const row of rows) {
+      const o = run.result.outputs[row.output!]!;
+      const inside = o.worstCase.min >= o.spec![0] && o.worstCase.max <= o.spec![1];
+      expect(row.cells[3]!.startsWith(inside ? 'inside' : 'outside'), row.output!).toBe(true);
+      // The word says it; the default target is 99.9 %.
+      expect(row.cells[4]).toBe(o.yield!.pct >= 99.9 ? 'meets 99.9 %' : 'below 99.9 %');
+      expect(row.verdict).toBe(o.yield!.pct >= 99.9 ? 'pass' : 'fail');
+    }
+    const overall = (await verdict.locator('p.overall').textContent()) ?? '';
+    const perMillion = Math.round(run.result.allSpecs!.pct * 1e4).toLocaleString('en-US');
+    expect(overall).toContain(`in ${perMillion} of 1,000,000 units`);
+  });
+
+  it('an ambient sweep chart per output: bands ordered worst case ⊇ Monte Carlo, nominal inside, ticks in °C over the range', async () => {
+    const grid = run.result.ambientGridC!;
+    expect(grid.length).toBeGreaterThan(2);
+    for (const [name, output] of Object.entries(run.result.outputs)) {
+      const svg = page.locator(`section#output-${name} svg.sweep`);
+      expect(await svg.count(), name).toBe(1);
+      const worst = await svg.locator('path.sweep-worst').boundingBox();
+      const mc = await svg.locator('path.sweep-mc').boundingBox();
+      const nominal = await svg.locator('polyline.sweep-nominal').boundingBox();
+      // On screen y grows downwards: the worst-case band encloses the Monte Carlo band, which encloses the nominal.
+      expect(worst!.y).toBeLessThanOrEqual(mc!.y + 0.5);
+      expect(worst!.y + worst!.height, name).toBeGreaterThanOrEqual(mc!.y + mc!.height - 0.5);
+      expect(worst!.width).toBeGreaterThan(100);
+      // The nominal line's box includes its stroke: compare its middle (a flat line's own height) with the band.
+      const middle = nominal!.y + nominal!.height / 2;
+      expect(middle, name).toBeGreaterThanOrEqual(worst!.y - 1);
+      expect(middle, name).toBeLessThanOrEqual(worst!.y + worst!.height + 1);
+      const ticks = await svg.locator('g.tick.x').evaluateAll((nodes) => nodes.map((n) => ({ value: Number(n.getAttribute('data-value')), label: n.querySelector('text')!.textContent ?? '' })));
+      expect(ticks.length, name).toBeGreaterThanOrEqual(2);
+      for (const t of ticks) {
+        expect(t.label).toBe(`${t.value} °C`);
+        expect(t.value).toBeGreaterThanOrEqual(grid[0]!);
+        expect(t.value).toBeLessThanOrEqual(grid[grid.length - 1]!);
+      }
+      expect(await svg.locator('line.sweep-limit').count(), name).toBe(output.spec ? 2 : 0);
+    }
   });
 
   it('provenance at the top: the SHA-256 node:crypto gives for the design file, the time, version, seed and trials', async () => {
