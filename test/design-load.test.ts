@@ -38,7 +38,8 @@ describe('design values in SI units', () => {
     expect(design.resistors.tolerance).toBeCloseTo(0.005, 15); // a bare number is percent
     expect(design.resistors.tcr).toBeCloseTo(1e-4, 15); // a bare number is ppm/K
     expect(design.resistors.series).toBe('E96');
-    expect(design.current.amplifier!.biasCurrent).toBeCloseTo(50e-9, 20);
+    // A bare current is a typical value, taken as exactly that (src/units/current-band.ts).
+    expect(design.current.amplifier!.biasCurrent).toEqual({ nominal: 50e-9, lo: 50e-9, hi: 50e-9, form: 'typical' });
     expect(design.current.amplifier!.vosDrift).toBeCloseTo(5e-6, 18);
     expect(design.current.shunt.thermalResistance).toBe(60);
     expect(design.current.shunt.value).toBeCloseTo(0.1, 15);

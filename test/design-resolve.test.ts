@@ -107,7 +107,7 @@ describe('"auto" values come from the pickers', () => {
       headroom: 0.2,
       amplifierOffset: 1e-3,
       compareOffset: 0,
-      biasCurrent: 0,
+      biasCurrent: { nominal: 0, lo: 0, hi: 0, form: 'typical' },
       commonMode: 0,
     }).candidates[0]!;
     for (const [name, ohms] of Object.entries(best.parts)) expect(line(r, name).ohms).toBe(ohms);

@@ -7,7 +7,7 @@ import { InputError } from '../errors.js';
 import { pickSense, type SenseCandidate, type SenseRequest } from '../pick/sense.js';
 import { loadShunts } from '../series/load.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
-import { formatEngineering, formatRkm, parseResistance } from '../units/index.js';
+import { currentBandHalfWidth, formatEngineering, formatRkm, parseResistance } from '../units/index.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
 import { resistorSpec } from './resolve-divider.js';
@@ -88,7 +88,7 @@ export function resolveSense(design: Design): ResolvedSense {
       headroom: amp ? (amp.headroom ?? DEFAULT_HEADROOM) : 0,
       amplifierOffset: amp?.vos ?? 0,
       compareOffset: c.compareOffset ?? 0,
-      biasCurrent: amp?.biasCurrent ?? 0,
+      biasCurrent: amp?.biasCurrent ?? { nominal: 0, lo: 0, hi: 0, form: 'typical' },
       commonMode: c.commonMode ?? 0,
     };
     if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
@@ -144,7 +144,8 @@ function senseSpec(design: Design, parts: Record<string, number>, grades: Record
   const a = c.amplifier!;
   const amplifier: AmplifierSpec = { offsetMax: a.vos, railV: a.rail };
   if (a.vosDrift) amplifier.offsetDriftPerK = Math.abs(a.vosDrift);
-  if (a.biasCurrent) amplifier.biasCurrent = { nominal: 0, plusMinus: Math.abs(a.biasCurrent) };
+  const ib = a.biasCurrent;
+  if (ib && (ib.nominal !== 0 || ib.hi > ib.lo)) amplifier.biasCurrent = { nominal: ib.nominal, plusMinus: currentBandHalfWidth(ib) };
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
   return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
 }

@@ -6,7 +6,7 @@ import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js'
 import { worstCase } from '../analysis/worst-case.js';
 import { OVERLOAD_FACTOR } from '../pick/sense/evaluate.js';
 import { ImpossibleError } from '../errors.js';
-import { formatEngineering, formatPercent } from '../units/index.js';
+import { describeCurrentBand, formatEngineering, formatPercent } from '../units/index.js';
 import { bomLine, diffBranchCurrents, noninvGainCurrent, resistorPower, type BomLine, type BomPart } from './bom.js';
 import { cautionsFor } from './cautions.js';
 import { windowBounds } from './fields.js';
@@ -58,6 +58,10 @@ export function resolveDesign(design: Design): ResolvedDesign {
   const temperature = design.temperature ?? { min: 25, max: 25 };
   if (!design.temperature) notes.push('No temperature range given: analysed at 25 °C only, so TCRs and drifts with temperature play no part.');
   const bias = feedbackBias(design);
+  // What the bias-current notation was taken to mean (src/units/current-band.ts), said back to the designer.
+  if (design.voltage.feedbackBias) notes.push(`Feedback-pin bias current Ifb (voltage.feedbackBias): ${describeCurrentBand(design.voltage.feedbackBias)}.`);
+  const ib = design.current.amplifier?.biasCurrent;
+  if (ib && design.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
   if (design.reference.drift) reference.drift = design.reference.drift;
@@ -86,7 +90,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number]): SupplySpec {
     const spec: SupplySpec = {
       reference,
-      divider: { ...legs, ...(bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
+      divider: { ...legs, ...(bias.nominal !== 0 || bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
       temperature: { minC: temperature.min, maxC: temperature.max, monteCarlo: 'uniform' },
       sense: sense.sense,
       windows: { vout: window, ilimit: ilimitWindow },

@@ -7,6 +7,7 @@ import {
   autoOr,
   celsius,
   current,
+  currentBand,
   fieldIssue,
   percent,
   power,
@@ -121,7 +122,7 @@ const voltageSection = z
       .meta({ description: '"auto" (picked from the series) or { top, bottom }' }),
     search: dividerSearch.optional(),
     pot: pot.optional(),
-    feedbackBias: describe(current(), 'feedback-pin bias current, positive into the pin (default 0)').optional(),
+    feedbackBias: describe(currentBand(), 'feedback-pin bias current, positive into the pin (default 0); the divider picker aims at its nominal').optional(),
     notes: notes.optional(),
   })
   .superRefine((v, ctx) => {
@@ -173,7 +174,7 @@ const amplifier = z
   .strictObject({
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
-    biasCurrent: describe(current(), 'input bias current, maximum magnitude (default 0)').optional(),
+    biasCurrent: describe(currentBand(), 'input bias current into the inverting input (default 0)').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })

@@ -8,3 +8,4 @@ export { formatEngineering, formatEngineeringShortest } from './format-engineeri
 export { formatRkm, formatRkmDigits } from './format-rkm.js';
 export { parseLetterCode, RESISTANCE_CODE_LETTERS } from './rkm-code.js';
 export { SI_PREFIX_EXPONENTS, SI_PREFIX_LIST, SI_PREFIX_SYMBOLS } from './si-prefix.js';
+export { CURRENT_BAND_ACCEPTED, currentBandHalfWidth, describeCurrentBand, parseCurrentBand, type CurrentBand, type CurrentBandForm } from './current-band.js';
