@@ -79,7 +79,9 @@ export function describeCurrentBand(band: CurrentBand): string {
       return `${a(band.nominal)} (a typical value, taken as exact)`;
     case 'max':
       return `max ${a(band.hi)}: uniform over 0..${a(band.hi)}, nominal ${a(band.nominal)}`;
+    case 'plus-minus':
+      return `${band.nominal === 0 ? '' : `${a(band.nominal)} `}±${a(currentBandHalfWidth(band))}: uniform over ${a(band.lo)}..${a(band.hi)}`;
     default:
-      return `${a(band.lo)}..${a(band.hi)}, uniform, nominal ${a(band.nominal)}`;
+      return `${a(band.lo)}..${a(band.hi)}: uniform, nominal ${a(band.nominal)}`;
   }
 }
