@@ -71,9 +71,9 @@ export function currentBandHalfWidth(band: CurrentBand): number {
   return (band.hi - band.lo) / 2;
 }
 
-/** What was assumed, for notes and header lines: "max 20.0 nA: uniform over 0.00 A..20.0 nA, nominal 10.0 nA". */
+/** What was assumed, for notes and header lines: "max 20.0 nA: uniform over 0..20.0 nA, nominal 10.0 nA". */
 export function describeCurrentBand(band: CurrentBand): string {
-  const a = (x: number): string => formatEngineering(x, 'A');
+  const a = (x: number): string => (x === 0 ? '0 A' : formatEngineering(x, 'A'));
   switch (band.form) {
     case 'typical':
       return `${a(band.nominal)} (a typical value, taken as exact)`;
