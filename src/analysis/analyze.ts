@@ -10,6 +10,7 @@ import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions 
 import type { AnalysisResult, OutputResult } from './result.js';
 import { rss } from './rss.js';
 import { worstCase } from './worst-case.js';
+import { beyondWorstCaseNotes, unboundedPartsNote } from './worst-case-bound.js';
 
 export interface AnalyzeOptions extends Omit<MonteCarloOptions, 'source' | 'ranges'> {
   /** Enumerate every vertex up to this many varying parts (default 20), else sensitivity signs then a check. */
@@ -78,6 +79,9 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       : `Worst case: every combination of band ends (${worst[0]?.evaluations ?? 0} vertices).`,
     'RSS: law of propagation of uncertainty, first order, sensitivities by central differences (JCGM 100:2008 5.1.2).',
     ...mc.notes,
+    // Worst case bounds Monte Carlo, or a note says which part and why (src/analysis/worst-case-bound.ts).
+    ...unboundedPartsNote(model.parts),
+    ...beyondWorstCaseNotes(model.parts, Object.values(outputs)),
   ];
   const ilimit = outputs.ilimit;
   if (ilimit && ilimit.worstCase.min <= 0) {

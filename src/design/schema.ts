@@ -32,7 +32,7 @@ function describe<T extends z.ZodType>(schema: T, meaning: string): T {
 
 export const TOPOLOGIES = ['direct', 'noninv', 'diff'] as const;
 export type Topology = (typeof TOPOLOGIES)[number];
-export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'triangular'] as const;
+export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'normal-unbounded', 'triangular'] as const;
 export type DistributionName = (typeof DISTRIBUTIONS)[number];
 export const APPLICATIONS = ['charger', 'bench', 'led', 'other'] as const;
 export type Application = (typeof APPLICATIONS)[number];
@@ -269,7 +269,12 @@ const gradeFields = {
   series: seriesName.optional(),
   tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance (overrides the grade\'s)').optional(),
   tcr: describe(ppmPerK(), 'temperature coefficient (overrides the grade\'s)').optional(),
-  distribution: z.enum(DISTRIBUTIONS).meta({ description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ)` }).optional(),
+  distribution: z
+    .enum(DISTRIBUTIONS)
+    .meta({
+      description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ, cut off at the band, since makers test parts to their band; truncated-normal: the same; normal-unbounded: not cut off, so Monte Carlo can pass the worst case, and the notes say so)`,
+    })
+    .optional(),
 };
 
 const override = z.strictObject(gradeFields).meta({ description: 'grade of one part, by designator' });
