@@ -14,6 +14,7 @@ import { exceedsLossLimit } from '../src/pick/sense/feasibility.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
 import { seriesValuesBetween } from '../src/series/enumerate.js';
 import { loadShunts } from '../src/series/load.js';
+import { baseDesign } from './design-fixture.js';
 
 const example = (name: string): Record<string, any> => JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples', name), 'utf8')) as Record<string, any>;
 const worstLoss = (c: SenseCandidate): number => c.worstCase.max ** 2 * c.parts['RS']!;
@@ -110,5 +111,20 @@ describe('a constructed case: the loss budget below the derated rating', () => {
     expect((error as ImpossibleError).where).toBe('current.shunt.rating');
     // Needed rating by hand: 0.251 W / 50 % = 0.502 W.
     expect(describeError(error as ImpossibleError)).toMatch(/to fix: raise current\.shunt\.rating to at least 502 mW/);
+  });
+});
+
+describe('the shunt-heat caution takes the worst-case loss', () => {
+  it('base design at 25 °C: the worst case by hand, not the nominal', () => {
+    // noninv, RS 0.1 Ω ±1 %, RF 9k / RG 1k ±1 %, threshold 1.0 V ±1 %, Vos ±1 mV, no bias current, 25 °C only.
+    // Loss at the limit = K²/Rs with K = Vth/G − Vos (I = K/Rs): largest at Vth high, G and Rs low, Vos negative.
+    const gMin = 1 + (9e3 * 0.99) / (1e3 * 1.01);
+    const worst = (1.01 / gMin + 1e-3) ** 2 / (0.1 * 0.99); // 0.10890 W
+    const d = baseDesign();
+    delete d.temperature;
+    const r = resolveDesign(validateDesign(d));
+    const caution = r.cautions.find((c) => c.startsWith('Shunt:'))!;
+    expect(worst).toBeCloseTo(0.1089, 4);
+    expect(caution).toMatch(/^Shunt: up to 109 mW at the current limit \(worst case over tolerances and temperature; 100 mW nominal\) is 11 % of its 1\.00 W rating/);
   });
 });

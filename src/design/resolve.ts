@@ -117,8 +117,11 @@ export function resolveDesign(design: Design): ResolvedDesign {
     if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
   }
 
+  // The shunt-heat caution takes the worst-case loss (every band end, both ends of the temperature range).
+  const shuntLossWorstW = worstCase(buildSupplyModel(spec)).find((w) => w.name === 'shuntLoss')!.max;
   const shuntFacts = {
     shuntLossW: nominal['shuntLoss']!,
+    shuntLossWorstW,
     derating: sense.derating,
     ...(design.current.shunt.rating !== undefined ? { shuntRatingW: design.current.shunt.rating } : {}),
     ...(design.current.shunt.thermalResistance !== undefined ? { thermalResistanceKPerW: design.current.shunt.thermalResistance } : {}),
