@@ -76,7 +76,7 @@ export function describeCurrentBand(band: CurrentBand): string {
   const a = (x: number): string => (x === 0 ? '0 A' : formatEngineering(x, 'A'));
   switch (band.form) {
     case 'typical':
-      return `${a(band.nominal)} (a typical value, taken as exact)`;
+      return band.nominal === 0 ? '0 A' : `${a(band.nominal)} (a typical value, taken as exact)`;
     case 'max':
       return `max ${a(band.hi)}: uniform over 0..${a(band.hi)}, nominal ${a(band.nominal)}`;
     case 'plus-minus':
