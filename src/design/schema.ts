@@ -174,7 +174,7 @@ const amplifier = z
   .strictObject({
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
-    biasCurrent: describe(currentBand(), 'input bias current into the inverting input (default 0)').optional(),
+    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0)').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })
