@@ -6,6 +6,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildSupplyModel } from '../src/analysis/models/supply.js';
+import { worstCase } from '../src/analysis/worst-case.js';
 import { validateDesign } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { ImpossibleError, describeError } from '../src/errors.js';
@@ -14,6 +15,7 @@ import { exceedsLossLimit } from '../src/pick/sense/feasibility.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
 import { seriesValuesBetween } from '../src/series/enumerate.js';
 import { loadShunts } from '../src/series/load.js';
+import { formatEngineering } from '../src/units/index.js';
 import { baseDesign } from './design-fixture.js';
 
 const example = (name: string): Record<string, any> => JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples', name), 'utf8')) as Record<string, any>;
@@ -126,5 +128,16 @@ describe('the shunt-heat caution takes the worst-case loss', () => {
     const caution = r.cautions.find((c) => c.startsWith('Shunt:'))!;
     expect(worst).toBeCloseTo(0.1089, 4);
     expect(caution).toMatch(/^Shunt: up to 109 mW at the current limit \(worst case over tolerances and temperature; 100 mW nominal\) is 11 % of its 1\.00 W rating/);
+  });
+});
+
+describe('the caution\'s worst-case loss is the worst case of the whole model', () => {
+  // The caution holds the divider exact (it never enters the sense path); the whole model's worst case by vertex
+  // enumeration must give the same figure.
+  it.each(['charger-2s-liion.json', 'bench-adjustable.json'])('%s', (file) => {
+    const r = resolveDesign(validateDesign(example(file)));
+    const whole = worstCase(buildSupplyModel(r.spec)).find((w) => w.name === 'shuntLoss')!;
+    expect(whole.method).toBe('enumeration');
+    expect(r.cautions.find((c) => c.startsWith('Shunt:'))).toContain(`Shunt: up to ${formatEngineering(whole.max, 'W')} at the current limit`);
   });
 });
