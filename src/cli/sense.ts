@@ -286,7 +286,6 @@ with (common practice). TCR, self-heating and Monte Carlo spread: 'trimfree spre
 Examples:
   $ trimfree sense --limit 3A --threshold 1V
   $ trimfree sense --limit 3A --threshold 1V --max-loss 0.25W --vos 50uV --tolerance 0.1%
-  $ trimfree sense --limit 3A --threshold 1V --vos 0.5mV --ib ±50n
   $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V
   $ trimfree sense --limit 2A --topology direct --threshold-from 1.25V --vos-cmp 1mV
   $ trimfree sense --limit 3A --threshold 1V --shunts 20m,R033,50m --json`,
