@@ -141,3 +141,28 @@ describe('the caution\'s worst-case loss is the worst case of the whole model', 
     expect(r.cautions.find((c) => c.startsWith('Shunt:'))).toContain(`Shunt: up to ${formatEngineering(whole.max, 'W')} at the current limit`);
   });
 });
+
+describe('an engine SupplySpec states its own windows', () => {
+  const spec = () => resolveDesign(validateDesign(baseDesign())).spec;
+  const windowOf = (s: ReturnType<typeof spec>, name: string) => buildSupplyModel(s).outputs.find((o) => o.name === name)!.spec;
+
+  it('the base design: 50 % of its 1 W rating, 5 V rail less the default 0.2 V headroom', () => {
+    expect(windowOf(spec(), 'shuntLoss')).toEqual([0, 0.5]);
+    expect(windowOf(spec(), 'ampOutput')).toEqual([0, 4.8]);
+  });
+
+  it('a bare spec with a rating and no loss limit keeps [0, rating] and says so', () => {
+    const s = spec();
+    delete s.sense!.shunt.lossLimitW;
+    delete s.sense!.shunt.lossLimitFrom;
+    expect(windowOf(s, 'shuntLoss')).toEqual([0, 1]);
+    expect(buildSupplyModel(s).notes!.join(' ')).toMatch(/shuntLoss is judged against 0\.\.1 W, the full power rating \(no derated loss limit given\)/);
+  });
+
+  it('a headroom that leaves no swing is refused with the field path', () => {
+    const s = spec();
+    if (s.sense!.topology !== 'noninv') throw new Error('the base design is noninv');
+    s.sense!.amplifier.headroomV = 5;
+    expect(() => buildSupplyModel(s)).toThrowError(expect.objectContaining({ where: 'supply.sense.amplifier.headroomV' }));
+  });
+});
