@@ -62,7 +62,8 @@ describe('supply model: the fast loop against a per-trial reference from the cir
     for (let k = 0; k < 200; k++) {
       // Vo = plus·(Vcm + I·Rs) − (R4/R3)·Vcm + offset = Vth − Vos_cmp, solved for I.
       current = (vth - v('Vos cmp') - (plus - a2 / a1) * 24 - offset) / (plus * rs);
-      rs = rsAmbient * (1 + v('RS TCR') * 80 * current * current * rs);
+      // The shunt at its own temperature Tamb + θ·P: R25·(1 + α·(Tamb + θ·P − 25)), θ = 80 K/W, P = I²·Rs.
+      rs = r('RS', false) * (1 + v('RS TCR') * (dT + 80 * current * current * rs));
     }
     const ampOutput = plus * (24 + current * rs) - (a2 / a1) * 24 + offset;
     return { vout, dividerCurrent: vref / bottom, ilimit: current, shuntLoss: current * current * rs, ampOutput };
@@ -99,9 +100,26 @@ describe('supply model: the fast loop against a per-trial reference from the cir
     expect(nominalOutputs(model).ilimit).toBeCloseTo(0.64, 10);
   });
 
-  it('hotShunt solves R = Ra·(1 + α·θ·K²/R) exactly', () => {
-    const r = hotShunt(0.05, 200e-6, 60, 0.1);
-    expect(r).toBeCloseTo(0.05 * (1 + (200e-6 * 60 * 0.01) / r), 15);
+  it('hotShunt solves R = R25·(1 + α·(Tamb + θ·K²/R − 25)) exactly: a case worked by hand', () => {
+    // By hand: R25 = 50 mΩ, α = 200 ppm/K, θ = 60 K/W, Tamb = 85 °C, K = I·R = 0.1 V.
+    // R_amb = 0.05·(1 + 200e-6·60) = 0.0506 Ω; R² − 0.0506·R − 0.05·200e-6·60·0.01 = R² − 0.0506·R − 6e-6 = 0;
+    // R = (0.0506 + √(0.00256036 + 0.000024))/2 = (0.0506 + √0.00258436)/2 = 0.0507183005 Ω;
+    // P = 0.01/R = 0.19717 W, rise θ·P = 11.830 K, shunt at 96.830 °C.
+    const r25 = 0.05;
+    const rAmbient = r25 * (1 + 200e-6 * (85 - 25));
+    const r = hotShunt(rAmbient, r25, 200e-6, 60, 0.1);
+    expect(r).toBeCloseTo(0.0507183005, 10);
+    expect(60 * (0.01 / r)).toBeCloseTo(11.830, 3);
+    // The stated formula holds at the root, to rounding.
+    expect(r).toBeCloseTo(r25 * (1 + 200e-6 * (85 + (60 * 0.01) / r - 25)), 15);
+    // An independent solver: fixed-point iteration of the shunt temperature T = Tamb + θ·K²/R(T) (a contraction here,
+    // |dT'/dT| = θ·K²·R25·α/R² ≈ 2.8e-3) converges to the same resistance.
+    let t = 85;
+    for (let i = 0; i < 50; i++) t = 85 + (60 * 0.01) / (r25 * (1 + 200e-6 * (t - 25)));
+    expect(r25 * (1 + 200e-6 * (t - 25))).toBeCloseTo(r, 15);
+    // The former form R(Tamb)·(1 + α·θ·P) puts the ambient TCR factor on the rise too: 2.8e-5 relative higher here.
+    const former = (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * rAmbient * 200e-6 * 60 * 0.01)) / 2;
+    expect((former - r) / r).toBeCloseTo(2.79e-5, 7);
   });
 
   it('bad values name the field: a wiper outside 0..1, two resistors without arrangement, reversed temperatures', () => {
@@ -276,7 +294,8 @@ describe('supply model, noninv and direct topologies, against per-trial formulas
       let current = 0;
       for (let k = 0; k < 100; k++) {
         current = ((vth - v('Vos cmp', j) - ib * rf) / g - vos) / rs;
-        rs = rsAmbient * (1 + v('RS TCR', j) * 60 * current * current * rs);
+        // The shunt at its own temperature Tamb + θ·P: R25·(1 + α·(Tamb + θ·P − 25)), θ = 60 K/W, P = I²·Rs.
+        rs = v('RS', j) * (1 + v('RS TCR', j) * (dT + 60 * current * current * rs));
       }
       const vref = v('Vref', j) * (1 + v('Vref tempco', j) * dT);
       const r1 = v('R1', j) * (1 + v('R1 TCR', j) * dT);

@@ -66,6 +66,10 @@ const ROWS: Row[] = [
   { args: ['divider', '--vref', '1.25', '--vout', '3.3..24'], code: 2, where: '--vout:', says: /needs a pot; accepted: a single voltage, or a range with --pot/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--pot', '10k', '--pot-leg', 'middle'], code: 2, where: "option '--pot-leg <leg>' argument 'middle' is invalid", says: /Allowed choices are top, bottom/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', '1A'], code: 2, where: 'bottom resistor:', says: /100×\|Ifb\|.*; to fix: widen --bottom/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', '20n..10n'], code: 2, where: '--ifb:', says: /'20n\.\.10n' is inverted.*; accepted: a current as a typical value \(20n: exactly 20 nA\), a ± band .*max 20n/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', 'max -5n'], code: 2, where: '--ifb:', says: /a maximum must not be negative.*; accepted: .*for a current out of the pin give a range/ },
+  { args: ['sense', '--limit', '3A', '--threshold', '1V', '--ib', '20n±'], code: 2, where: '--ib:', says: /empty current.*; accepted: a current as a typical value/ },
+  { args: ['sense', '--limit', '3A', '--threshold', '1V', '--ib', '±1e9'], code: 2, where: '--ib:', says: /outside what trimfree takes as a real part; accepted: .*up to 100 kA/ },
   // sense: impossible requests, each with what to change
   { alone: true, args: ['sense', '--limit', '3A', '--threshold', '6V'], code: 2, where: '--threshold:', says: /above the 4\.80 V it can reach.*; to fix: lower --threshold to at most 4\.00 V, or raise --rail/ },
   { args: ['sense', '--limit', '100mA', '--threshold', '1V', '--vos', '10mV', '--shunts', '1m'], code: 2, where: '--limit:', says: /less than 10× the 10\.0 mV amplifier offset.*; to fix: use a lower-offset part/ },
@@ -131,6 +135,13 @@ const ROWS: Row[] = [
     code: 2,
     where: 'current.shunt:',
     says: /gives 1\.50 mV at the limit, no more than the 2\.00 mV of offset.*; to fix: a larger shunt/,
+  },
+  {
+    // Every candidate's worst-case loss passes the 250 mW budget: R10 reaches 1.584² A²·0.1 Ω = 251 mW.
+    args: ['design', chargerWith('all-flagged', (d) => (d.current.shunt.candidates = ['R10', 'R11'])), ...T],
+    code: 2,
+    where: 'current.shunt.maxLoss:',
+    says: /every one of the 2 current-sense candidates loads its shunt past the 250 mW loss limit.*; to fix: raise current\.shunt\.maxLoss to at least 251 mW/,
   },
   {
     args: ['spread', chargerWith('typo', (d) => (d.voltage.tagret = d.voltage.target)), ...T],

@@ -23,6 +23,19 @@ describe('trimfree divider (subprocess)', () => {
     expect(r.stdout).not.toMatch(/NaN|Infinity/);
   });
 
+  it('--ifb in the band notation: the header says what was assumed, and the picker aims at the nominal', () => {
+    // "max 2u" is anywhere in 0..2 µA, nominal 1 µA: the same candidates as a typical 1 µA (Vout's Ifb·Rtop term
+    // at the nominal), and its own line in the header.
+    const band = divider('--vref', '1.25', '--vout', '12', '--ifb', 'max 2u', '--json', '--top', '3');
+    const typical = divider('--vref', '1.25', '--vout', '12', '--ifb', '1u', '--json', '--top', '3');
+    expect(band.status).toBe(0);
+    const candidates = (r: CliRun) => (JSON.parse(r.stdout) as { candidates: unknown[] }).candidates;
+    expect(candidates(band)).toEqual(candidates(typical));
+    expect((JSON.parse(band.stdout) as { settings: { ifbBand: unknown } }).settings.ifbBand).toEqual({ nominal: 1e-6, lo: 0, hi: 2e-6, form: 'max' });
+    const text = divider('--vref', '1.25', '--vout', '12', '--ifb', 'max 2u', '--top', '1');
+    expect(text.stdout.split('\n')[0]).toMatch(/Ifb max 2\.00 µA: uniform over 0\.\.2\.00 µA, nominal 1\.00 µA \(aimed at its nominal\)/);
+  }, 30_000); // three subprocesses
+
   it('--json gives candidates with top/bottom in ohms and the physical parts', () => {
     const r = divider('--vref', '0.8', '--vout', '5', '--parts', '3', '--series', 'E24', '--json', '--top', '3');
     expect(r.status).toBe(0);

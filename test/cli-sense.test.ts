@@ -10,6 +10,13 @@ function sense(...args: string[]): CliRun {
 
 
 describe('trimfree sense (subprocess)', () => {
+  it('--ib in the band notation: the header says what was assumed', () => {
+    // 10n±10n is 0..20 nA about a nominal 10 nA (src/units/current-band.ts).
+    const r = sense('--limit', '3A', '--threshold', '1V', '--ib', '10n±10n', '--top', '1');
+    expect(r.status).toBe(0);
+    expect(r.stdout.split('\n')[2]).toMatch(/Ib 10\.0 nA ±10\.0 nA: uniform over 0 A\.\.20\.0 nA, comparing offset/);
+  });
+
   it('prints ranked candidates, the Pareto front and the shunt caution', () => {
     const r = sense('--limit', '3A', '--threshold', '1V', '--top', '3');
     expect(r.status).toBe(0);

@@ -38,13 +38,51 @@ describe('design values in SI units', () => {
     expect(design.resistors.tolerance).toBeCloseTo(0.005, 15); // a bare number is percent
     expect(design.resistors.tcr).toBeCloseTo(1e-4, 15); // a bare number is ppm/K
     expect(design.resistors.series).toBe('E96');
-    expect(design.current.amplifier!.biasCurrent).toBeCloseTo(50e-9, 20);
+    // A bare current is a typical value, taken as exactly that (src/units/current-band.ts).
+    expect(design.current.amplifier!.biasCurrent).toEqual({ nominal: 50e-9, lo: 50e-9, hi: 50e-9, form: 'typical' });
     expect(design.current.amplifier!.vosDrift).toBeCloseTo(5e-6, 18);
     expect(design.current.shunt.thermalResistance).toBe(60);
     expect(design.current.shunt.value).toBeCloseTo(0.1, 15);
     expect(design.voltage.target).toEqual([5, 5]);
     expect(design.voltage.window).toEqual({ kind: 'relative', minus: 0.02, plus: 0.02 });
     expect(design.temperature).toEqual({ min: 0, max: 50 });
+  });
+
+  it('reads the bias-current forms: typical, ± band, range, maximum (src/units/current-band.ts)', () => {
+    const forms: Array<[string | number, { nominal: number; lo: number; hi: number; form: string }]> = [
+      ['20 nA', { nominal: 20e-9, lo: 20e-9, hi: 20e-9, form: 'typical' }],
+      [2e-8, { nominal: 2e-8, lo: 2e-8, hi: 2e-8, form: 'typical' }],
+      ['±20n', { nominal: 0, lo: -20e-9, hi: 20e-9, form: 'plus-minus' }],
+      ['10n±10n', { nominal: 10e-9, lo: 0, hi: 20e-9, form: 'plus-minus' }],
+      ['0..20n', { nominal: 10e-9, lo: 0, hi: 20e-9, form: 'range' }],
+      ['max 20n', { nominal: 10e-9, lo: 0, hi: 20e-9, form: 'max' }],
+    ];
+    for (const [text, expected] of forms) {
+      const d = baseDesign();
+      d.voltage.feedbackBias = text;
+      d.current.amplifier.biasCurrent = text;
+      const design = validateDesign(d);
+      for (const band of [design.voltage.feedbackBias!, design.current.amplifier!.biasCurrent!]) {
+        expect(band.form).toBe(expected.form);
+        expect(band.nominal).toBeCloseTo(expected.nominal, 24);
+        expect(band.lo).toBeCloseTo(expected.lo, 24);
+        expect(band.hi).toBeCloseTo(expected.hi, 24);
+      }
+    }
+  });
+
+  it('says what each bias current was taken to mean, and the engine gets that band', () => {
+    const d = baseDesign();
+    d.voltage.feedbackBias = 'max 50 nA';
+    d.current.amplifier.biasCurrent = '20 nA';
+    const r = resolveDesign(validateDesign(d));
+    expect(r.notes).toContain('Feedback-pin bias current Ifb (voltage.feedbackBias): max 50.0 nA: uniform over 0..50.0 nA, nominal 25.0 nA.');
+    expect(r.notes).toContain('Amplifier bias current Ib (current.amplifier.biasCurrent): 20.0 nA (a typical value, taken as exact).');
+    // max 50 nA is 25 nA ± 25 nA; a typical 20 nA has no spread.
+    expect(r.spec.divider.feedbackBias!.nominal).toBeCloseTo(25e-9, 24);
+    expect(r.spec.divider.feedbackBias!.plusMinus).toBeCloseTo(25e-9, 24);
+    const amp = r.spec.sense!.topology === 'noninv' ? r.spec.sense!.amplifier : undefined;
+    expect(amp!.biasCurrent).toEqual({ nominal: 20e-9, plusMinus: 0 });
   });
 
   it('reads absolute and asymmetric windows, and "auto"', () => {
@@ -92,6 +130,10 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['common mode on a low-side topology', (d) => (d.current.commonMode = '12 V'), 'current.commonMode', /diff topology only/],
   ['adjustable target without a pot', (d) => (d.voltage.target = '3..12 V'), 'voltage.pot', /needs a pot/],
   ['threshold divider without reference', (d) => (d.current.threshold = { tolerance: '1%', top: 'auto', bottom: 'auto' }), 'current.threshold.voltage', /missing required field/],
+  ['feedback bias, inverted range', (d) => (d.voltage.feedbackBias = '50n..10n'), 'voltage.feedbackBias', /inverted.*; accepted: a current as a typical value \(20n: exactly 20 nA\), a ± band \(±20n, 0±20n, 10n±10n\), a range \(0\.\.20n\), or a maximum \(max 20n: anywhere in 0\.\.20 nA, uniform\)/],
+  ['amplifier bias, bad notation', (d) => (d.current.amplifier.biasCurrent = '±50q'), 'current.amplifier.biasCurrent', /unexpected character 'q'.*; accepted: a current as a typical value/],
+  ['amplifier bias, negative maximum', (d) => (d.current.amplifier.biasCurrent = 'max -1n'), 'current.amplifier.biasCurrent', /a maximum must not be negative/],
+  ['amplifier bias, beyond any part', (d) => (d.current.amplifier.biasCurrent = '±1e6'), 'current.amplifier.biasCurrent', /out of range.*accepted: .*-10 kA to 10 kA/],
   ['notes of the wrong type', (d) => (d.notes = 5), 'notes', /wrong type/],
 ];
 

@@ -86,14 +86,15 @@ describe('normal draws: the two-pass Φ⁻¹ loop equals Acklam’s function dra
 // The supply model's column-by-column block evaluation against a plain per-trial reference: one trial at a time,
 // each value read by part name and built by the formulas in src/analysis/models/supply.ts's header (resistor at
 // temperature R·(1 + drift)·(1 + α·ΔT), legs, reference, threshold, offsets) and the circuit functions of
-// src/circuits, with self-heating by the closed form hotShunt. Same operations in the same order, so equal bits.
+// src/circuits, with self-heating R25·(1 + α·(Tamb + θ·P − 25)) by the closed form hotShunt. Same operations in the same order, so equal bits.
 
-function resistorAt(v: (name: string) => number | undefined, name: string, dT: number): number {
+/** A resistor at ΔT from 25 °C; `withTcr` false gives its value at 25 °C (drift only). */
+function resistorAt(v: (name: string) => number | undefined, name: string, dT: number, withTcr = true): number {
   let r = v(name)!;
   const drift = v(`${name} drift`);
   const tcr = v(`${name} TCR`);
   if (drift !== undefined) r *= 1 + drift;
-  if (tcr !== undefined) r *= 1 + tcr * dT;
+  if (tcr !== undefined && withTcr) r *= 1 + tcr * dT;
   return r;
 }
 
@@ -156,7 +157,8 @@ function referenceTrial(spec: SupplySpec, v: (name: string) => number | undefine
   const alpha = v(`${sense.shunt.name} TCR`);
   const theta = sense.shunt.thermalResistanceKPerW ?? 0;
   if (theta > 0 && alpha !== undefined) {
-    q.shunt = hotShunt(rAmbient, alpha, theta, current * rAmbient);
+    // R_hot = R25·(1 + α·(Tamb + θ·P − 25)) with R25 the shunt at 25 °C (drift included), solved by hotShunt.
+    q.shunt = hotShunt(rAmbient, resistorAt(v, sense.shunt.name, 0, false), alpha, theta, current * rAmbient);
     current = limit(q);
   }
   return [...out, current, current * current * q.shunt, signal(q, current)];

@@ -29,10 +29,15 @@ function request(over: Partial<SenseRequest> = {}): SenseRequest {
     headroom: 0.2,
     amplifierOffset: 1e-3,
     compareOffset: 0,
-    biasCurrent: 0,
+    biasCurrent: plusMinus(0),
     commonMode: 0,
     ...over,
   };
+}
+
+/** A bias-current band about zero, ±x (src/units/current-band.ts). */
+function plusMinus(x: number): SenseRequest['biasCurrent'] {
+  return { nominal: 0, lo: -x, hi: x, form: 'plus-minus' };
 }
 
 function impossible(run: () => unknown): ImpossibleError {
@@ -109,7 +114,7 @@ describe('pickSense against brute force', () => {
   it('the quick worst case equals a brute-force grid over the tolerance box (diff, high side, 3 levels × 9 variables)', () => {
     // Vertex enumeration is exact for a transfer monotonic in each variable: a 3^9 grid that includes the
     // vertices and every mid-point must find nothing outside it.
-    const req = request({ topology: 'diff', shunts: [0.05], commonMode: 12, rail: 20, amplifierOffset: 1e-3, biasCurrent: 50e-9, compareOffset: 2e-3 });
+    const req = request({ topology: 'diff', shunts: [0.05], commonMode: 12, rail: 20, amplifierOffset: 1e-3, biasCurrent: plusMinus(50e-9), compareOffset: 2e-3 });
     const c = pickSense(req).candidates[0]!;
     const nominal = [c.parts['RS']!, c.parts['R1']!, c.parts['R2']!, c.parts['R3']!, c.parts['R4']!, 1, 0, 0, 0];
     const half = [0.01, 0.01, 0.01, 0.01, 0.01, 0.01].map((t, i) => nominal[i]! * t).concat([1e-3, 50e-9, 2e-3]);
@@ -144,7 +149,7 @@ describe('figures by hand', () => {
   });
 
   it('noninv bias current: the picker moves to the lower-value pair of the same ratio, and Ib·RF/(G·Rs) by hand', () => {
-    const c = pickSense(request({ shunts: [0.05], biasCurrent: 100e-9 })).candidates[0]!;
+    const c = pickSense(request({ shunts: [0.05], biasCurrent: plusMinus(100e-9) })).candidates[0]!;
     // 113 k/20 k and 11.3 k/2 k give the same gain 6.65; with bias current the lower pair has a tenth of the error.
     expect(c.parts).toEqual({ RS: 0.05, RF: 11.3e3, RG: 2e3 });
     // Ib·RF = 100e-9·11.3e3 = 1.13 mV; / 6.65 = 0.16992 mV; / 0.05 Ω = 3.398 mA; / 3 A = 0.11328 %;

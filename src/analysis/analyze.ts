@@ -13,6 +13,7 @@ import { rss } from './rss.js';
 import { outputBudget } from './variance-budget.js';
 import { varianceIndicesSteps, type VarianceIndicesResult } from './variance-indices.js';
 import { worstCase, type WorstCaseOptions } from './worst-case.js';
+import { beyondWorstCaseNotes, unboundedPartsNote } from './worst-case-bound.js';
 
 export interface AnalyzeOptions extends Omit<MonteCarloOptions, 'source' | 'ranges'> {
   /** Enumerate every vertex up to this many varying parts (default 20), else sensitivity signs then a check. */
@@ -94,6 +95,9 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     'RSS: law of propagation of uncertainty, first order, sensitivities by central differences at the parts\' means (JCGM 100:2008 5.1.2); expanded uncertainty U = k·u(y) with k = 2 (JCGM 100:2008 6.2.1, 6.3.3).',
     `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
     ...mc.notes,
+    // Worst case bounds Monte Carlo, or a note says which part and why (src/analysis/worst-case-bound.ts).
+    ...unboundedPartsNote(model.parts),
+    ...beyondWorstCaseNotes(model.parts, Object.values(outputs)),
   ];
   const ilimit = outputs.ilimit;
   if (ilimit && ilimit.worstCase.min <= 0) {

@@ -22,3 +22,13 @@ export function shuntMaxCurrent(shunt: number, ratingW: number, derating = 1): n
 export function largestShuntForLoss(current: number, budgetW: number): number {
   return budgetW / (current * current);
 }
+
+/**
+ * The largest loss a design lets its shunt take at the limit, W: `derating` × the rating, or the loss budget when
+ * that is lower. One rule for the picker (which candidates it flags), the design (which it may pick) and the
+ * Monte Carlo window of the shunt loss.
+ */
+export function shuntLossLimit(ratingW: number, derating: number, maxLossW?: number): { watts: number; from: 'derated rating' | 'loss budget' } {
+  const derated = derating * ratingW;
+  return maxLossW !== undefined && maxLossW < derated ? { watts: maxLossW, from: 'loss budget' } : { watts: derated, from: 'derated rating' };
+}

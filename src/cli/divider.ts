@@ -7,6 +7,7 @@ import { DIVIDER_DEFAULTS, pickDivider, type AdjustableDividerResult, type Divid
 import { parseSeriesName, type SeriesName } from '../series/load.js';
 import { readStockFile } from '../series/stock.js';
 import {
+  describeCurrentBand,
   formatEngineering,
   formatPercent,
   formatRkmDigits,
@@ -14,10 +15,11 @@ import {
   parseResistance,
   parseVoltage,
   parseCurrent,
+  type CurrentBand,
   type Range,
 } from '../units/index.js';
 import {
-  currentOption,
+  currentBandOption,
   integerOption,
   percentOption,
   toleranceOption,
@@ -30,7 +32,7 @@ import { COMPACT_TABLE } from './values.js';
 interface DividerOptions {
   vref: number;
   vout: Range;
-  ifb: number;
+  ifb: CurrentBand;
   series: SeriesName[];
   stock?: string;
   parts: number;
@@ -74,7 +76,7 @@ function powerText(watts: number): string {
   return watts >= 1e-3 ? formatEngineering(watts, 'W', 2) : formatEngineering(watts, 'W', 1);
 }
 
-function printFixed(result: FixedDividerResult): void {
+function printFixed(result: FixedDividerResult, ifb: CurrentBand): void {
   const s = result.settings;
   const table = new Table({
     head: ['#', 'top', 'bottom', 'series', 'Vout', 'error', 'Ifb part', 'I divider', 'power each', 'worst case'],
@@ -96,14 +98,14 @@ function printFixed(result: FixedDividerResult): void {
     ]);
   });
   process.stdout.write(
-    `${settingsLine(result)}\n${table.toString()}\n` +
+    `${settingsLine(result, ifb)}\n${table.toString()}\n` +
       `error: Vout vs ${volts(s.vout.lo)} with Ifb included; Ifb part: Ifb·Rtop as a share of the target; ` +
-      `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR, no Ifb spread).\n` +
+      `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n` +
       NOTES,
   );
 }
 
-function printAdjustable(result: AdjustableDividerResult): void {
+function printAdjustable(result: AdjustableDividerResult, ifb: CurrentBand): void {
   const s = result.settings;
   const table = new Table({
     head: ['#', 'fixed top', 'fixed bottom', 'series', 'nominal range', 'every unit covers', 'travel used', 'I divider', 'pot power'],
@@ -126,7 +128,7 @@ function printAdjustable(result: AdjustableDividerResult): void {
     ]);
   });
   process.stdout.write(
-    `${settingsLine(result)}\n` +
+    `${settingsLine(result, ifb)}\n` +
       `pot ${ohms(s.pot.ohms)} ±${formatPercent(s.pot.tolerance, 0)} in the ${s.pot.leg} leg, as a rheostat (wiper tied to one track end)\n` +
       `${table.toString()}\n` +
       `every unit covers: the range reachable at every corner of resistor, pot and Vref tolerance; ` +
@@ -138,11 +140,11 @@ function printAdjustable(result: AdjustableDividerResult): void {
   );
 }
 
-function settingsLine(result: FixedDividerResult | AdjustableDividerResult): string {
+function settingsLine(result: FixedDividerResult | AdjustableDividerResult, ifb: CurrentBand): string {
   const s = result.settings;
   const target = s.vout.lo === s.vout.hi ? volts(s.vout.lo) : `${volts(s.vout.lo)} … ${volts(s.vout.hi)}`;
   return (
-    `Vref ${volts(s.vref)} ±${formatPercent(s.vrefTolerance, 2)}, Ifb ${formatEngineering(s.ifb, 'A')}, target ${target}; ` +
+    `Vref ${volts(s.vref)} ±${formatPercent(s.vrefTolerance, 2)}, Ifb ${describeCurrentBand(ifb)}${ifb.form === 'typical' ? '' : ' (aimed at its nominal)'}, target ${target}; ` +
     `values from ${s.sources.join(', ')}, resistors ±${formatPercent(s.tolerance, 2)} (${s.toleranceSource}); ` +
     `bottom ${ohms(s.window.lo)} … ${ohms(s.window.hi)}`
   );
@@ -160,7 +162,7 @@ function run(options: DividerOptions): void {
   const result = pickDivider({
     vref: options.vref,
     vout: options.vout,
-    ifb: options.ifb,
+    ifb: options.ifb.nominal,
     series: options.series,
     stock,
     maxParts: options.parts,
@@ -176,11 +178,11 @@ function run(options: DividerOptions): void {
     pot: options.pot !== undefined ? { ohms: options.pot, tolerance: options.potTol, leg: options.potLeg } : undefined,
   });
   if (options.json) {
-    process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify({ ...result, settings: { ...result.settings, ifbBand: options.ifb } }, null, 2)}\n`);
     return;
   }
-  if (result.mode === 'fixed') printFixed(result);
-  else printAdjustable(result);
+  if (result.mode === 'fixed') printFixed(result, options.ifb);
+  else printAdjustable(result, options.ifb);
 }
 
 export function dividerCommand(): Command {
@@ -189,7 +191,7 @@ export function dividerCommand(): Command {
     .description('feedback-divider resistors for a target output voltage, or fixed resistors around a pot for an adjustable output')
     .addOption(new Option('--vref <volts>', "the regulator's reference (feedback-pin) voltage, from its datasheet").argParser(voltageOption('--vref')).makeOptionMandatory())
     .addOption(new Option('--vout <volts>', 'target output, or LO..HI with --pot').argParser(rangeOption(parseVoltage, '--vout')).makeOptionMandatory())
-    .addOption(new Option('--ifb <amps>', 'feedback-pin bias current, positive into the pin, from the datasheet').argParser(currentOption('--ifb')).default(0, '0'))
+    .addOption(new Option('--ifb <amps>', 'feedback-pin bias current, positive into the pin: 20n (typical, exactly that), ±20n or 10n±10n (a band), 0..20n (a range), max 20n (anywhere in 0..20 nA); the picker aims at its nominal').argParser(currentBandOption('--ifb')).default({ nominal: 0, lo: 0, hi: 0, form: 'typical' }, '0'))
     .addOption(new Option('--series <list>', 'E-series to draw from, e.g. E24,E96').argParser(seriesListOption).default(d.series, d.series.join(',')))
     .addOption(new Option('--stock <file>', 'use only the values in this list (one a line, or a CSV with a value column)'))
     .addOption(new Option('--parts <n>', '2: one resistor a leg; 3: one leg may be two in series or parallel').argParser(integerOption('--parts', 2, 3)).default(2))

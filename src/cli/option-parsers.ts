@@ -3,13 +3,16 @@
 import { InputError } from '../errors.js';
 import { parseSeriesName, type SeriesName } from '../series/load.js';
 import {
+  CURRENT_BAND_ACCEPTED,
   parseCurrent,
+  parseCurrentBand,
   parsePercent,
   parsePower,
   parsePpmPerK,
   parseRange,
   parseResistance,
   parseVoltage,
+  type CurrentBand,
   type Range,
 } from '../units/index.js';
 
@@ -54,6 +57,15 @@ export const powerOption = (name: string): ((v: string) => number) => optionPars
 export const percentOption = (name: string): ((v: string) => number) => optionParser((t, w) => parsePercent(t, w), name);
 /** Per kelvin: "100ppm/K" → 1e-4. */
 export const ppmPerKOption = (name: string): ((v: string) => number) => optionParser((t, w) => parsePpmPerK(t, w), name);
+/** A bias current in the one notation of src/units/current-band.ts: 20n (typical), ±20n, 10n±10n, 0..20n, max 20n. */
+export const currentBandOption = (name: string): ((v: string) => CurrentBand) =>
+  optionParser((text, where) => {
+    const band = parseCurrentBand(text, where);
+    if (Math.max(Math.abs(band.lo), Math.abs(band.hi)) > SANE_LIMITS.current.hi) {
+      throw new InputError(where, `'${text.trim()}' is outside what trimfree takes as a real part`, `${CURRENT_BAND_ACCEPTED}, ${SANE_LIMITS.current.text}`);
+    }
+    return band;
+  }, name);
 export const seriesOption = (name: string): ((v: string) => SeriesName) => optionParser(parseSeriesName, name);
 
 /** "LO..HI" (or one value) where each side is read by `parseOne`. */

@@ -6,11 +6,13 @@ import Table from 'cli-table3';
 import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
 import { InputError } from '../errors.js';
 import { pickSense, type SenseCandidate, type SensePick, type SenseRequest } from '../pick/sense.js';
+import { exceedsLossLimit } from '../pick/sense/feasibility.js';
 import { SENSE_TOPOLOGIES, type SenseTopologyName, type ThresholdSource } from '../pick/sense/types.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
 import { loadShunts, SERIES_NAMES, type SeriesName } from '../series/load.js';
-import { formatEngineering, formatPercent, formatSignedPercent, parseResistance, type Range } from '../units/index.js';
+import { describeCurrentBand, formatEngineering, formatPercent, formatSignedPercent, parseResistance, type CurrentBand, type Range } from '../units/index.js';
 import {
+  currentBandOption,
   currentOption,
   integerOption,
   boundedPercentOption,
@@ -40,7 +42,7 @@ interface SenseOptions {
   headroom: number;
   vos: number;
   vosCmp: number;
-  ib: number;
+  ib: CurrentBand;
   commonMode: number;
   top: number;
   json?: boolean;
@@ -97,7 +99,7 @@ function buildRequest(options: SenseOptions): SenseRequest {
     headroom: options.headroom,
     amplifierOffset: Math.abs(options.vos),
     compareOffset: Math.abs(options.vosCmp),
-    biasCurrent: Math.abs(options.ib),
+    biasCurrent: options.ib,
     commonMode: options.commonMode,
   };
   if (options.maxLoss !== undefined) request.maxLossW = options.maxLoss;
@@ -114,10 +116,6 @@ function gainCell(c: SenseCandidate): string {
   return '';
 }
 
-/** The worst-case highest limit drives the shunt past its derated rating. */
-function overRating(c: SenseCandidate): boolean {
-  return c.worstCase.max > c.shuntMaxCurrent;
-}
 
 function gainHead(topology: SenseTopologyName): string {
   return topology === 'noninv' ? 'RF / RG' : topology === 'diff' ? 'R1=R3 / R2=R4' : '';
@@ -139,7 +137,7 @@ function candidateTable(candidates: SenseCandidate[], topology: SenseTopologyNam
       formatSignedPercent(c.errorPct / 100),
       formatEngineering(c.shuntVoltage, 'V'),
       formatEngineering(c.shuntLossW, 'W'),
-      `${formatEngineering(c.shuntMaxCurrent, 'A')}${overRating(c) ? ' !' : ''}`,
+      `${formatEngineering(c.shuntMaxCurrent, 'A')}${exceedsLossLimit(c) ? ' !' : ''}`,
     );
     if (topology !== 'direct') row.push(formatEngineering(c.outputAtLimit, 'V'));
     row.push(
@@ -175,7 +173,7 @@ function describeRequest(request: SenseRequest, options: SenseOptions): string {
   const amp =
     request.topology === 'direct'
       ? `comparing offset ±${formatEngineering(request.compareOffset, 'V')}`
-      : `amplifier on a ${formatEngineering(request.rail, 'V')} rail (${formatEngineering(request.headroom, 'V')} headroom), Vos ±${formatEngineering(request.amplifierOffset, 'V')}, Ib ±${formatEngineering(request.biasCurrent, 'A')}, comparing offset ±${formatEngineering(request.compareOffset, 'V')}`;
+      : `amplifier on a ${formatEngineering(request.rail, 'V')} rail (${formatEngineering(request.headroom, 'V')} headroom), Vos ±${formatEngineering(request.amplifierOffset, 'V')}, Ib ${describeCurrentBand(request.biasCurrent)}, comparing offset ±${formatEngineering(request.compareOffset, 'V')}`;
   return [
     `current limit ${formatEngineering(request.limit, 'A')}, ${request.topology} topology, ${side}, ${threshold}`,
     `resistors ${options.series} ${ohms(options.window.lo)}–${ohms(options.window.hi)} ±${formatPercent(request.resistorTolerance)}; ` +
@@ -239,11 +237,12 @@ function run(options: SenseOptions): void {
     `${describeRequest(request, options)}\n\n` +
       `candidates (best ${shown.length} of ${pick.candidates.length}, ranked by worst-case spread, then loss)\n` +
       `${candidateTable(shown, request.topology, divider)}\n` +
-      `error: nominal limit against the target; V shunt, loss, amp out: at the nominal limit; I max: the shunt's derated rating;\n` +
+      `error: nominal limit against the target; V shunt, loss, amp out: at the nominal limit; I max: the current at the shunt's\n` +
+      `loss limit (its derated rating, or --max-loss when lower);\n` +
       `offsets: largest limit change from Vos, Ib and the comparing offset; worst case: every tolerance and offset at its\n` +
       `extremes (vertex enumeration, exact for these monotonic transfers); spread: larger distance from the target to\n` +
       `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
-      (shown.some(overRating) ? `!: the worst-case highest limit exceeds the shunt's derated rating (the loss there is listed in --json as worstCaseLossW).\n` : '') +
+      (shown.some(exceedsLossLimit) ? `!: the worst-case highest limit exceeds I max (the loss there is listed in --json as worstCaseLossW); 'trimfree design' never picks such a candidate.\n` : '') +
       (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
       (request.commonMode !== 0 ? highSideNote(request.commonMode) : '') +
       `\nPareto front: no other candidate is both cooler and tighter\n${paretoTable(pick)}\n\n${SHUNT_CAUTION}\n`,
@@ -272,7 +271,7 @@ export function senseCommand(): Command {
     .addOption(new Option('--headroom <V>', 'how close to the rail the amplifier output swings').argParser(voltageOption('--headroom')).default(0.2, '0.2 V'))
     .addOption(new Option('--vos <V>', 'largest amplifier input offset').argParser(voltageOption('--vos')).default(1e-3, '1 mV'))
     .addOption(new Option('--vos-cmp <V>', 'largest offset of the stage that compares with the threshold').argParser(voltageOption('--vos-cmp')).default(0, '0 V'))
-    .addOption(new Option('--ib <A>', 'largest amplifier input bias current').argParser(currentOption('--ib')).default(0, '0 A'))
+    .addOption(new Option('--ib <A>', 'amplifier input bias current: 20n (typical, exactly that), ±20n or 10n±10n (a band), 0..20n (a range), max 20n (anywhere in 0..20 nA)').argParser(currentBandOption('--ib')).default({ nominal: 0, lo: 0, hi: 0, form: 'typical' }, '0 A'))
     .addOption(new Option('--common-mode <V>', 'load-side shunt voltage for high-side sensing (diff only)').argParser(voltageOption('--common-mode')).default(0, '0 V, low side'))
     .addOption(new Option('--top <n>', 'candidates listed').argParser(integerOption('--top', 1, 1000)).default(10))
     .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto')

@@ -9,6 +9,8 @@ export interface CautionFacts {
   voutMax: number;
   /** Shunt loss at the nominal limit, W; its rating and derating, and θ if given. */
   shuntLossW?: number;
+  /** Highest shunt loss of the worst-case analysis (every band end, both ends of the temperature range), W. */
+  shuntLossWorstW?: number;
   shuntRatingW?: number;
   derating: number;
   thermalResistanceKPerW?: number;
@@ -35,15 +37,20 @@ export function cautionsFor(facts: CautionFacts): string[] {
     out.push(`The output reaches ${formatEngineering(facts.voutMax, 'V')}, above about ${TOUCH_SAFE_DC_V} V DC: treat it as hazardous to touch (guarding, insulation, creepage) per the safety standard that applies.`);
   }
   if (facts.shuntLossW !== undefined) {
-    let line = `Shunt: ${formatEngineering(facts.shuntLossW, 'W')} at the current limit`;
+    // The heat is judged at the worst case: a unit at the top of the limit's spread dissipates that much.
+    const loss = facts.shuntLossWorstW ?? facts.shuntLossW;
+    let line =
+      facts.shuntLossWorstW === undefined
+        ? `Shunt: ${formatEngineering(loss, 'W')} at the nominal current limit`
+        : `Shunt: up to ${formatEngineering(loss, 'W')} at the current limit (worst case over tolerances and temperature; ${formatEngineering(facts.shuntLossW, 'W')} nominal)`;
     if (facts.shuntRatingW !== undefined) {
-      const share = facts.shuntLossW / facts.shuntRatingW;
+      const share = loss / facts.shuntRatingW;
       line += ` is ${formatPercent(share, 0)} of its ${formatEngineering(facts.shuntRatingW, 'W')} rating (common practice: at most ${formatPercent(facts.derating, 0)} at the hottest ambient)`;
     } else {
       line += ' (no rating given: check the datasheet)';
     }
     if (facts.thermalResistanceKPerW !== undefined && facts.thermalResistanceKPerW > 0) {
-      const rise = facts.thermalResistanceKPerW * facts.shuntLossW;
+      const rise = facts.thermalResistanceKPerW * loss;
       line += `; self-heating θ·P = ${rise.toFixed(1)} K above ambient, about ${(facts.temperatureMaxC + rise).toFixed(0)} °C at the hottest ambient`;
     }
     out.push(`${line}. A hot shunt drifts and heats its neighbours: follow the datasheet's derating curve and copper-area guidance.`);

@@ -5,12 +5,15 @@
 import { z } from 'zod';
 import { InputError } from '../errors.js';
 import {
+  CURRENT_BAND_ACCEPTED,
   parseCurrent,
+  parseCurrentBand,
   parsePercent,
   parsePower,
   parsePpmPerK,
   parseResistance,
   parseVoltage,
+  type CurrentBand,
 } from '../units/index.js';
 
 type Parser = (text: string, where: string) => number;
@@ -128,6 +131,27 @@ export const percent = (bounds?: Bounds) =>
 /** Per kelvin from "100ppm/K" / "100ppm" / 100 (a bare number is ppm/K). */
 export const ppmPerK = (bounds?: Bounds) =>
   quantity(parsePpmPerK, 'a temperature coefficient: 100ppm/K, 25 ppm, or a number of ppm/K', within(LIMITS.ppmPerK, bounds));
+
+/**
+ * A bias current in the one notation of src/units/current-band.ts: a typical value ("20 nA", or a plain number of
+ * amperes: exactly that), a ± band ("±20n", "10n±10n"), a range ("0..20n") or a maximum ("max 20n": 0..20 nA).
+ */
+export const currentBand = () =>
+  textOrNumber
+    .transform((input, ctx): CurrentBand => {
+      let band: CurrentBand;
+      try {
+        band = parseCurrentBand(typeof input === 'number' ? String(input) : input, '');
+      } catch (error) {
+        return report(ctx, input, error) ?? z.NEVER;
+      }
+      if (Math.max(Math.abs(band.lo), Math.abs(band.hi)) > LIMITS.current.max) {
+        fieldIssue(ctx, input, `${JSON.stringify(input)} is out of range`, `${CURRENT_BAND_ACCEPTED}, ${LIMITS.current.text}`);
+        return z.NEVER;
+      }
+      return band;
+    })
+    .meta({ description: CURRENT_BAND_ACCEPTED });
 
 // ---- per-kelvin and thermal quantities (a unit suffix on top of src/units) -------------------------------------
 const PER_KELVIN = /\s*\/\s*(K|°C|degC)$/i;

@@ -53,13 +53,18 @@ export function partGrade(design: Design, designator: string, section: SectionGr
   return out;
 }
 
-/** The engine's distribution for a design-file name (normal: tolerance = 3σ, common practice). */
+/**
+ * The engine's distribution for a design-file name (the normals: tolerance = 3σ, common practice). "normal" is cut
+ * off at the band: makers test parts to their band and sort out the rest (common practice), so no part leaves it;
+ * "normal-unbounded" keeps the tails (Monte Carlo can then pass the worst case, and the analysis notes say so).
+ */
 export function distributionSpec(name: DistributionName): DistributionSpec {
   switch (name) {
     case 'normal':
-      return { kind: 'normal', k: 3 };
     case 'truncated-normal':
       return { kind: 'truncated-normal', k: 3 };
+    case 'normal-unbounded':
+      return { kind: 'normal', k: 3 };
     case 'triangular':
       return { kind: 'triangular' };
     default:

@@ -3,7 +3,7 @@
 import { adjustablePeakPowers, wiperForHighest, wiperForLowest, type PotLeg } from '../circuits/adjustable-divider.js';
 import type { LegSpec, ResistorSpec } from '../analysis/models/supply.js';
 import { DIVIDER_DEFAULTS, pickDivider, type DividerRequest } from '../pick/divider.js';
-import { formatEngineering, formatRkm } from '../units/index.js';
+import { currentBandHalfWidth, formatEngineering, formatRkm } from '../units/index.js';
 import { dividerCurrents, resistorPower, type BomPart } from './bom.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
@@ -34,10 +34,10 @@ export function resistorSpec(name: string, nominal: number, grade: PartGrade): R
   return spec;
 }
 
-/** The feedback-pin bias current the picker aims at and the engine's ± band: the given maximum is the band [0, max]. */
+/** The feedback-pin bias current the picker aims at (its nominal) and the engine's band (src/units/current-band.ts). */
 export function feedbackBias(design: Design): { nominal: number; plusMinus: number } {
-  const max = design.voltage.feedbackBias ?? 0;
-  return { nominal: max / 2, plusMinus: Math.abs(max) / 2 };
+  const band = design.voltage.feedbackBias;
+  return band ? { nominal: band.nominal, plusMinus: currentBandHalfWidth(band) } : { nominal: 0, plusMinus: 0 };
 }
 
 export function resolveDivider(design: Design): ResolvedDivider {

@@ -1,13 +1,14 @@
 // The current-sense path of a design: given values, or the sense picker's best candidate when the shunt, the gain
 // resistors or the threshold divider is "auto"; then the engine's SenseSpec and the picker's figures.
 import type { AmplifierSpec, ResistorSpec, SenseSpec, ShuntSpec, ThresholdSpec } from '../analysis/models/supply.js';
-import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
+import { DEFAULT_SHUNT_DERATING, shuntLossLimit } from '../circuits/shunt-power.js';
 import { thresholdFromReference } from '../circuits/sense/threshold-divider.js';
-import { InputError } from '../errors.js';
+import { ImpossibleError, InputError } from '../errors.js';
 import { pickSense, type SenseCandidate, type SenseRequest } from '../pick/sense.js';
+import { exceedsLossLimit } from '../pick/sense/feasibility.js';
 import { loadShunts } from '../series/load.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
-import { formatEngineering, formatRkm, parseResistance } from '../units/index.js';
+import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm, parseResistance } from '../units/index.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
 import { resistorSpec } from './resolve-divider.js';
@@ -55,6 +56,7 @@ export function resolveSense(design: Design): ResolvedSense {
   const grades: Record<string, PartGrade> = {};
   for (const name of names) grades[name] = partGrade(design, name, name === DESIGNATORS.shunt ? { tolerance: c.shunt.tolerance, tcr: c.shunt.tcr } : {});
   const derating = c.shunt.derating ?? DEFAULT_SHUNT_DERATING;
+  const lossLimit = c.shunt.rating !== undefined ? shuntLossLimit(c.shunt.rating, derating, c.shunt.maxLoss) : undefined;
 
   let parts: Record<string, number> = {};
   let picked: SenseCandidate | undefined;
@@ -88,12 +90,16 @@ export function resolveSense(design: Design): ResolvedSense {
       headroom: amp ? (amp.headroom ?? DEFAULT_HEADROOM) : 0,
       amplifierOffset: amp?.vos ?? 0,
       compareOffset: c.compareOffset ?? 0,
-      biasCurrent: amp?.biasCurrent ?? 0,
+      biasCurrent: amp?.biasCurrent ?? { nominal: 0, lo: 0, hi: 0, form: 'typical' },
       commonMode: c.commonMode ?? 0,
     };
     if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
     const pick = mapPickerError(() => pickSense(request), SENSE_OPTION_FIELDS);
-    picked = pick.candidates[0]!;
+    // Never a candidate `sense` flags with "!" (exceedsLossLimit: one rule for both); the best of the others.
+    const allowed = pick.candidates.filter((candidate) => !exceedsLossLimit(candidate));
+    if (allowed.length === 0) throw everyCandidateFlagged(pick.candidates, lossLimit!, c.shunt.rating);
+    picked = allowed[0]!;
+    const skipped = pick.candidates.indexOf(picked);
     parts = { ...picked.parts };
     if (t.reference !== undefined && t.top !== 'auto') {
       parts[DESIGNATORS.thresholdTop] = t.top!;
@@ -101,7 +107,8 @@ export function resolveSense(design: Design): ResolvedSense {
     }
     const listed = Object.entries(parts).map(([k, r]) => `${k} ${formatRkm(r)}`).join(', ');
     notes.push(
-      `Current sense picked (${series} ${formatEngineering(range[0], 'Ω')}..${formatEngineering(range[1], 'Ω')}, ${pick.candidates.length} candidates; ranked by quick worst-case spread, then shunt loss): ${listed}; quick worst case ${formatEngineering(picked.worstCase.min, 'A', 4)}..${formatEngineering(picked.worstCase.max, 'A', 4)}. \`trimfree sense\` shows the others and the Pareto front.`,
+      `Current sense picked (${series} ${formatEngineering(range[0], 'Ω')}..${formatEngineering(range[1], 'Ω')}, ${pick.candidates.length} candidates; ranked by quick worst-case spread, then shunt loss): ${listed}; quick worst case ${formatEngineering(picked.worstCase.min, 'A', 4)}..${formatEngineering(picked.worstCase.max, 'A', 4)}. \`trimfree sense\` shows the others and the Pareto front.` +
+        (skipped > 0 ? ` The ${skipped} better-ranked candidate${skipped === 1 ? '' : 's'} ${skipped === 1 ? 'was' : 'were'} passed over: at ${skipped === 1 ? 'its' : 'their'} quick worst-case highest limit the shunt loss exceeds the ${formatEngineering(lossLimit!.watts, 'W')} loss limit (${lossLimitText(lossLimit!, c.shunt.rating)}), shown as "!" by \`trimfree sense\`.` : ''),
     );
   } else {
     parts[DESIGNATORS.shunt] = c.shunt.value as number;
@@ -115,7 +122,7 @@ export function resolveSense(design: Design): ResolvedSense {
       parts[DESIGNATORS.thresholdBottom] = c.threshold.bottom as number;
     }
   }
-  return { sense: senseSpec(design, parts, grades), parts, grades, ...(picked ? { picked } : {}), derating, notes };
+  return { sense: senseSpec(design, parts, grades, lossLimit), parts, grades, ...(picked ? { picked } : {}), derating, notes };
 }
 
 export function gainDesignators(topology: Design['current']['topology']): string[] {
@@ -124,12 +131,41 @@ export function gainDesignators(topology: Design['current']['topology']): string
   return [];
 }
 
-function senseSpec(design: Design, parts: Record<string, number>, grades: Record<string, PartGrade>): SenseSpec {
+/** Where the loss limit came from, in words: "50 % of the 500 mW rating" or "the loss budget current.shunt.maxLoss". */
+function lossLimitText(limit: ReturnType<typeof shuntLossLimit>, ratingW: number | undefined): string {
+  if (limit.from === 'loss budget') return 'the loss budget current.shunt.maxLoss, below the derated rating';
+  return `${formatPercent(limit.watts / ratingW!, 0)} of the ${formatEngineering(ratingW!, 'W')} rating, current.shunt.derating`;
+}
+
+/** Every candidate the picker found would load its shunt past the loss limit at its worst-case highest limit. */
+function everyCandidateFlagged(candidates: readonly SenseCandidate[], limit: ReturnType<typeof shuntLossLimit>, ratingW: number): ImpossibleError {
+  const coolest = candidates.reduce((best, c) => (c.worstCaseLossW < best.worstCaseLossW ? c : best));
+  const need = formatEngineering(coolest.worstCaseLossW, 'W');
+  const raise =
+    limit.from === 'loss budget'
+      ? `raise current.shunt.maxLoss to at least ${need}`
+      : `raise current.shunt.rating to at least ${formatEngineering((coolest.worstCaseLossW * ratingW) / limit.watts, 'W')}`;
+  return new ImpossibleError(
+    limit.from === 'loss budget' ? 'current.shunt.maxLoss' : 'current.shunt.rating',
+    `every one of the ${candidates.length} current-sense candidates loads its shunt past the ${formatEngineering(limit.watts, 'W')} loss limit (${lossLimitText(limit, ratingW)}) at its quick worst-case highest limit; the least, RS ${formatRkm(coolest.parts['RS']!)}, reaches ${need}`,
+    `${raise}, allow smaller shunts (current.shunt.candidates), or tighten the parts that widen the worst case (resistors, current.shunt.tolerance)`,
+  );
+}
+
+function senseSpec(design: Design, parts: Record<string, number>, grades: Record<string, PartGrade>, lossLimit: ReturnType<typeof shuntLossLimit> | undefined): SenseSpec {
   const c = design.current;
   const r = (name: string): ResistorSpec => resistorSpec(name, parts[name]!, grades[name]!);
   const shuntGrade = grades[DESIGNATORS.shunt]!;
   const shunt: ShuntSpec = { ...r(DESIGNATORS.shunt) };
   if (c.shunt.rating !== undefined) shunt.powerRatingW = c.shunt.rating;
+  // The design's own loss limit is the window of the shunt loss: the derated rating, or the loss budget when lower.
+  if (lossLimit) {
+    shunt.lossLimitW = lossLimit.watts;
+    shunt.lossLimitFrom = lossLimit.from === 'loss budget' ? 'current.shunt.maxLoss, below the derated rating' : `${formatPercent(lossLimit.watts / c.shunt.rating!, 0)} of the ${formatEngineering(c.shunt.rating!, 'W')} rating`;
+  } else if (c.shunt.maxLoss !== undefined) {
+    shunt.lossLimitW = c.shunt.maxLoss;
+    shunt.lossLimitFrom = 'current.shunt.maxLoss; no rating given';
+  }
   if (c.shunt.thermalResistance !== undefined && c.shunt.thermalResistance > 0) shunt.thermalResistanceKPerW = c.shunt.thermalResistance;
   shunt.distribution = distributionSpec(shuntGrade.distribution);
 
@@ -142,9 +178,10 @@ function senseSpec(design: Design, parts: Record<string, number>, grades: Record
   const common = { shunt, threshold, limitTarget: c.target, ...(c.compareOffset ? { compareOffset: { nominal: 0, plusMinus: c.compareOffset } } : {}) };
   if (c.topology === 'direct') return { ...common, topology: 'direct' };
   const a = c.amplifier!;
-  const amplifier: AmplifierSpec = { offsetMax: a.vos, railV: a.rail };
+  const amplifier: AmplifierSpec = { offsetMax: a.vos, railV: a.rail, headroomV: a.headroom ?? DEFAULT_HEADROOM };
   if (a.vosDrift) amplifier.offsetDriftPerK = Math.abs(a.vosDrift);
-  if (a.biasCurrent) amplifier.biasCurrent = { nominal: 0, plusMinus: Math.abs(a.biasCurrent) };
+  const ib = a.biasCurrent;
+  if (ib && (ib.nominal !== 0 || ib.hi > ib.lo)) amplifier.biasCurrent = { nominal: ib.nominal, plusMinus: currentBandHalfWidth(ib) };
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
   return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
 }

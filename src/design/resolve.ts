@@ -6,7 +6,7 @@ import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js'
 import { worstCase } from '../analysis/worst-case.js';
 import { OVERLOAD_FACTOR } from '../pick/sense/evaluate.js';
 import { ImpossibleError } from '../errors.js';
-import { formatEngineering, formatPercent } from '../units/index.js';
+import { describeCurrentBand, formatEngineering, formatPercent } from '../units/index.js';
 import { bomLine, diffBranchCurrents, noninvGainCurrent, resistorPower, type BomLine, type BomPart } from './bom.js';
 import { cautionsFor } from './cautions.js';
 import type { OutputCautionLimits } from './output-cautions.js';
@@ -62,6 +62,10 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (!design.temperature) notes.push('No temperature range given: analysed at 25 °C only, so TCRs and drifts with temperature play no part.');
   else if (design.temperature.fixed !== undefined) notes.push(`One ambient given: every figure is at ${design.temperature.fixed} °C, where TCRs and tempcos act through the ${design.temperature.fixed - 25} K from 25 °C (give min and max to check units over a range).`);
   const bias = feedbackBias(design);
+  // What the bias-current notation was taken to mean (src/units/current-band.ts), said back to the designer.
+  if (design.voltage.feedbackBias) notes.push(`Feedback-pin bias current Ifb (voltage.feedbackBias): ${describeCurrentBand(design.voltage.feedbackBias)}.`);
+  const ib = design.current.amplifier?.biasCurrent;
+  if (ib && design.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
   if (design.reference.drift) reference.drift = design.reference.drift;
@@ -90,7 +94,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number], voutSides: 'both' | 'low' | 'high' = 'both'): SupplySpec {
     const spec: SupplySpec = {
       reference,
-      divider: { ...legs, ...(bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
+      divider: { ...legs, ...(bias.nominal !== 0 || bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
       temperature: { minC: temperature.min, maxC: temperature.max, monteCarlo: 'uniform' },
       sense: sense.sense,
       windows: { vout: window, ilimit: ilimitWindow, ...(voutSides === 'both' ? {} : { voutSides }) },
@@ -118,8 +122,11 @@ export function resolveDesign(design: Design): ResolvedDesign {
     if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
   }
 
+  // The shunt-heat caution takes the worst-case loss (every band end, both ends of the temperature range).
+  const shuntLossWorstW = worstShuntLoss(spec);
   const shuntFacts = {
     shuntLossW: nominal['shuntLoss']!,
+    shuntLossWorstW,
     derating: sense.derating,
     ...(design.current.shunt.rating !== undefined ? { shuntRatingW: design.current.shunt.rating } : {}),
     ...(design.current.shunt.thermalResistance !== undefined ? { thermalResistanceKPerW: design.current.shunt.thermalResistance } : {}),
@@ -140,6 +147,16 @@ export function resolveDesign(design: Design): ResolvedDesign {
     notes.push(...limits);
   }
   return resolved;
+}
+
+/**
+ * The highest shunt loss of the worst-case analysis. The divider's resistors and Ifb never enter the sense path, so
+ * they are held exact here: the same extreme, from far fewer vertices (2^14 rather than 2^19 for the charger example).
+ */
+function worstShuntLoss(spec: SupplySpec): number {
+  const exact = (name: string): SupplySpec['divider']['top'] => ({ resistors: [{ name, nominal: 1, tolerance: 0 }] });
+  const senseOnly: SupplySpec = { ...spec, divider: { top: exact(DESIGNATORS.dividerTop), bottom: exact(DESIGNATORS.dividerBottom) } };
+  return worstCase(buildSupplyModel(senseOnly)).find((w) => w.name === 'shuntLoss')!.max;
 }
 
 /** Loads and heat the nominal design must stay within, whatever picked its values. */

@@ -7,6 +7,7 @@ import {
   autoOr,
   celsius,
   current,
+  currentBand,
   fieldIssue,
   percent,
   power,
@@ -31,7 +32,7 @@ function describe<T extends z.ZodType>(schema: T, meaning: string): T {
 
 export const TOPOLOGIES = ['direct', 'noninv', 'diff'] as const;
 export type Topology = (typeof TOPOLOGIES)[number];
-export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'triangular'] as const;
+export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'normal-unbounded', 'triangular'] as const;
 export type DistributionName = (typeof DISTRIBUTIONS)[number];
 export const APPLICATIONS = ['charger', 'bench', 'led', 'other'] as const;
 export type Application = (typeof APPLICATIONS)[number];
@@ -122,7 +123,7 @@ const voltageSection = z
       .meta({ description: '"auto" (picked from the series) or { top, bottom }' }),
     search: dividerSearch.optional(),
     pot: pot.optional(),
-    feedbackBias: describe(current(), 'feedback-pin bias current, positive into the pin (default 0)').optional(),
+    feedbackBias: describe(currentBand(), 'feedback-pin bias current, positive into the pin (default 0); the divider picker aims at its nominal').optional(),
     notes: notes.optional(),
   })
   .superRefine((v, ctx) => {
@@ -174,7 +175,7 @@ const amplifier = z
   .strictObject({
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
-    biasCurrent: describe(current(), 'input bias current, maximum magnitude (default 0)').optional(),
+    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0)').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })
@@ -269,7 +270,12 @@ const gradeFields = {
   series: seriesName.optional(),
   tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance (overrides the grade\'s)').optional(),
   tcr: describe(ppmPerK(), 'temperature coefficient (overrides the grade\'s)').optional(),
-  distribution: z.enum(DISTRIBUTIONS).meta({ description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ)` }).optional(),
+  distribution: z
+    .enum(DISTRIBUTIONS)
+    .meta({
+      description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ, cut off at the band, since makers test parts to their band; truncated-normal: the same; normal-unbounded: not cut off, so Monte Carlo can pass the worst case, and the notes say so)`,
+    })
+    .optional(),
 };
 
 const override = z.strictObject(gradeFields).meta({ description: 'grade of one part, by designator' });

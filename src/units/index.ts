@@ -9,3 +9,4 @@ export { formatRkm, formatRkmDigits } from './format-rkm.js';
 export { parseLetterCode, RESISTANCE_CODE_LETTERS } from './rkm-code.js';
 export { SI_PREFIX_EXPONENTS, SI_PREFIX_LIST, SI_PREFIX_SYMBOLS } from './si-prefix.js';
 export { toleranceLetter } from './tolerance-letter.js';
+export { CURRENT_BAND_ACCEPTED, currentBandHalfWidth, describeCurrentBand, parseCurrentBand, type CurrentBand, type CurrentBandForm } from './current-band.js';

@@ -6,7 +6,7 @@
 //   resistor value at temperature   R·(1 + drift)·(1 + α·(T − 25 °C))     α: the unit's TCR, unknown within ±TCR
 //   reference                        Vref·(1 + drift)·(1 + tc·(T − 25 °C))
 //   amplifier offset                 Vos + (dVos/dT)·(T − 25 °C)
-//   shunt self-heating               T_shunt = T + θ·I²·R_shunt at the limit (fixed-point iteration, see below)
+//   shunt self-heating               R_hot = R25·(1 + α·(T + θ·P − 25 °C)), P = I²·R_hot at the limit (hotShunt)
 // Bias currents are held constant over temperature (their temperature dependence is left to the ± bound given).
 // The physics lives in src/circuits/ (divider, combine, temperature, sense/*); this file only wires parts to it.
 import { parallelResistance, seriesResistance } from '../../circuits/combine.js';
@@ -81,8 +81,15 @@ export interface TemperatureSpec {
 }
 
 export interface ShuntSpec extends ResistorSpec {
-  /** Power rating, W: shuntLoss gets the spec window [0, rating]. */
+  /** Power rating, W: shuntLoss gets the spec window [0, rating] when no lossLimitW is given. */
   powerRatingW?: number;
+  /**
+   * Largest loss the design allows at the limit, W: shuntLoss gets the spec window [0, lossLimitW] (a design sets it
+   * to the lower of the derated rating and its loss budget).
+   */
+  lossLimitW?: number;
+  /** Where lossLimitW came from, for the notes, e.g. '50 % of the 500 mW rating'. */
+  lossLimitFrom?: string;
   /** Thermal resistance to ambient θ, K/W: enables self-heating θ·I²R at the limit. */
   thermalResistanceKPerW?: number;
 }
@@ -96,8 +103,10 @@ export interface AmplifierSpec {
   offsetDriftPerK?: number;
   /** Input bias current, A. */
   biasCurrent?: BoundSpec;
-  /** Output swing limit, V: ampOutput gets the spec window [0, rail]. */
+  /** Supply rail, V: ampOutput gets the spec window [0, railV − headroomV], the swing the output can reach. */
   railV?: number;
+  /** How far below the rail the output can swing, V (default 0). */
+  headroomV?: number;
 }
 
 export type ThresholdSpec =
@@ -341,13 +350,15 @@ function legColumn(p: Float64Array[], leg: LegSlots, dT: Float64Array, n: number
 type SenseParams = NoninvSense & DiffSense & DirectSense;
 
 /**
- * Shunt self-heating, solved in closed form. Every topology's limit is inversely proportional to the shunt
- * (I = K/Rs, see src/circuits/sense/*), so the loss at the limit is P = K²/R_hot and the hot shunt satisfies
- * R_hot = R_amb·(1 + α·θ·P) = R_amb + R_amb·α·θ·K²/R_hot (first order in the rise, α·θ·P ≪ 1), whose positive
- * root is R_hot = (R_amb + √(R_amb² + 4·R_amb·α·θ·K²))/2.
+ * Shunt self-heating, solved in closed form. The shunt sits at T_amb + θ·P, so with its linear TCR
+ * R_hot = R25·(1 + α·(T_amb + θ·P − 25 °C)) = R_amb + R25·α·θ·P, where R_amb = R25·(1 + α·(T_amb − 25 °C)) and R25 is
+ * the unit's value at 25 °C (drift included). Every topology's limit is inversely proportional to the shunt
+ * (I = K/Rs, see src/circuits/sense/*), so the loss at the limit is P = K²/R_hot and
+ * R_hot² − R_amb·R_hot − R25·α·θ·K² = 0, whose positive root is R_hot = (R_amb + √(R_amb² + 4·R25·α·θ·K²))/2:
+ * exact for the linear TCR, no first-order step.
  */
-export function hotShunt(rAmbient: number, alpha: number, theta: number, k: number): number {
-  return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * rAmbient * alpha * theta * k * k)) / 2;
+export function hotShunt(rAmbient: number, r25: number, alpha: number, theta: number, k: number): number {
+  return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * r25 * alpha * theta * k * k)) / 2;
 }
 
 const DIRECT = 0;
@@ -366,6 +377,8 @@ interface SenseColumns {
   g3: Float64Array;
   /** The shunt at ambient temperature. */
   shunt: Float64Array;
+  /** The shunt at 25 °C (drift included), read only when it heats itself. */
+  shunt25: Float64Array;
   /** The shunt's drawn TCR when it heats itself (θ > 0 and a TCR), else null. */
   alpha: Float64Array | null;
 }
@@ -398,7 +411,7 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
  * made fresh for each trial so that, once inlined, it lives in registers (escape analysis) rather than memory.
  */
 function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
-  const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, alpha } = c;
+  const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
   const noninv = kind === NONINV;
   const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
@@ -419,7 +432,7 @@ function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: nu
     };
     let current = limitOf(kind, q);
     if (alpha !== null) {
-      q.shunt = hotShunt(rAmbient, alpha[j]!, theta, current * rAmbient);
+      q.shunt = hotShunt(rAmbient, shunt25[j]!, alpha[j]!, theta, current * rAmbient);
       current = limitOf(kind, q);
     }
     limitOut[j] = current;
@@ -520,6 +533,11 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   return { parts: list.parts, outputs, notes, evaluateAll, ambient: { part: temperature, gridC: ambientGrid(t.minC, t.maxC, t.unitPoints) } };
 }
 
+/** A limit for a note, in SI units to four significant digits (notation belongs to src/units, which the engine does not import). */
+function plain(value: number, unit: string): string {
+  return `${Number(value.toPrecision(4))} ${unit}`;
+}
+
 function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot, notes: string[]): SenseEvaluator {
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
@@ -558,6 +576,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   let ampDrift = NONE;
   let ampBias = NONE;
   let railV: number | undefined;
+  let headroomV: number | undefined;
   const gain: ResistorSlot[] = [];
   let commonMode = 0;
   if (sense.topology === 'noninv' || sense.topology === 'diff') {
@@ -570,6 +589,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     if (amp.offsetDriftPerK) ampDrift = list.add(partFromBound({ name: 'Vos amp drift', kind: 'temperature coefficient', nominal: 0, plusMinus: amp.offsetDriftPerK, unit: 'V/K' }));
     ampBias = addBound(list, 'Ib amp', 'bias current', amp.biasCurrent, `${where}.amplifier.biasCurrent`);
     railV = amp.railV;
+    headroomV = amp.headroomV;
     if (sense.topology === 'noninv') {
       gain.push(addResistor(list, sense.rf, `${where}.rf`), addResistor(list, sense.rg, `${where}.rg`));
     } else {
@@ -612,19 +632,30 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         g2: g[2] ?? dT,
         g3: g[3] ?? dT,
         shunt: resistorColumn(p, shunt, dT, n, scratch),
+        shunt25: selfHeating ? scaledColumn(p, shunt.value, shunt.drift, NONE, dT, n, scratch) : dT,
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
       senseBlock(kind, commonMode, columns, theta, n, limitOut, lossOut, ampOut);
     },
   };
   if (spec.windows?.ilimit) evaluator.ilimitSpec = spec.windows.ilimit;
-  if (sense.shunt.powerRatingW !== undefined) {
-    checkFinite(sense.shunt.powerRatingW, `${where}.shunt.powerRatingW`, 'a power rating above 0 W', true);
+  // The windows are the design's own limits: the shunt's loss limit (else its full rating) and the output swing.
+  checkFinite(sense.shunt.powerRatingW, `${where}.shunt.powerRatingW`, 'a power rating above 0 W', true);
+  checkFinite(sense.shunt.lossLimitW, `${where}.shunt.lossLimitW`, 'a loss limit above 0 W', true);
+  if (sense.shunt.lossLimitW !== undefined) {
+    evaluator.shuntLossSpec = [0, sense.shunt.lossLimitW];
+    notes.push(`shuntLoss is judged against 0..${plain(sense.shunt.lossLimitW, 'W')}${sense.shunt.lossLimitFrom ? ` (${sense.shunt.lossLimitFrom})` : ''}.`);
+  } else if (sense.shunt.powerRatingW !== undefined) {
     evaluator.shuntLossSpec = [0, sense.shunt.powerRatingW];
+    notes.push(`shuntLoss is judged against 0..${plain(sense.shunt.powerRatingW, 'W')}, the full power rating (no derated loss limit given).`);
   }
   if (railV !== undefined) {
     checkFinite(railV, `${where}.amplifier.railV`, 'a rail voltage above 0 V', true);
-    evaluator.ampOutputSpec = [0, railV];
+    checkFinite(headroomV, `${where}.amplifier.headroomV`, 'a headroom of 0 V or more, below the rail');
+    const swing = railV - (headroomV ?? 0);
+    if (!(swing > 0)) throw new InputError(`${where}.amplifier.headroomV`, `${headroomV} V leaves no output swing below the ${railV} V rail`, 'a headroom of 0 V or more, below the rail');
+    evaluator.ampOutputSpec = [0, swing];
+    notes.push(`ampOutput is judged against 0..${plain(swing, 'V')}, the swing the amplifier reaches (${plain(railV, 'V')} rail − ${plain(headroomV ?? 0, 'V')} headroom).`);
   }
   return evaluator;
 }

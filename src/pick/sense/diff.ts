@@ -6,7 +6,7 @@ import { diffLimit, diffNominalGain, diffOutput, type DiffSense } from '../../ci
 import { nearestRatioPairs } from './ratio-pairs.js';
 import type { SenseDesign, SenseTopology } from './topology.js';
 import type { UncertainVariable } from './types.js';
-import { indexOfVariable, offsetVariable, toleranceVariable } from './variables.js';
+import { bandVariable, indexOfVariable, offsetVariable, toleranceVariable } from './variables.js';
 
 export const diffTopology: SenseTopology = {
   name: 'diff',
@@ -32,7 +32,7 @@ export const diffTopology: SenseTopology = {
         toleranceVariable('R4', r2, request.resistorTolerance),
         ...threshold.variables,
         offsetVariable('Vos', request.amplifierOffset),
-        offsetVariable('Ib', request.biasCurrent),
+        bandVariable('Ib', request.biasCurrent),
         offsetVariable('Vos_cmp', request.compareOffset),
       ];
       const names = ['RS', 'R1', 'R2', 'R3', 'R4', 'Vos', 'Ib', 'Vos_cmp'] as const;

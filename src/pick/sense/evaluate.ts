@@ -2,7 +2,7 @@
 // and the quick worst case. The worst case enumerates every vertex of the tolerance box (src/analysis/corners.ts),
 // exact here because each limit transfer is monotonic in every part and offset over a tolerance-sized box.
 import { cornerExtremes } from '../../analysis/corners.js';
-import { shuntLoss, shuntMaxCurrent } from '../../circuits/shunt-power.js';
+import { shuntLoss, shuntLossLimit, shuntMaxCurrent } from '../../circuits/shunt-power.js';
 import type { SenseDesign } from './topology.js';
 import type { SenseCandidate, SenseRequest, SenseTopologyName, UncertainVariable } from './types.js';
 
@@ -60,7 +60,7 @@ export function evaluateDesign(design: SenseDesign, topology: SenseTopologyName,
     errorPct: ((limitNominal - target) / target) * 100,
     shuntVoltage: limitNominal * shunt,
     shuntLossW: shuntLoss(limitNominal, shunt),
-    shuntMaxCurrent: shuntMaxCurrent(shunt, request.shuntRatingW, request.derating),
+    shuntMaxCurrent: shuntMaxCurrent(shunt, shuntLossLimit(request.shuntRatingW, request.derating, request.maxLossW).watts),
     worstCaseLossW: shuntLoss(worstCase.max, shunt),
     outputAtLimit: output(nominal, limitNominal),
     offsetErrorPct: (offsetError / target) * 100,

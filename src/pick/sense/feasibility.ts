@@ -5,7 +5,7 @@ import { ImpossibleError } from '../../errors.js';
 import { formatEngineering, formatPercent } from '../../units/index.js';
 import { OVERLOAD_FACTOR } from './evaluate.js';
 import type { SenseTopology } from './topology.js';
-import type { SenseRequest } from './types.js';
+import type { SenseCandidate, SenseRequest } from './types.js';
 
 /** Common practice: the shunt voltage at the limit should be at least ten times the offset that competes with it. */
 export const MIN_SIGNAL_TO_OFFSET = 10;
@@ -96,4 +96,13 @@ export function usableShunts(request: SenseRequest, topology: SenseTopology): Sh
     shunts = loud;
   }
   return { shunts, rejected };
+}
+
+/**
+ * The rule behind `sense`'s "!" and `design`'s choice: the candidate's quick worst-case highest limit loads the shunt
+ * past its loss limit (the derated rating, or the loss budget when lower; shuntLossLimit). `sense` lists such a
+ * candidate with "!"; `design` never picks one.
+ */
+export function exceedsLossLimit(candidate: SenseCandidate): boolean {
+  return candidate.worstCase.max > candidate.shuntMaxCurrent * (1 + 1e-12);
 }

@@ -5,7 +5,7 @@ import { noninvGain, noninvLimit, noninvOutput, type NoninvSense } from '../../c
 import { nearestRatioPairs } from './ratio-pairs.js';
 import type { SenseDesign, SenseTopology } from './topology.js';
 import type { UncertainVariable } from './types.js';
-import { indexOfVariable, offsetVariable, toleranceVariable } from './variables.js';
+import { bandVariable, indexOfVariable, offsetVariable, toleranceVariable } from './variables.js';
 
 export const noninvTopology: SenseTopology = {
   name: 'noninv',
@@ -27,7 +27,7 @@ export const noninvTopology: SenseTopology = {
         toleranceVariable('RG', pair.denominator, request.resistorTolerance),
         ...threshold.variables,
         offsetVariable('Vos', request.amplifierOffset),
-        offsetVariable('Ib', request.biasCurrent),
+        bandVariable('Ib', request.biasCurrent),
         offsetVariable('Vos_cmp', request.compareOffset),
       ];
       const at = (name: string): number => indexOfVariable(variables, name);

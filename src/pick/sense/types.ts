@@ -1,4 +1,5 @@
 // The request and the answer of the current-limit picker (SI numbers throughout: A, V, Ω, W; fractions, not %).
+import type { CurrentBand } from '../../units/index.js';
 
 export const SENSE_TOPOLOGIES = ['noninv', 'diff', 'direct'] as const;
 export type SenseTopologyName = (typeof SENSE_TOPOLOGIES)[number];
@@ -38,8 +39,8 @@ export interface SenseRequest {
   amplifierOffset: number;
   /** Largest offset of the stage that compares with the threshold, V (either sign). */
   compareOffset: number;
-  /** Largest amplifier input bias current, A (either sign). */
-  biasCurrent: number;
+  /** Amplifier input bias current, A: its nominal and band (src/units/current-band.ts; lo = hi for a typical value). */
+  biasCurrent: CurrentBand;
   /** Voltage of the shunt's load-side node: 0 for low-side sensing, the rail for high-side (diff only), V. */
   commonMode: number;
 }
@@ -69,9 +70,9 @@ export interface SenseCandidate {
   /** Shunt voltage and loss at the nominal limit. */
   shuntVoltage: number;
   shuntLossW: number;
-  /** Largest current the shunt may carry at the derated rating, A. */
+  /** Largest current the shunt may carry at its loss limit (the derated rating, or the loss budget when lower), A. */
   shuntMaxCurrent: number;
-  /** Shunt loss at the worst-case highest limit, W (above derating × rating when the spread eats the margin). */
+  /** Shunt loss at the worst-case highest limit, W (above the loss limit when the spread eats the margin). */
   worstCaseLossW: number;
   /** Amplifier output at the nominal limit (direct: the shunt voltage), V. */
   outputAtLimit: number;

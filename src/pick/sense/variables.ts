@@ -12,6 +12,11 @@ export function offsetVariable(name: string, max: number): UncertainVariable {
   return { name, nominal: 0, lo: -size, hi: size, offset: true };
 }
 
+/** A bias current within its band [lo, hi] about its nominal (a typical value has lo = hi = nominal). */
+export function bandVariable(name: string, band: { nominal: number; lo: number; hi: number }): UncertainVariable {
+  return { name, nominal: band.nominal, lo: band.lo, hi: band.hi, offset: true };
+}
+
 /** Index of a named variable; the names are fixed by each topology, so a miss is a programming error. */
 export function indexOfVariable(variables: readonly UncertainVariable[], name: string): number {
   const index = variables.findIndex((v) => v.name === name);
