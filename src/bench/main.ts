@@ -7,12 +7,15 @@
 //                                 cpuNsPerTrial, peakRssMB, …}], startup: {rounds, measure, cases: [{name, cpuMs, ratio, …}]}}
 //   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
 //   npm run bench -- --startup    only the start-up case (--rounds N, default 10)
+//   npm run bench -- --peers      the bench case beside its plain C and NumPy peers (src/bench/peers.ts), 1e7 trials
+//                                 (--trials N), 3 alternating rounds (--rounds N)
 // Figures depend on the machine and on what else it runs; they are measurements, not tests.
 import { execFileSync } from 'node:child_process';
 import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { analyze } from '../analysis/analyze.js';
 import { BENCH_SUPPLY } from './cvcc-spec.js';
+import { runPeers, trimfreePeerCase } from './peers.js';
 import { runStartup, startupTable } from './startup.js';
 
 interface BenchCase {
@@ -70,11 +73,28 @@ async function main(): Promise<void> {
     process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!))}\n`);
     return;
   }
-  const roundsText = argValue(args, '--rounds') ?? '10';
+  const peerCase = argValue(args, '--peer-case');
+  if (peerCase) {
+    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(Number(peerCase)))}\n`);
+    return;
+  }
+  const peers = args.includes('--peers');
+  const roundsText = argValue(args, '--rounds') ?? (peers ? '3' : '10');
   const rounds = Number(roundsText);
   if (!Number.isInteger(rounds) || rounds < 1) {
     process.stderr.write(`--rounds: ${roundsText} is not a whole number of rounds; accepted: e.g. 10\n`);
     process.exitCode = 2;
+    return;
+  }
+  if (peers) {
+    const trialsText = argValue(args, '--trials') ?? '1e7';
+    const trials = Number(trialsText);
+    if (!Number.isInteger(trials) || trials < 1) {
+      process.stderr.write(`--trials: ${trialsText} is not a whole number of trials; accepted: e.g. 1e7\n`);
+      process.exitCode = 2;
+      return;
+    }
+    await runPeers(trials, rounds, (text) => process.stdout.write(text));
     return;
   }
   if (args.includes('--startup')) {
