@@ -148,8 +148,9 @@ export function widenRange(min: number, max: number): { lo: number; hi: number }
  * Trials each computing thread should have before a run without a `workers` choice adds one: a worker thread costs
  * about 0.3 s of CPU time to start and warm up (a new V8 instance that loads and compiles the engine: measured on
  * the 2-core development machine, 1e6 and 4e6 trials of the benchmark design on 1 and 2 threads), the work of about
- * 1.5e6 trials at 150–200 ns each, so a small run stays on the calling thread. The default `spread` (2e5 trials) then
- * starts no thread; 2e6 trials start one on a 2-core machine. The numbers never depend on the thread count.
+ * 1.5e6 trials at 150–200 ns each, so a small run stays on the calling thread: the examples' 2e5-trial spreads and the
+ * grade search start no thread, 2e6 trials start one on a 2-core machine, and an adaptive run counts its cap (1e8 by
+ * default). The numbers never depend on the thread count.
  */
 export const MIN_TRIALS_PER_THREAD = 1_000_000;
 

@@ -117,8 +117,9 @@ function centralPass(buf: Float64Array, n: number, mean: number, sigma: number, 
 
 /**
  * μ + σ·Φ⁻¹(u) for the noted tail draws: inverseNormalCdf's two tail branches written out in the loop, so that no
- * value crosses a call (allocation measured with V8's sampling heap profiler, HeapProfiler.startSampling). The same operations in the same order: the upper tail's −(num)/den equals −(num/den) bit for bit (IEEE 754
- * rounding is symmetric in sign), and u ≤ 0 is read as SMALLEST_UNIFORM, a lower-tail value, as there.
+ * value crosses a call (allocation measured with V8's sampling heap profiler, HeapProfiler.startSampling). The same
+ * operations in the same order: the upper tail's −(num)/den equals −(num/den) bit for bit (IEEE 754 rounding is
+ * symmetric in sign), and u ≤ 0 is read as SMALLEST_UNIFORM, a lower-tail value, as there.
  */
 function tailPass(buf: Float64Array, tails: number, mean: number, sigma: number, index: Int32Array, saved: Float64Array): void {
   for (let t = 0; t < tails; t++) {
