@@ -8,7 +8,7 @@
 //   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
 //   npm run bench -- --startup    only the start-up case (--rounds N, default 10)
 //   npm run bench -- --peers      the bench case beside its plain C and NumPy peers (src/bench/peers.ts), 1e7 trials
-//                                 (--trials N), 3 alternating rounds (--rounds N)
+//                                 (--trials N), 3 alternating rounds (--rounds N), trimfree and C on --threads N (default 1)
 // Figures depend on the machine and on what else it runs; they are measurements, not tests.
 import { execFileSync } from 'node:child_process';
 import { availableParallelism, loadavg } from 'node:os';
@@ -75,7 +75,8 @@ async function main(): Promise<void> {
   }
   const peerCase = argValue(args, '--peer-case');
   if (peerCase) {
-    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(Number(peerCase)))}\n`);
+    const [trials, workers] = peerCase.split(',').map(Number);
+    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(trials!, workers ?? 1))}\n`);
     return;
   }
   const peers = args.includes('--peers');
@@ -94,7 +95,14 @@ async function main(): Promise<void> {
       process.exitCode = 2;
       return;
     }
-    await runPeers(trials, rounds, (text) => process.stdout.write(text));
+    const threadsText = argValue(args, '--threads') ?? '1';
+    const threads = Number(threadsText);
+    if (!Number.isInteger(threads) || threads < 1 || threads > 64) {
+      process.stderr.write(`--threads: ${threadsText} is not a usable thread count; accepted: a whole number from 1 to 64\n`);
+      process.exitCode = 2;
+      return;
+    }
+    await runPeers(trials, rounds, threads, (text) => process.stdout.write(text));
     return;
   }
   if (args.includes('--startup')) {

@@ -36,6 +36,7 @@ interface OutputFigures {
 interface RunnerResult {
   runner: string;
   cpuSeconds: number;
+  wallSeconds: number;
   outputs: Record<string, OutputFigures>;
 }
 
@@ -61,16 +62,18 @@ export function peerInput(trials: number, seed: number): string {
   return [`${trials} ${seed} ${BINS} ${CHUNK} ${theta}`, windows.join(' '), ...parts, ''].join('\n');
 }
 
-/** trimfree's side, run in a child process: the bench analysis on one thread, timed, with its figures. */
-export async function trimfreePeerCase(trials: number): Promise<RunnerResult> {
+/** trimfree's side, run in a child process: the bench analysis on `workers` threads, timed, with its figures. */
+export async function trimfreePeerCase(trials: number, workers: number): Promise<RunnerResult> {
   const cpuStart = process.cpuUsage();
-  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers: 1 });
+  const start = process.hrtime.bigint();
+  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers });
+  const wallSeconds = Number(process.hrtime.bigint() - start) / 1e9;
   const cpu = process.cpuUsage(cpuStart);
   const outputs: Record<string, OutputFigures> = {};
   for (const [name, o] of Object.entries(result.outputs)) {
     outputs[name] = { mean: o.mean, sigma: o.sigma, ...(o.yield ? { yieldPct: o.yield.pct } : {}) };
   }
-  return { runner: 'trimfree', cpuSeconds: (cpu.user + cpu.system) / 1e6, outputs };
+  return { runner: 'trimfree', cpuSeconds: (cpu.user + cpu.system) / 1e6, wallSeconds, outputs };
 }
 
 interface Runner {
@@ -95,13 +98,14 @@ function median(values: number[]): number {
   return sorted.length % 2 === 1 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
 }
 
-export async function runPeers(trials: number, rounds: number, write: (text: string) => void): Promise<void> {
+/** Runs the comparison; `threads` > 1 runs trimfree and the C peer on that many threads (NumPy stays on one). */
+export async function runPeers(trials: number, rounds: number, threads: number, write: (text: string) => void): Promise<void> {
   const self = join(PROJECT_ROOT, 'dist', 'src', 'bench', 'main.js');
   const peersDir = join(PROJECT_ROOT, 'src', 'bench', 'peers');
   const runners: Runner[] = [
     {
-      name: 'trimfree (1 thread)',
-      run: () => JSON.parse(execFileSync(process.execPath, [self, '--peer-case', String(trials)], { encoding: 'utf8', maxBuffer: 1 << 20 }).trim()) as RunnerResult,
+      name: `trimfree (${threads === 1 ? '1 thread' : `${threads} threads`})`,
+      run: () => JSON.parse(execFileSync(process.execPath, [self, '--peer-case', `${trials},${threads}`], { encoding: 'utf8', maxBuffer: 1 << 20 }).trim()) as RunnerResult,
     },
   ];
   const skipped: string[] = [];
@@ -111,15 +115,15 @@ export async function runPeers(trials: number, rounds: number, write: (text: str
     if (gcc === null) skipped.push('plain C peer: no gcc on this machine');
     else {
       const binary = join(work, 'supply-peer');
-      const build = spawnSync('gcc', ['-O2', '-o', binary, join(peersDir, 'supply-peer.c'), '-lm'], { encoding: 'utf8' });
+      const build = spawnSync('gcc', ['-O2', '-pthread', '-o', binary, join(peersDir, 'supply-peer.c'), '-lm'], { encoding: 'utf8' });
       if (build.status !== 0) skipped.push(`plain C peer: gcc could not build it (${build.stderr.trim().split('\n')[0] ?? ''})`);
-      else runners.push({ name: `plain C (gcc ${gcc} -O2)`, run: (round) => runJson(binary, [], peerInput(trials, round + 1)) });
+      else runners.push({ name: `plain C (gcc ${gcc} -O2, ${threads === 1 ? '1 thread' : `${threads} threads`})`, run: (round) => runJson(binary, [String(threads)], peerInput(trials, round + 1)) });
     }
     const numpy = toolVersion('python3', ['-c', 'import numpy, sys; print("numpy", numpy.__version__, "python", sys.version.split()[0])']);
     if (numpy === null) skipped.push('NumPy peer: no python3 with numpy on this machine');
-    else runners.push({ name: `vectorised NumPy (${numpy})`, run: (round) => runJson('python3', [join(peersDir, 'supply_peer.py')], peerInput(trials, round + 1)) });
+    else runners.push({ name: `vectorised NumPy (${numpy}, 1 thread)`, run: (round) => runJson('python3', [join(peersDir, 'supply_peer.py')], peerInput(trials, round + 1)) });
 
-    write(`peers: the bench model (examples/engine/bench-supply.json, 16 uncertain parts, 5 outputs, ${BINS}-bin histograms, worst case over every vertex), ${trials.toExponential(0)} trials, one thread each, ${rounds} alternating rounds\n`);
+    write(`peers: the bench model (examples/engine/bench-supply.json, 16 uncertain parts, 5 outputs, ${BINS}-bin histograms, worst case over every vertex), ${trials.toExponential(0)} trials, ${rounds} alternating rounds; CPU time is all threads' together, wall time from the runner's own clock around the same work\n`);
     for (const reason of skipped) write(`skipped: ${reason}\n`);
     if (trials * PEER_OUTPUTS.length * 8 <= 256 * 2 ** 20) {
       write('note: at this trial count trimfree keeps every value and sorts for exact quantiles; the peers read them from the histogram (as trimfree does above 256 MiB of values, e.g. at 1e7 trials)\n');
@@ -128,12 +132,13 @@ export async function runPeers(trials: number, rounds: number, write: (text: str
     for (let r = 0; r < rounds; r++) runners.forEach((runner, i) => results[i]!.push(runner.run(r)));
 
     const nsPerTrial = results.map((rs) => median(rs.map((x) => (x.cpuSeconds * 1e9) / trials)));
+    const wallNsPerTrial = results.map((rs) => median(rs.map((x) => (x.wallSeconds * 1e9) / trials)));
     const base = nsPerTrial[0]!;
-    write(`${'runner'.padEnd(58)}${'CPU ns/trial'.padStart(13)}${'÷ trimfree'.padStart(12)}  speed\n`);
+    write(`${'runner (median of the rounds)'.padEnd(66)}${'CPU ns/trial'.padStart(13)}${'÷ trimfree'.padStart(12)}${'wall ns/trial'.padStart(15)}\n`);
     runners.forEach((runner, i) => {
       const ratio = nsPerTrial[i]! / base;
-      const speed = i === 0 ? '' : ratio < 1 ? `${(1 / ratio).toFixed(1)}× faster than trimfree` : `trimfree ${ratio.toFixed(1)}× faster`;
-      write(`${runner.name.slice(0, 57).padEnd(58)}${nsPerTrial[i]!.toFixed(0).padStart(13)}${ratio.toFixed(2).padStart(12)}  ${speed}\n`);
+      const speed = i === 0 ? '' : ratio < 1 ? `trimfree uses ${(1 / ratio).toFixed(1)}× its CPU time` : `uses ${ratio.toFixed(1)}× trimfree's CPU time`;
+      write(`${runner.name.slice(0, 65).padEnd(66)}${nsPerTrial[i]!.toFixed(0).padStart(13)}${ratio.toFixed(2).padStart(12)}${wallNsPerTrial[i]!.toFixed(0).padStart(15)}  ${speed}\n`);
     });
     // Agreement: each runner's last round against trimfree's; two independent means differ by σ·√(2/N) in standard
     // error (JCGM 101:2008 7.6: the standard error of a Monte Carlo mean is σ/√N). σ itself: its standard error is about

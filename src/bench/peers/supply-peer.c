@@ -13,12 +13,15 @@
  *   trials seed bins chunk theta
  *   voutLo voutHi ilimitLo ilimitHi lossLo lossHi ampLo ampHi
  *   16 lines "kind lo hi k", kind 0 uniform, 1 normal, 2 truncated normal, in the Model's part order
- * Output on stdout: one JSON object with the CPU time of the computation (clock(), process CPU time, after the input
- * is read) and each output's figures.
+ * Optional argument: a thread count (default 1); thread t runs chunks t, t + T, … with its own stream, and the threads'
+ * sums are merged at the end.
+ * Output on stdout: one JSON object with the CPU time of the computation (clock(): process CPU time, all threads,
+ * after the input is read), its wall time, and each output's figures.
  *
- * Build: gcc -O2 -o supply-peer supply-peer.c -lm
+ * Build: gcc -O2 -pthread -o supply-peer supply-peer.c -lm
  */
 #include <math.h>
+#include <pthread.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -42,9 +45,10 @@ typedef struct {
 } Part;
 
 /* ---- xoshiro256+ (Blackman & Vigna, "Scrambled linear pseudorandom number generators", 2018) ---- */
-static uint64_t s[4];
+typedef struct { uint64_t s[4]; } Rng;
 static inline uint64_t rotl(uint64_t x, int k) { return (x << k) | (x >> (64 - k)); }
-static inline double next_uniform(void) {
+static inline double next_uniform(Rng *g) {
+  uint64_t *s = g->s;
   const uint64_t result = s[0] + s[3];
   const uint64_t t = s[1] << 17;
   s[2] ^= s[0];
@@ -131,6 +135,14 @@ typedef struct {
   double specLo, specHi;
 } Acc;
 
+/* Chan, Golub & LeVeque (1983): merge a part's (n, mean, m2) into the running ones. */
+static void merge_moments(Acc *a, double n, double mean, double m2) {
+  const double total = a->n + n, delta = mean - a->mean;
+  a->m2 += m2 + delta * delta * a->n * n / total;
+  a->mean += delta * n / total;
+  a->n = total;
+}
+
 static double coverage_count(double p, double m) {
   const double pm = p * m;
   return pm == floor(pm) ? pm : floor(pm + 0.5);
@@ -180,63 +192,32 @@ static void shortest(const Acc *a, double p, double *low, double *high) {
   }
 }
 
-int main(void) {
-  double trialsIn, seedIn, chunkIn;
-  double windows[8];
-  Part parts[PARTS];
-  if (scanf("%lf %lf %d %lf %lf", &trialsIn, &seedIn, &bins, &chunkIn, &theta) != 5) return 2;
-  for (int i = 0; i < 8; i++) if (scanf("%lf", &windows[i]) != 1) return 2;
-  for (int i = 0; i < PARTS; i++) {
-    if (scanf("%d %lf %lf %lf", &parts[i].kind, &parts[i].lo, &parts[i].hi, &parts[i].k) != 4) return 2;
-    Part *p = &parts[i];
-    p->mean = (p->lo + p->hi) / 2;
-    p->sigma = (p->hi - p->lo) / 2 / p->k;
-    if (p->kind == 2) {
-      p->pLo = normal_cdf((p->lo - p->mean) / p->sigma);
-      p->span = normal_cdf((p->hi - p->mean) / p->sigma) - p->pLo;
-    }
-  }
-  const long trials = (long)trialsIn;
-  const int chunk = (int)chunkIn > MAX_CHUNK ? MAX_CHUNK : (int)chunkIn;
-  const clock_t start = clock();
-
-  uint64_t seed = (uint64_t)seedIn;
-  for (int i = 0; i < 4; i++) s[i] = splitmix64(&seed);
-
-  /* Worst case: every vertex of the bands. */
-  double wcMin[OUTPUTS], wcMax[OUTPUTS], x[PARTS], y[OUTPUTS];
-  for (int o = 0; o < OUTPUTS; o++) { wcMin[o] = INFINITY; wcMax[o] = -INFINITY; }
-  for (long vertex = 0; vertex < (1L << PARTS); vertex++) {
-    for (int i = 0; i < PARTS; i++) x[i] = (vertex >> i) & 1 ? parts[i].hi : parts[i].lo;
-    evaluate(x, y);
-    for (int o = 0; o < OUTPUTS; o++) {
-      if (y[o] < wcMin[o]) wcMin[o] = y[o];
-      if (y[o] > wcMax[o]) wcMax[o] = y[o];
-    }
-  }
-
+typedef struct {
+  int thread, threads, chunk;
+  long trials;
+  uint64_t seed;
+  const Part *parts;
   Acc acc[OUTPUTS];
-  cumulative = calloc(bins + 3, sizeof(double));
-  for (int o = 0; o < OUTPUTS; o++) {
-    const double span = wcMax[o] - wcMin[o];
-    const double pad = span > 0 ? span / 2 : fmax(fabs(wcMin[o]) * 1e-9, 1e-300);
-    acc[o] = (Acc){0, 0, 0, INFINITY, -INFINITY, 0, wcMin[o] - pad, wcMax[o] + pad, 0, calloc(bins + 2, sizeof(double)), -INFINITY, INFINITY};
-    acc[o].scale = bins / (acc[o].hi - acc[o].lo);
-  }
-  const int specOf[OUTPUTS] = {0, -1, 1, 2, 3};
-  for (int o = 0; o < OUTPUTS; o++) if (specOf[o] >= 0) { acc[o].specLo = windows[2 * specOf[o]]; acc[o].specHi = windows[2 * specOf[o] + 1]; }
+} Work;
 
+/* One thread's share: chunks thread, thread + threads, …, each reduced as trimfree's chunk runner does. */
+static void *run_chunks(void *arg) {
+  Work *w = arg;
+  Rng g;
+  uint64_t seed = w->seed + 0x632be59bd9b4e019ULL * (uint64_t)w->thread;
+  for (int i = 0; i < 4; i++) g.s[i] = splitmix64(&seed);
+  double x[PARTS], y[OUTPUTS];
   double *out[OUTPUTS];
-  for (int o = 0; o < OUTPUTS; o++) out[o] = malloc(sizeof(double) * chunk);
-  for (long done = 0; done < trials; done += chunk) {
-    const int n = trials - done < chunk ? (int)(trials - done) : chunk;
+  for (int o = 0; o < OUTPUTS; o++) out[o] = malloc(sizeof(double) * w->chunk);
+  for (long done = (long)w->thread * w->chunk; done < w->trials; done += (long)w->threads * w->chunk) {
+    const int n = w->trials - done < w->chunk ? (int)(w->trials - done) : w->chunk;
     for (int j = 0; j < n; j++) {
-      for (int i = 0; i < PARTS; i++) x[i] = draw(&parts[i], next_uniform());
+      for (int i = 0; i < PARTS; i++) x[i] = draw(&w->parts[i], next_uniform(&g));
       evaluate(x, y);
       for (int o = 0; o < OUTPUTS; o++) out[o][j] = y[o];
     }
     for (int o = 0; o < OUTPUTS; o++) {
-      Acc *a = &acc[o];
+      Acc *a = &w->acc[o];
       const double *v = out[o];
       double sum = 0, min = INFINITY, max = -INFINITY, inSpec = 0;
       for (int j = 0; j < n; j++) {
@@ -255,17 +236,86 @@ int main(void) {
         sq += d * d;
         dev += d;
       }
-      const double m2 = fmax(0, sq - dev * dev / n);
-      /* Chan, Golub & LeVeque (1983): merge (n, mean, m2) of this chunk into the run's. */
-      const double total = a->n + n, delta = mean - a->mean;
-      a->m2 += m2 + delta * delta * a->n * n / total;
-      a->mean += delta * n / total;
-      a->n = total;
+      merge_moments(a, n, mean, fmax(0, sq - dev * dev / n));
       if (min < a->min) a->min = min;
       if (max > a->max) a->max = max;
       a->inSpec += inSpec;
     }
   }
+  for (int o = 0; o < OUTPUTS; o++) free(out[o]);
+  return NULL;
+}
+
+int main(int argc, char **argv) {
+  double trialsIn, seedIn, chunkIn;
+  double windows[8];
+  Part parts[PARTS];
+  const int threads = argc > 1 && atoi(argv[1]) > 0 ? atoi(argv[1]) : 1;
+  if (scanf("%lf %lf %d %lf %lf", &trialsIn, &seedIn, &bins, &chunkIn, &theta) != 5) return 2;
+  for (int i = 0; i < 8; i++) if (scanf("%lf", &windows[i]) != 1) return 2;
+  for (int i = 0; i < PARTS; i++) {
+    if (scanf("%d %lf %lf %lf", &parts[i].kind, &parts[i].lo, &parts[i].hi, &parts[i].k) != 4) return 2;
+    Part *p = &parts[i];
+    p->mean = (p->lo + p->hi) / 2;
+    p->sigma = (p->hi - p->lo) / 2 / p->k;
+    if (p->kind == 2) {
+      p->pLo = normal_cdf((p->lo - p->mean) / p->sigma);
+      p->span = normal_cdf((p->hi - p->mean) / p->sigma) - p->pLo;
+    }
+  }
+  const long trials = (long)trialsIn;
+  const int chunk = (int)chunkIn > MAX_CHUNK ? MAX_CHUNK : (int)chunkIn;
+  const clock_t start = clock();
+  struct timespec wallStart, wallEnd;
+  clock_gettime(CLOCK_MONOTONIC, &wallStart);
+
+  /* Worst case: every vertex of the bands. */
+  double wcMin[OUTPUTS], wcMax[OUTPUTS], x[PARTS], y[OUTPUTS];
+  for (int o = 0; o < OUTPUTS; o++) { wcMin[o] = INFINITY; wcMax[o] = -INFINITY; }
+  for (long vertex = 0; vertex < (1L << PARTS); vertex++) {
+    for (int i = 0; i < PARTS; i++) x[i] = (vertex >> i) & 1 ? parts[i].hi : parts[i].lo;
+    evaluate(x, y);
+    for (int o = 0; o < OUTPUTS; o++) {
+      if (y[o] < wcMin[o]) wcMin[o] = y[o];
+      if (y[o] > wcMax[o]) wcMax[o] = y[o];
+    }
+  }
+
+  const int specOf[OUTPUTS] = {0, -1, 1, 2, 3};
+  Work *work = calloc(threads, sizeof(Work));
+  pthread_t *ids = calloc(threads, sizeof(pthread_t));
+  for (int t = 0; t < threads; t++) {
+    work[t].thread = t;
+    work[t].threads = threads;
+    work[t].chunk = chunk;
+    work[t].trials = trials;
+    work[t].seed = (uint64_t)seedIn;
+    work[t].parts = parts;
+    for (int o = 0; o < OUTPUTS; o++) {
+      const double span = wcMax[o] - wcMin[o];
+      const double pad = span > 0 ? span / 2 : fmax(fabs(wcMin[o]) * 1e-9, 1e-300);
+      Acc *a = &work[t].acc[o];
+      *a = (Acc){0, 0, 0, INFINITY, -INFINITY, 0, wcMin[o] - pad, wcMax[o] + pad, 0, calloc(bins + 2, sizeof(double)), -INFINITY, INFINITY};
+      a->scale = bins / (a->hi - a->lo);
+      if (specOf[o] >= 0) { a->specLo = windows[2 * specOf[o]]; a->specHi = windows[2 * specOf[o] + 1]; }
+    }
+    if (t > 0) pthread_create(&ids[t], NULL, run_chunks, &work[t]);
+  }
+  run_chunks(&work[0]);
+  Acc *acc = work[0].acc;
+  for (int t = 1; t < threads; t++) {
+    pthread_join(ids[t], NULL);
+    for (int o = 0; o < OUTPUTS; o++) {
+      const Acc *b = &work[t].acc[o];
+      if (b->n == 0) continue;
+      merge_moments(&acc[o], b->n, b->mean, b->m2);
+      if (b->min < acc[o].min) acc[o].min = b->min;
+      if (b->max > acc[o].max) acc[o].max = b->max;
+      acc[o].inSpec += b->inSpec;
+      for (int i = 0; i < bins + 2; i++) acc[o].counts[i] += b->counts[i];
+    }
+  }
+  cumulative = calloc(bins + 3, sizeof(double));
 
   /* Figures from the histogram, as src/analysis/statistics/histogram.ts reads them. */
   double percentiles[OUTPUTS][11], sym[OUTPUTS][4], sho[OUTPUTS][4], sigma[OUTPUTS];
@@ -287,8 +337,10 @@ int main(void) {
     sigma[o] = sqrt(a->m2 / (a->n - 1));
   }
   const double cpu = (double)(clock() - start) / CLOCKS_PER_SEC;
+  clock_gettime(CLOCK_MONOTONIC, &wallEnd);
+  const double wall = (double)(wallEnd.tv_sec - wallStart.tv_sec) + 1e-9 * (double)(wallEnd.tv_nsec - wallStart.tv_nsec);
 
-  printf("{\"runner\":\"c\",\"trials\":%ld,\"cpuSeconds\":%.6f,\"outputs\":{", trials, cpu);
+  printf("{\"runner\":\"c\",\"trials\":%ld,\"threads\":%d,\"cpuSeconds\":%.6f,\"wallSeconds\":%.6f,\"outputs\":{", trials, threads, cpu, wall);
   for (int o = 0; o < OUTPUTS; o++) {
     Acc *a = &acc[o];
     printf("%s\"%s\":{\"mean\":%.17g,\"sigma\":%.17g,\"min\":%.17g,\"max\":%.17g,\"worstCase\":[%.17g,%.17g],\"median\":%.17g,\"interval95\":[%.17g,%.17g],\"interval9973\":[%.17g,%.17g],\"shortest95\":[%.17g,%.17g],\"shortest9973\":[%.17g,%.17g]",
