@@ -4,9 +4,10 @@
 // neither gcc nor python. The runners take turns in each round (trimfree, C, NumPy, then again), so a load that comes
 // and goes on the machine falls on all of them alike; each figure is the median over the rounds.
 //
-// Every runner times its own computation with its process's CPU clock, after start-up and input (trimfree: the
-// whole analysis, worst case, RSS and Monte Carlo, on one thread, as the bench case with workers 1; the peers: worst
-// case and Monte Carlo; RSS is 32 model evaluations, nothing beside 1e7 trials). The peers read the part bands from
+// Every runner times its own computation with its process's CPU clock (all threads) and a wall clock, after start-up
+// and input (trimfree: the whole analysis, worst case, RSS and Monte Carlo, as the bench case; the peers: worst case
+// and Monte Carlo; RSS is 32 model evaluations, nothing beside 1e7 trials). One thread each by default; --threads N
+// runs trimfree (workers N) and the C peer on N threads, NumPy stays on one. The peers read the part bands from
 // the engine's own Model of the bench design, so all three run the same parts; their random streams differ, so their
 // figures agree within Monte Carlo error, which the table checks.
 import { execFileSync, spawnSync } from 'node:child_process';
