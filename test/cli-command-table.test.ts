@@ -3,7 +3,7 @@
 // for the full command. And the quick paths load only what they need: the modules a real start-up resolves are
 // recorded through Node's own module hooks (node:module register, a resolve hook) in a subprocess.
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Help } from 'commander';
@@ -45,13 +45,18 @@ describe('the command table matches each command module', () => {
 
 /** The files and packages a run of the built CLI resolves, recorded by a resolve hook. */
 function modulesLoaded(args: string[]): string[] {
-  const log = join(mkdtempSync(join(tmpdir(), 'trimfree-modules-')), 'resolved.txt');
+  const dir = mkdtempSync(join(tmpdir(), 'trimfree-modules-'));
+  const log = join(dir, 'resolved.txt');
   const hook = `import { appendFileSync } from 'node:fs';
 export async function resolve(specifier, context, next) { const r = await next(specifier, context); appendFileSync(${JSON.stringify(log)}, r.url + '\\n'); return r; }`;
   const register = `import { register } from 'node:module'; register(${JSON.stringify(`data:text/javascript,${encodeURIComponent(hook)}`)});`;
   const run = spawnSync(process.execPath, ['--import', `data:text/javascript,${encodeURIComponent(register)}`, MAIN, ...args], { cwd: PROJECT_ROOT, encoding: 'utf8' });
-  expect(run.status, run.stderr).toBe(0);
-  return readFileSync(log, 'utf8').trim().split('\n');
+  try {
+    expect(run.status, run.stderr).toBe(0);
+    return readFileSync(log, 'utf8').trim().split('\n');
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
 }
 
 describe('start-up loads only what the command needs', { timeout: 60_000 }, () => {
