@@ -4,9 +4,11 @@
 // engineer's file has a type error; only the worker file matters here).
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyze } from '../src/analysis/analyze.js';
+import { defaultThreads, MIN_TRIALS_PER_THREAD } from '../src/analysis/monte-carlo.js';
 import type { SupplySpec } from '../src/analysis/models/supply.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
 import { BENCH_SUPPLY } from '../src/bench/cvcc-spec.js';
@@ -63,6 +65,18 @@ describe('Monte Carlo reproducibility across worker counts', () => {
     const pooled = await analyze(spec, { trials: 150_000, seed: 'second', workers: 2 });
     const alone = await analyze(spec, { trials: 150_000, seed: 'second', workers: 1 });
     expect({ ...pooled, workers: 0 }).toEqual({ ...alone, workers: 0 });
+  }, 120_000);
+
+  it('without a workers choice a small run stays on this thread, with the same numbers as on two threads', async () => {
+    // The rule of MIN_TRIALS_PER_THREAD: one thread per 1e6 trials, at least one, at most every core.
+    expect(defaultThreads(MIN_TRIALS_PER_THREAD - 1)).toBe(1);
+    expect(defaultThreads(2 * MIN_TRIALS_PER_THREAD)).toBe(Math.min(2, availableParallelism()));
+    expect(defaultThreads(1e10)).toBe(availableParallelism());
+    const options = { trials: 2 * 65536 + 77, seed: 'default threads' };
+    const [chosen, two] = await Promise.all([analyze(spec, options), analyze(spec, { ...options, workers: 2 })]);
+    expect(chosen.workers).toBe(1);
+    expect(two.workers).toBe(2);
+    expect({ ...chosen, workers: 0 }).toEqual({ ...two, workers: 0 });
   }, 120_000);
 
   it('progress reaches the planned trial count, in order', async () => {

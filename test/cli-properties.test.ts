@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { closeWorkerPool } from '../src/analysis/worker-pool.js';
-import { buildProgram } from '../src/cli/program.js';
+import { COMMANDS } from '../src/cli/commands.js';
 import { runCli } from '../src/cli/run.js';
 import { baseDesign } from './design-fixture.js';
 
@@ -102,9 +102,12 @@ function tooSlow(option: string, value: string): boolean {
 
 const NOT_MUTATED = new Set(['--out', '--report', '--samples', '--help', '--version']);
 
+/** Every command as its module builds it (the program itself loads only the one a command line names). */
+const FULL_COMMANDS = await Promise.all(COMMANDS.map((c) => c.load()));
+
 /** Every option of a command that takes a value (read from the command itself). */
 function valueOptions(name: string): string[] {
-  const command = buildProgram().commands.find((c) => c.name() === name)!;
+  const command = FULL_COMMANDS.find((c) => c.name() === name)!;
   return command.options.filter((o) => (o.required || o.optional) && o.long !== undefined && !NOT_MUTATED.has(o.long)).map((o) => o.long!);
 }
 

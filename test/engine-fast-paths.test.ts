@@ -16,7 +16,7 @@ import { noninvLimit, noninvOutput } from '../src/circuits/sense/noninv.js';
 import { partFromBound } from '../src/tolerance/part.js';
 import { fillPart, partFromUnit } from '../src/tolerance/sample.js';
 import { binnedFromUnit } from '../src/tolerance/distributions/binned.js';
-import { inverseNormalCdf, normalCdf, normalQuantilesInPlace } from '../src/tolerance/distributions/normal.js';
+import { clampInPlace, inverseNormalCdf, normalCdf, normalQuantilesInPlace } from '../src/tolerance/distributions/normal.js';
 import { truncatedNormalFromUnit } from '../src/tolerance/distributions/truncated-normal.js';
 
 /** Uniforms from a chunk's stream, plus the edge values of inverseNormalCdf's regions (0, P_LOW, P_HIGH, 1 − 2⁻³²). */
@@ -63,6 +63,20 @@ describe('normal draws: the two-pass Φ⁻¹ loop equals Acklam’s function dra
     const span = normalCdf((hi - mean) / sigma) - pLo;
     const reference = u.map((v) => Math.min(hi, Math.max(lo, mean + sigma * inverseNormalCdf(pLo + span * v))));
     expect(sameBits(fast, reference)).toBe(0);
+  });
+
+  it('the clamp writes only values outside the band and leaves the rest exactly as they were (reference: x < lo ? lo : x > hi ? hi : x)', () => {
+    // Half of these fall outside [−0.5, 0.5]; the edges themselves, signed zeros at a zero edge, ±∞ and NaN too.
+    const spread = uniforms(10_000, 'clamp').map((v) => 2 * v - 1);
+    const special = [-0.5, 0.5, -0.5 - 2 ** -53, 0.5 + 2 ** -53, 0, -0, -Infinity, Infinity, NaN];
+    for (const [lo, hi] of [[-0.5, 0.5], [0, 0.5], [-0.5, -0]] as const) {
+      const values = Float64Array.from([...special, ...spread]);
+      const fast = values.slice();
+      clampInPlace(fast, fast.length, lo, hi);
+      const reference = values.map((x) => (x < lo ? lo : x > hi ? hi : x));
+      expect(sameBits(fast, reference)).toBe(0);
+      expect(fast.filter((x) => x === lo || x === hi).length).toBeGreaterThan(4000);
+    }
   });
 
   it('binned: the two pieces of [Φ(−W/σ), Φ(W/σ)] outside ±I, per draw', () => {

@@ -41,8 +41,8 @@ export interface MonteCarloOptions {
   trials: number | 'auto';
   seed: string | number;
   /**
-   * Threads that compute chunks: this thread and workers − 1 worker threads; default os.availableParallelism().
-   * Results do not depend on it.
+   * Threads that compute chunks: this thread and workers − 1 worker threads. Default: one thread per
+   * MIN_TRIALS_PER_THREAD trials, at least one, at most os.availableParallelism(). Results do not depend on it.
    */
   workers?: number;
   /** JSON the workers rebuild the model from; without it the run stays on this thread. */
@@ -159,9 +159,24 @@ export function widenRange(min: number, max: number): { lo: number; hi: number }
   return { lo: min - pad, hi: max + pad };
 }
 
+/**
+ * Trials each computing thread should have before a run without a `workers` choice adds one: a worker thread costs
+ * about 0.3 s of CPU time to start and warm up (a new V8 instance that loads and compiles the engine: measured on
+ * the 2-core development machine, 1e6 and 4e6 trials of the benchmark design on 1 and 2 threads), the work of about
+ * 1.5e6 trials at 150–200 ns each, so a small run stays on the calling thread: the examples' 2e5-trial spreads and the
+ * grade search start no thread, 2e6 trials start one on a 2-core machine, and an adaptive run counts its cap (1e8 by
+ * default). The numbers never depend on the thread count.
+ */
+export const MIN_TRIALS_PER_THREAD = 1_000_000;
+
+/** Computing threads by default for a run of `trials` (the cap, for an adaptive run): see MIN_TRIALS_PER_THREAD. */
+export function defaultThreads(trials: number): number {
+  return Math.max(1, Math.min(availableParallelism(), Math.floor(trials / MIN_TRIALS_PER_THREAD)));
+}
+
 /** Worker threads a run with these options starts besides the calling thread (0: it stays on this thread). */
-function helperThreads(options: MonteCarloOptions, chunkCount: number): number {
-  const requested = options.workers ?? availableParallelism();
+function helperThreads(options: MonteCarloOptions, trials: number, chunkCount: number): number {
+  const requested = options.workers ?? defaultThreads(trials);
   return options.source && requested > 1 ? Math.min(requested, chunkCount) - 1 : 0;
 }
 
@@ -176,7 +191,7 @@ export function startMonteCarloWorkers(options: MonteCarloOptions): void {
     return; // monteCarlo reports the bad option
   }
   const trials = options.trials === 'auto' ? (options.maxTrials ?? DEFAULT_MAX_TRIALS) : options.trials;
-  const helpers = helperThreads(options, Math.ceil(trials / (options.chunkSize ?? DEFAULT_CHUNK_SIZE)));
+  const helpers = helperThreads(options, trials, Math.ceil(trials / (options.chunkSize ?? DEFAULT_CHUNK_SIZE)));
   if (helpers > 0) startWorkersAhead(helpers);
 }
 
@@ -244,7 +259,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   };
 
   // `workers` counts the threads that compute chunks: this thread and workers − 1 worker threads.
-  const workers = helperThreads(options, chunkCount) + 1;
+  const workers = helperThreads(options, maxTrials, chunkCount) + 1;
   if (workers <= 1) {
     const runner = new ChunkRunner(model, config, true);
     for (let k = 0; !stopped; k++) {

@@ -1,15 +1,22 @@
-// `npm run bench`: trials per second and peak memory of the full analysis (worst case, RSS, Monte Carlo with every
-// statistic) of the CV/CC benchmark design, at 1e6 and 1e7 trials, on one worker and on every core.
-// Each case runs in its own child process so its peak resident memory is its own.
-//   npm run bench                 a table
-//   npm run bench -- --json       one JSON document: an array of {trials, workers, seconds, trialsPerSecond, peakRssMB}
+// `npm run bench`: trials per second, CPU time per trial and peak memory of the full analysis (worst case, RSS, Monte
+// Carlo with every statistic) of the CV/CC benchmark design, at 1e6 and 1e7 trials, on one worker and on every core;
+// then the start-up case (src/bench/startup.ts). Each case runs in its own child process so its peak resident memory
+// is its own.
+//   npm run bench                 tables
+//   npm run bench -- --json       one JSON document: {monteCarlo: [{trials, workers, seconds, trialsPerSecond,
+//                                 cpuNsPerTrial, peakRssMB, …}], startup: {rounds, measure, cases: [{name, cpuMs, ratio, …}]}}
 //   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
+//   npm run bench -- --startup    only the start-up case (--rounds N, default 10)
+//   npm run bench -- --peers      the bench case beside its plain C and NumPy peers (src/bench/peers.ts), 1e7 trials
+//                                 (--trials N), 3 alternating rounds (--rounds N), trimfree and C on --threads N (default 1)
 // Figures depend on the machine and on what else it runs; they are measurements, not tests.
 import { execFileSync } from 'node:child_process';
 import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { analyze } from '../analysis/analyze.js';
 import { BENCH_SUPPLY } from './cvcc-spec.js';
+import { runPeers, trimfreePeerCase } from './peers.js';
+import { runStartup, startupTable } from './startup.js';
 
 interface BenchCase {
   trials: number;
@@ -19,6 +26,8 @@ interface BenchCase {
   peakRssMB: number;
   /** CPU time of the process (all threads), s: compare with seconds × workers to see contention. */
   cpuSeconds: number;
+  /** cpuSeconds per trial, ns (the whole analysis, all threads, worker start-up included). */
+  cpuNsPerTrial: number;
   /** One-minute load average when the case started: other jobs on the machine slow every figure. */
   loadAverage: number;
 }
@@ -33,7 +42,17 @@ async function runOne(trials: number, workers: number): Promise<BenchCase> {
   if (result.trials !== trials) throw new Error(`ran ${result.trials} trials, expected ${trials}`);
   // maxRSS is in kilobytes and covers the worker threads too (they share the process).
   const peakRssMB = process.resourceUsage().maxRSS / 1024;
-  return { trials, workers: result.workers, seconds: round(seconds, 3), trialsPerSecond: Math.round(trials / seconds), peakRssMB: round(peakRssMB, 1), cpuSeconds: round((cpu.user + cpu.system) / 1e6, 3), loadAverage };
+  const cpuSeconds = (cpu.user + cpu.system) / 1e6;
+  return {
+    trials,
+    workers: result.workers,
+    seconds: round(seconds, 3),
+    trialsPerSecond: Math.round(trials / seconds),
+    peakRssMB: round(peakRssMB, 1),
+    cpuSeconds: round(cpuSeconds, 3),
+    cpuNsPerTrial: round((cpuSeconds * 1e9) / trials, 1),
+    loadAverage,
+  };
 }
 
 function round(value: number, decimals: number): number {
@@ -54,6 +73,43 @@ async function main(): Promise<void> {
     process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!))}\n`);
     return;
   }
+  const peerCase = argValue(args, '--peer-case');
+  if (peerCase) {
+    const [trials, workers] = peerCase.split(',').map(Number);
+    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(trials!, workers ?? 1))}\n`);
+    return;
+  }
+  const peers = args.includes('--peers');
+  const roundsText = argValue(args, '--rounds') ?? (peers ? '3' : '10');
+  const rounds = Number(roundsText);
+  if (!Number.isInteger(rounds) || rounds < 1) {
+    process.stderr.write(`--rounds: ${roundsText} is not a whole number of rounds; accepted: e.g. 10\n`);
+    process.exitCode = 2;
+    return;
+  }
+  if (peers) {
+    const trialsText = argValue(args, '--trials') ?? '1e7';
+    const trials = Number(trialsText);
+    if (!Number.isInteger(trials) || trials < 1) {
+      process.stderr.write(`--trials: ${trialsText} is not a whole number of trials; accepted: e.g. 1e7\n`);
+      process.exitCode = 2;
+      return;
+    }
+    const threadsText = argValue(args, '--threads') ?? '1';
+    const threads = Number(threadsText);
+    if (!Number.isInteger(threads) || threads < 1 || threads > 64) {
+      process.stderr.write(`--threads: ${threadsText} is not a usable thread count; accepted: a whole number from 1 to 64\n`);
+      process.exitCode = 2;
+      return;
+    }
+    await runPeers(trials, rounds, threads, (text) => process.stdout.write(text));
+    return;
+  }
+  if (args.includes('--startup')) {
+    const startup = runStartup(rounds);
+    process.stdout.write(args.includes('--json') ? `${JSON.stringify({ startup })}\n` : startupTable(startup));
+    return;
+  }
   const custom = argValue(args, '--trials');
   const trialCounts = custom ? [Number(custom)] : [1e6, 1e7];
   if (trialCounts.some((t) => !Number.isInteger(t) || t < 1)) {
@@ -71,17 +127,19 @@ async function main(): Promise<void> {
       cases.push(JSON.parse(out.trim()) as BenchCase);
     }
   }
+  const startup = runStartup(rounds);
   if (args.includes('--json')) {
-    process.stdout.write(`${JSON.stringify(cases)}\n`);
+    process.stdout.write(`${JSON.stringify({ monteCarlo: cases, startup })}\n`);
     return;
   }
   process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
-  process.stdout.write('trials      workers  seconds  trials/s      peak RSS  CPU s   load avg\n');
+  process.stdout.write('trials      workers  seconds  trials/s      peak RSS  CPU s   CPU ns/trial  load avg\n');
   for (const c of cases) {
     process.stdout.write(
-      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.loadAverage.toFixed(2)}\n`,
+      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.cpuNsPerTrial.toFixed(0).padEnd(14)}${c.loadAverage.toFixed(2)}\n`,
     );
   }
+  process.stdout.write(`\n${startupTable(startup)}`);
 }
 
 await main();

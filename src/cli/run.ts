@@ -4,8 +4,8 @@
 // main.ts calls it for the real process; tests call it in-process, so the policy is tested without a subprocess.
 import { CommanderError } from 'commander';
 import { ImpossibleError, InputError, describeError } from '../errors.js';
-import { buildProgram } from './program.js';
-import { EXIT_YIELD_GATE, YieldGateFailure } from './yield-gate.js';
+import { programFor } from './program.js';
+import { EXIT_YIELD_GATE, YieldGateFailure } from './yield-gate-failure.js';
 
 export const EXIT_OK = 0;
 export const EXIT_INTERNAL = 1;
@@ -22,7 +22,7 @@ export interface RunOutcome {
 /** Parses and runs `argv` (node, script, args…); never throws. */
 export async function runCli(argv: string[]): Promise<RunOutcome> {
   try {
-    await buildProgram().parseAsync(argv);
+    await (await programFor(argv)).parseAsync(argv);
     return { code: EXIT_OK };
   } catch (error) {
     return outcomeOf(error, argv);

@@ -5,9 +5,9 @@ import { Option } from 'commander';
 import { InputError } from '../errors.js';
 import { formatYieldPct } from '../report/format-value.js';
 import { parsePercent } from '../units/index.js';
+import { YieldGateFailure, type GatedYield } from './yield-gate-failure.js';
 
-/** Exit code of a run whose output is complete but whose yield is below --fail-under-yield. */
-export const EXIT_YIELD_GATE = 1;
+export { EXIT_YIELD_GATE, YieldGateFailure, type GatedYield } from './yield-gate-failure.js';
 
 export const FAIL_UNDER_YIELD_HELP = 'exit with code 1 when any output\'s yield is below this, e.g. 99.5% (default: never)';
 
@@ -24,28 +24,14 @@ export function failUnderYieldOptionWith(help: string = FAIL_UNDER_YIELD_HELP): 
   return new Option('--fail-under-yield <pct>', help).argParser(failUnderYieldOption);
 }
 
-/** One output's yield as the report shows it. */
-export interface GatedYield {
-  /** e.g. "vout", or "all specs at 1 %" for grades. */
-  name: string;
-  pct: number;
-}
-
-/** Raised after the report is written: main.ts prints its message and exits 1. */
-export class YieldGateFailure extends Error {
-  readonly failing: GatedYield[];
-  constructor(thresholdPct: number, failing: GatedYield[]) {
-    super(
-      `--fail-under-yield ${thresholdPct} %: ${failing.map((f) => `${f.name} yield ${formatYieldPct(f.pct)}`).join(', ')} ${failing.length === 1 ? 'is' : 'are'} below ${thresholdPct} %`,
-    );
-    this.name = 'YieldGateFailure';
-    this.failing = failing;
-  }
+/** The gate's one line: each output below the threshold with its yield as the report shows it. */
+function gateMessage(thresholdPct: number, failing: GatedYield[]): string {
+  return `--fail-under-yield ${thresholdPct} %: ${failing.map((f) => `${f.name} yield ${formatYieldPct(f.pct)}`).join(', ')} ${failing.length === 1 ? 'is' : 'are'} below ${thresholdPct} %`;
 }
 
 /** Throws YieldGateFailure when a yield is below the threshold; does nothing when no threshold was given. */
 export function checkYieldGate(thresholdPct: number | undefined, yields: GatedYield[]): void {
   if (thresholdPct === undefined) return;
   const failing = yields.filter((y) => y.pct < thresholdPct);
-  if (failing.length > 0) throw new YieldGateFailure(thresholdPct, failing);
+  if (failing.length > 0) throw new YieldGateFailure(gateMessage(thresholdPct, failing), failing);
 }

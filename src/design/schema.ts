@@ -318,7 +318,7 @@ const analysis = z
   .strictObject({
     trials: z.union([z.literal('auto'), positiveInteger('number of Monte Carlo trials, at most 1e10 (more could not finish in any sensible time)').max(1e10)]).meta({ description: 'Monte Carlo trials, or "auto" (adaptive, JCGM 101:2008 7.9)' }).optional(),
     seed: z.number().int().min(0).max(2 ** 32 - 1).meta({ description: 'random seed (default 1): the same seed gives the same numbers' }).optional(),
-    workers: positiveInteger('worker threads, 1 to 256 (default: the number of cores)').max(256).optional(),
+    workers: positiveInteger('worker threads, 1 to 256 (default: one per 1e6 trials, up to the number of cores)').max(256).optional(),
   })
   .meta({ description: 'Monte Carlo options; command-line options override them' });
 
