@@ -21,6 +21,11 @@ import { runStartup, startupTable } from './startup.js';
 interface BenchCase {
   trials: number;
   workers: number;
+  /** 'random ambient': each trial judged at the ambient drawn with it (the case kept comparable across versions);
+   *  'per unit': each trial also evaluated at every ambient of the model's grid (the default analysis). */
+  mode: BenchMode;
+  /** Model evaluations per trial: 1, or 1 + the grid's ambients. */
+  evaluationsPerTrial: number;
   seconds: number;
   trialsPerSecond: number;
   peakRssMB: number;
@@ -32,11 +37,13 @@ interface BenchCase {
   loadAverage: number;
 }
 
-async function runOne(trials: number, workers: number): Promise<BenchCase> {
+type BenchMode = 'random ambient' | 'per unit';
+
+async function runOne(trials: number, workers: number, mode: BenchMode): Promise<BenchCase> {
   const loadAverage = round(loadavg()[0]!, 2);
   const cpuStart = process.cpuUsage();
   const start = process.hrtime.bigint();
-  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers });
+  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers, perUnit: mode === 'per unit' });
   const seconds = Number(process.hrtime.bigint() - start) / 1e9;
   const cpu = process.cpuUsage(cpuStart);
   if (result.trials !== trials) throw new Error(`ran ${result.trials} trials, expected ${trials}`);
@@ -46,6 +53,8 @@ async function runOne(trials: number, workers: number): Promise<BenchCase> {
   return {
     trials,
     workers: result.workers,
+    mode,
+    evaluationsPerTrial: 1 + (result.ambientGridC?.length ?? 0),
     seconds: round(seconds, 3),
     trialsPerSecond: Math.round(trials / seconds),
     peakRssMB: round(peakRssMB, 1),
@@ -69,8 +78,8 @@ async function main(): Promise<void> {
   const args = process.argv.slice(2);
   const one = argValue(args, '--case');
   if (one) {
-    const [trials, workers] = one.split(',').map(Number);
-    process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!))}\n`);
+    const [trials, workers, perUnit] = one.split(',').map(Number);
+    process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!, perUnit === 1 ? 'per unit' : 'random ambient'))}\n`);
     return;
   }
   const peerCase = argValue(args, '--peer-case');
@@ -121,10 +130,13 @@ async function main(): Promise<void> {
   const workerCounts = cores > 1 ? [1, cores] : [1];
   const cases: BenchCase[] = [];
   const self = fileURLToPath(import.meta.url);
-  for (const trials of trialCounts) {
-    for (const workers of workerCounts) {
-      const out = execFileSync(process.execPath, [self, '--case', `${trials},${workers}`], { encoding: 'utf8', maxBuffer: 1 << 20 });
-      cases.push(JSON.parse(out.trim()) as BenchCase);
+  // Random ambient first (the case kept as it was, comparable across versions), then the per-unit evaluation.
+  for (const perUnit of [0, 1]) {
+    for (const trials of trialCounts) {
+      for (const workers of workerCounts) {
+        const out = execFileSync(process.execPath, [self, '--case', `${trials},${workers},${perUnit}`], { encoding: 'utf8', maxBuffer: 1 << 20 });
+        cases.push(JSON.parse(out.trim()) as BenchCase);
+      }
     }
   }
   const startup = runStartup(rounds);
@@ -133,10 +145,10 @@ async function main(): Promise<void> {
     return;
   }
   process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
-  process.stdout.write('trials      workers  seconds  trials/s      peak RSS  CPU s   CPU ns/trial  load avg\n');
+  process.stdout.write('mode             evals/trial  trials      workers  seconds  trials/s      peak RSS  CPU s   CPU ns/trial  load avg\n');
   for (const c of cases) {
     process.stdout.write(
-      `${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.cpuNsPerTrial.toFixed(0).padEnd(14)}${c.loadAverage.toFixed(2)}\n`,
+      `${c.mode.padEnd(17)}${String(c.evaluationsPerTrial).padEnd(13)}${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.cpuNsPerTrial.toFixed(0).padEnd(14)}${c.loadAverage.toFixed(2)}\n`,
     );
   }
   process.stdout.write(`\n${startupTable(startup)}`);
