@@ -79,7 +79,7 @@ describe('Ctrl-C while the samples CSV is being streamed to disk (subprocess sen
     const poll = setInterval(() => {
       if (sentAt !== 0) return;
       const names = readdirSync(dir);
-      const temporary = names.find((n) => /^\.out\.csv\..+\.tmp$/.test(n));
+      const temporary = names.find((n) => /^\.tf-[A-Za-z0-9_-]{6}$/.test(n));
       if (temporary === undefined) return;
       let bytes = 0;
       try {
@@ -97,7 +97,7 @@ describe('Ctrl-C while the samples CSV is being streamed to disk (subprocess sen
     clearInterval(poll);
     const secondsToStop = (performance.now() - sentAt) / 1000;
     expect(sentAt, `the temporary file never passed 4 MB; stderr: ${stderr}`).toBeGreaterThan(0);
-    expect(namesAtSignal, 'mid-file: only the temporary file, no out.csv yet').toEqual([expect.stringMatching(/^\.out\.csv\..+\.tmp$/)]);
+    expect(namesAtSignal, 'mid-file: only the temporary file, no out.csv yet').toEqual([expect.stringMatching(/^\.tf-[A-Za-z0-9_-]{6}$/)]);
     expect(bytesAtSignal).toBeLessThan(1e9); // far from the whole file (about 1.5 GB)
     expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
     expect(ended.code, stderr).toBe(130);

@@ -3,8 +3,6 @@
 // through src/cli/output-file.ts (atomic, never over an existing file without --force). The CSV is streamed: each
 // chunk of trials is drawn, rendered and written in turn, with a pause for the event loop between chunks (so Ctrl-C
 // is answered and the half-written temporary file removed), and memory stays flat whatever --sample-rows is.
-import { existsSync, statSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
 import { Option } from 'commander';
 import { spreadSamples, type SpreadSamples } from '../design/spread-samples.js';
 import type { SpreadRun } from '../design/spread-study.js';
@@ -12,7 +10,8 @@ import { InputError } from '../errors.js';
 import type { ReportTable } from '../report/html-report.js';
 import { samplesCsvHeader, samplesCsvRows } from '../report/samples-csv.js';
 import { renderSpreadRunHtml, type SpreadRunHtmlOptions } from '../report/spread-run-html.js';
-import { writeOutputFile, writeOutputFileStreaming, type WriteText } from './output-file.js';
+import { printableText } from '../user-text.js';
+import { checkOutputTarget, sameOutputFile, writeOutputFile, writeOutputFileStreaming, type WriteText } from './output-file.js';
 import { VERSION } from './version.js';
 
 /** Rows written to the samples CSV unless --sample-rows says otherwise (about 50 MB for a typical design). */
@@ -42,25 +41,14 @@ export interface SpreadFiles {
   tables?: ReportTable[];
 }
 
-/** Refuses an existing output file before the run (writeOutputFile checks again when it writes). */
-function refuseExisting(path: string | undefined, where: string, force: boolean): void {
-  if (path === undefined) return;
-  const folder = dirname(resolve(path));
-  if (!existsSync(folder) || !statSync(folder).isDirectory()) {
-    throw new InputError(where, `the folder ${folder} does not exist`, 'a file path in an existing folder');
-  }
-  if (existsSync(path) && statSync(path).isDirectory()) throw new InputError(where, `${path} is a folder, not a file`, 'a file path');
-  if (force) return;
-  if (existsSync(path)) throw new InputError(where, `${path} already exists and would be overwritten`, 'a new file name, or --force to replace it');
-}
-
-/** Refuses, before any analysis runs, files that could not be written: an existing file without force, a missing
- * folder, a folder named as a file, or the samples and the report in one file. */
+/** Refuses, before any analysis runs, files that could not be written (src/cli/output-file.ts checkOutputTarget:
+ * an existing file without force, a missing or unwritable folder, a folder or device named as a file), or the samples
+ * and the report in one file under any two spellings. */
 export function checkSpreadFiles(files: SpreadFiles): void {
-  refuseExisting(files.samples, '--samples', files.force);
-  refuseExisting(files.report, '--report', files.force);
-  if (files.samples !== undefined && files.report !== undefined && files.samples === files.report) {
-    throw new InputError('--report', 'the same file as --samples', 'two different file names');
+  if (files.samples !== undefined) checkOutputTarget(files.samples, { force: files.force, where: '--samples' });
+  if (files.report !== undefined) checkOutputTarget(files.report, { force: files.force, where: '--report' });
+  if (files.samples !== undefined && files.report !== undefined && sameOutputFile(files.samples, files.report)) {
+    throw new InputError('--report', `the same file as --samples (${printableText(files.report)} and ${printableText(files.samples)})`, 'two different files');
   }
 }
 
