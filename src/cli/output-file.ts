@@ -10,6 +10,7 @@ import { randomBytes } from 'node:crypto';
 import { closeSync, existsSync, fsyncSync, linkSync, openSync, realpathSync, renameSync, statSync, unlinkSync, writeSync, type Stats } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { InputError } from '../errors.js';
+import { fileKind } from '../input-file.js';
 import { printableText } from '../user-text.js';
 
 export interface WriteOptions {
@@ -152,15 +153,6 @@ function statOrUndefined(path: string): Stats | undefined {
   } catch {
     return undefined;
   }
-}
-
-/** What a non-regular file is, in words. */
-function fileKind(stats: Stats): string {
-  if (stats.isCharacterDevice()) return 'a character device';
-  if (stats.isBlockDevice()) return 'a block device';
-  if (stats.isFIFO()) return 'a named pipe (FIFO)';
-  if (stats.isSocket()) return 'a socket';
-  return 'not a regular file';
 }
 
 /** Creates and removes a temporary file in the folder, so a read-only or no-permission folder is refused before the

@@ -22,6 +22,7 @@ import {
   type WindowInput,
 } from './fields.js';
 import { GRADE_NAMES } from './grades.js';
+import { printableText } from '../user-text.js';
 
 /** Adds what a field means in front of what it accepts (the value field's own description). */
 function describe<T extends z.ZodType>(schema: T, meaning: string): T {
@@ -333,7 +334,7 @@ export const DesignSchema = z
           code: 'custom',
           path: ['resistors', 'overrides', name],
           input: name,
-          message: `no part '${name}' in this design`,
+          message: `no part '${printableText(name)}' in this design`,
           params: { accepted: `a designator of this design: ${placed.join(', ')}`, unknownKey: name, validKeys: placed },
         });
       }
