@@ -186,16 +186,25 @@ const ROWS: Row[] = [
     says: /'__proto__' is not accepted as a field name or designator/,
   },
   // inputs that are not regular files, or too large: refused up front (were: 16.8 GB then std::bad_alloc; a FIFO hung)
-  { alone: true, args: ['spread', '/dev/zero'], code: 2, where: '/dev/zero:', says: /is a character device, not a regular file; accepted: the path of a design file \(JSON, a regular file of at most 16 MB\)/ },
-  { args: ['nearest', '4k7', '--stock', '/dev/zero'], code: 2, where: '--stock:', says: /'\/dev\/zero' is a character device, not a regular file; accepted: .*at most 100000 lines and 16 MB/ },
+  { alone: true, args: ['spread', '/dev/zero'], code: 2, where: '/dev/zero:', says: /is a character device, not a regular file; accepted: the path of a design file \(JSON, a regular file of at most 1 MB\)/ },
+  { args: ['nearest', '4k7', '--stock', '/dev/zero'], code: 2, where: '--stock:', says: /'\/dev\/zero' is a character device, not a regular file; accepted: .*at most 50000 lines and 8 MB/ },
   { args: ['spread', fifo('design.fifo')], code: 2, where: `${dir}/design.fifo:`, says: /is a named pipe \(FIFO\), not a regular file/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--stock', fifo('stock.fifo')], code: 2, where: '--stock:', says: /is a named pipe \(FIFO\), not a regular file/ },
-  { args: ['spread', fileWith('huge.json', Buffer.alloc(16 * 2 ** 20 + 1, 32))], code: 2, where: `${dir}/huge.json:`, says: /is larger than 16 MB, the most accepted/ },
-  { args: ['nearest', '4k7', '--stock', stockFile('stock-100001', 100_001)], code: 2, where: '--stock ', says: /the stock list has more than 100000 lines; accepted: .*at most 100000 lines/ },
-  // hostile text: control characters shown escaped, long text cut (were: raw ESC/CR/NUL; a 20 MB "line" after 26 s)
+  { args: ['spread', fileWith('huge.json', Buffer.alloc(2 ** 20 + 1, 32))], code: 2, where: `${dir}/huge.json:`, says: /is larger than 1 MB, the most accepted/ },
+  { args: ['nearest', '4k7', '--stock', stockFile('stock-50001', 50_001)], code: 2, where: '--stock ', says: /the stock list has more than 50000 lines; accepted: .*at most 50000 lines/ },
+  // a search over 100 000 shunt candidates took 26.8 s and ignored Ctrl-C: the list is capped
+  { args: ['sense', '--limit', '3A', '--threshold', '1V', '--shunts', Array.from({ length: 1001 }, (_, i) => `${20 + i}m`).join(',')], code: 2, where: '--shunts:', says: /1001 values are more than the 1000 the search takes; accepted: a comma-separated list of at most 1000 resistances/ },
+  {
+    args: ['spread', chargerWith('many-shunts', (d) => (d.current.shunt.candidates = Array.from({ length: 1001 }, (_, i) => `${20 + i / 10}m`))), ...T],
+    code: 2,
+    where: 'current.shunt.candidates:',
+    says: /a list of 1001 is out of range.*; accepted: shunt values to choose from for "auto", at most 1000/,
+  },
+  // hostile text: control characters shown escaped, long text cut (were: raw ESC/CR/NUL; a 20 MB "line" after 26 s;
+  // a 10 MB key is now refused by the 1 MB cap, so the long key here is 900 000 characters)
   { args: ['nearest', '4k7', '--stock', fileWith('esc-stock.txt', '1k\n4\u001b[2J7\n')], code: 2, where: '--stock ', says: /line 2: unexpected character '\\x1b' at position 2 in '4\\x1b\[2J7'/ },
   { args: ['spread', chargerWith('esc-key', (d) => (d.voltage['\u001b]0;owned\u0007\rtrimfree: ok'] = 1)), ...T], code: 2, where: 'voltage.\\x1b]0;owned\\x07\\rtrimfree: ok:', says: /unknown field '\\x1b]0;owned\\x07\\rtrimfree: ok'/ },
-  { args: ['spread', chargerWith('long-key', (d) => (d.voltage['k'.repeat(10_000_000)] = 1)), ...T], code: 2, where: `voltage.${'k'.repeat(79)}…:`, says: /unknown field 'k{79}…'; accepted: the fields of voltage/ },
+  { args: ['spread', chargerWith('long-key', (d) => (d.voltage['k'.repeat(900_000)] = 1)), ...T], code: 2, where: `voltage.${'k'.repeat(79)}…:`, says: /unknown field 'k{79}…'; accepted: the fields of voltage/ },
   { args: ['nearest', `4k7\u0000\u001b[2J`], code: 2, where: 'value:', says: /unexpected character '\\x00' at position 4 in '4k7\\x00\\x1b\[2J'/ },
   // the yield gate: input fine, design below the bar: exit 1 after the full report
   { alone: true, args: ['spread', LED, ...T, '--fail-under-yield', '100'], code: 1, where: '--fail-under-yield 100 %:', says: /ilimit yield \d+\.\d+ % is below 100 %/ },

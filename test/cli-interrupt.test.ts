@@ -53,7 +53,8 @@ describe('Ctrl-C during a long run (subprocess sent SIGINT)', { timeout: 120_000
       expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
       expect(ended.code, ended.stderr).toBe(130);
       expect(ended.stdout).toBe('');
-      expect(ended.stderr.trim()).toMatch(/^trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
+      // Each of these runs takes well over a minute, so it first says how long (src/cli/work-budget.ts).
+      expect(ended.stderr.trim()).toMatch(/^note: this run will take about \d+(\.\d)? (min|h) \(estimate: .*trials.*\); Ctrl-C stops it\n+trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
       expect(readdirSync(dir), 'no output, partial or temporary file').toEqual([]);
       // It stops when asked, not after the run: a generous bound for a loaded two-core machine (the runs asked
       // for take minutes).

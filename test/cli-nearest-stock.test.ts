@@ -18,7 +18,7 @@ beforeAll(() => {
   const dir = mkdtempSync(join(tmpdir(), 'trimfree-stock-'));
   stock = join(dir, 'drawer.txt');
   writeFileSync(stock, '4.7k\n10k\n1k\n2K2\n');
-});
+}, 120_000); // a full tsc build: well over the 10 s default on a loaded two-core machine
 
 describe('nearest --stock', () => {
   it('20 kΩ from {1k, 2.2k, 4.7k, 10k}: nothing above, 10k below (−50 %), and 10k + 10k is exact', () => {

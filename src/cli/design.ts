@@ -15,6 +15,7 @@ import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersF
 import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
+import { startWork } from './work-budget.js';
 import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
 interface DesignCliOptions extends AnalysisCliOptions {
@@ -34,16 +35,19 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   const resolved = resolveDesign(loadDesignFile(file));
   const cli = commandLineAnalysis(options);
   // The spread as `spread` runs it (same default trial count), then the grade study as `grades` runs it.
-  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS), progressToTerminal);
+  const spreadChoice = analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS);
+  const gradesChoice = analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS);
+  const estimate = startWork(resolved, options.grades ? { spread: spreadChoice, grades: { choice: gradesChoice, searchTrials: options.searchTrials } } : { spread: spreadChoice });
+  const spread = await runSpread(resolved, spreadChoice, progressToTerminal);
   const grades = options.grades
-    ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
+    ? await runGrades(resolved, gradesChoice, { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
     : undefined;
   if (grades) {
     refuseUnreachableTarget(grades, command);
     files.tables = gradesReportTables(grades);
   }
   const written = await writeSpreadFiles(spread, files);
-  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION)) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
+  process.stdout.write(options.json ? stringifyReport({ ...(designReportJson(spread, grades, VERSION) as object), workEstimate: estimate }) : renderDesignText(spread, grades, { subject: file, version: VERSION }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
 }

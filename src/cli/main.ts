@@ -2,8 +2,9 @@
 // Entry point: runs the program (src/cli/run.ts decides the exit code and the one line on stderr) and handles
 // the process's own events: Ctrl-C (SIGINT) and SIGTERM stop the run, remove any output file still being written
 // and exit 130 (143); a closed stdout (`trimfree values E192 | head`) ends the run quietly.
+// The signal handlers are installed first thing, before the program and its commands are loaded (a tenth of a
+// second), so a Ctrl-C at any moment ends the same way; only output-file.js, which they need, is loaded before.
 import { removePendingTemporaries } from './output-file.js';
-import { EXIT_INTERRUPTED, runCli } from './run.js';
 
 function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
   process.once(signal, () => {
@@ -17,7 +18,7 @@ function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
   });
 }
 
-onSignal('SIGINT', EXIT_INTERRUPTED);
+onSignal('SIGINT', 128 + 2); // EXIT_INTERRUPTED in run.ts
 onSignal('SIGTERM', 128 + 15);
 
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
@@ -26,6 +27,7 @@ process.stdout.on('error', (error: NodeJS.ErrnoException) => {
   process.exit(1);
 });
 
+const { runCli } = await import('./run.js');
 const outcome = await runCli(process.argv);
 if (outcome.line !== undefined) process.stderr.write(`trimfree: ${outcome.line}\n`);
 // Let stdout drain (a large report through a pipe) and end naturally; should anything still hold the process

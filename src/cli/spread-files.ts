@@ -52,6 +52,12 @@ export function checkSpreadFiles(files: SpreadFiles): void {
   }
 }
 
+/** Says so on stderr when --sample-rows asks for more rows than the run has trials (the CSV holds every trial). */
+export function noteSampleRows(run: SpreadRun, sampleRows: number): void {
+  const trials = run.result.trials;
+  if (sampleRows > trials) process.stderr.write(`note: --sample-rows ${sampleRows} is more than the run's ${trials} trials; the samples CSV holds all ${trials}\n`);
+}
+
 /** Writes the CSV and HTML files asked for; returns their paths. */
 export async function writeSpreadFiles(run: SpreadRun, files: SpreadFiles): Promise<string[]> {
   const written: string[] = [];

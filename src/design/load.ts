@@ -10,9 +10,10 @@ import { suggestField } from './suggest-field.js';
 type Issue = z.core.$ZodIssue;
 type Path = readonly PropertyKey[];
 
-/** Largest design file read: a design is a few kilobytes; 16 MB leaves room for any notes while a device or an
- * endless file (/dev/zero) is refused instead of filling memory. */
-export const MAX_DESIGN_FILE_BYTES = 16 * 2 ** 20;
+/** Largest design file read: a design is a few kilobytes (the examples 2–4 kB), so 1 MB leaves room for any notes,
+ * while a device or an endless file (/dev/zero) is refused instead of filling memory. Reading, checking and reporting
+ * happen on the calling thread: a 16 MB file of notes took 2–4 s (Ctrl-C waits for it); 1 MB takes a small part. */
+export const MAX_DESIGN_FILE_BYTES = 2 ** 20;
 
 /** Reads, parses and validates a design file. */
 export function loadDesignFile(path: string): Design {
