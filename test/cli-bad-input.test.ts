@@ -68,6 +68,7 @@ const ROWS: Row[] = [
   { alone: true, args: ['values', 'E25'], code: 2, where: 'series:', says: /unknown series 'E25'; accepted: E3, E6, E12, E24, E48, E96, E192/ },
   { args: ['values', 'E24', '--from', '10k', '--to', '1k'], code: 2, where: '--from/--to:', says: /inverted.*accepted: --from ≤ --to/ },
   { args: ['values', 'E24', '--from', '4x7'], code: 2, where: '--from:', says: /unexpected character 'x' at position 2 in '4x7'; accepted: .*4K7/ },
+  { args: ['values', 'E192', '--from', '1u', '--to', '1T'], code: 2, where: '--from/--to:', says: /the range spans 18 decades, more than the 10 listed at once; accepted: a range of at most 10 decades \(E192 over 10 decades is 1920 values\)/ },
   { args: ['values', 'E24', '--to', '0'], code: 2, where: '--to:', says: /greater than zero, got '0'/ },
   { alone: true, args: ['values', 'E24', '--bogus'], code: 2, where: "unknown option '--bogus'", says: /see 'trimfree values --help'/ },
   { alone: true, args: ['values'], code: 2, where: "missing required argument 'series'", says: /see 'trimfree values --help'/ },
@@ -206,6 +207,13 @@ const ROWS: Row[] = [
   { args: ['spread', chargerWith('esc-key', (d) => (d.voltage['\u001b]0;owned\u0007\rtrimfree: ok'] = 1)), ...T], code: 2, where: 'voltage.\\x1b]0;owned\\x07\\rtrimfree: ok:', says: /unknown field '\\x1b]0;owned\\x07\\rtrimfree: ok'/ },
   { args: ['spread', chargerWith('long-key', (d) => (d.voltage['k'.repeat(900_000)] = 1)), ...T], code: 2, where: `voltage.${'k'.repeat(79)}…:`, says: /unknown field 'k{79}…'; accepted: the fields of voltage/ },
   { args: ['nearest', `4k7\u0000\u001b[2J`], code: 2, where: 'value:', says: /unexpected character '\\x00' at position 4 in '4k7\\x00\\x1b\[2J'/ },
+  {
+    // was: "output ilimit: 34 Monte Carlo trials gave no finite value", naming no field
+    args: ['spread', chargerWith('runaway', (d) => (d.current.shunt.thermalResistance = '9999 K/W')), ...T],
+    code: 2,
+    where: 'current.shunt.thermalResistance:',
+    says: /θ = 9999 K\/W with 226 mW at the limit heats the shunt 2261 K above ambient, shifting it by 17 % through its ±75 ppm\/K TCR.*; to fix: lower current\.shunt\.thermalResistance/,
+  },
   // the yield gate: input fine, design below the bar: exit 1 after the full report
   { alone: true, args: ['spread', LED, ...T, '--fail-under-yield', '100'], code: 1, where: '--fail-under-yield 100 %:', says: /ilimit yield \d+\.\d+ % is below 100 %/ },
 ];
