@@ -28,14 +28,15 @@ export interface PlannedWork {
 export interface WorkEstimate {
   /** Trials evaluated in all (the grade search counted at its most evaluations); null for an adaptive ('auto') run. */
   trials: number | null;
-  /** Estimated wall time, seconds; null when the trials are not known in advance. */
-  estimatedSeconds: number | null;
+  /** Estimated time on one computing thread, seconds (the same for any --workers and machine, so the JSON stays
+   * byte-identical across worker counts); null when the trials are not known in advance. */
+  estimatedSecondsOnOneThread: number | null;
   /** What the estimate is based on. */
   basis: string;
 }
 
 /** The work's trial count and time estimate; InputError when it is past MAX_RUN_TRIALS in all. */
-export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: number): WorkEstimate {
+export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: number): { estimate: WorkEstimate; wallSeconds: number | null } {
   const parts: string[] = [];
   // Monte Carlo runs spread over the threads; the all-specs yields and the grade search run on the calling thread.
   let parallel = 0;
@@ -69,28 +70,29 @@ export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: n
       'fewer trials: past about 1e7 trials the figures change little (compare two seeds instead)',
     );
   }
-  const basis = `${parts.join(' + ') || 'an adaptive run (length not known in advance)'}, at about ${TRIALS_PER_SECOND_PER_THREAD} trials a second a thread, Monte Carlo runs on ${threads} threads, yields and the search on one (rate measured on the charger example; larger designs are slower)`;
-  if (!known) return { trials: null, estimatedSeconds: null, basis };
-  const seconds = parallel / (TRIALS_PER_SECOND_PER_THREAD * Math.max(1, threads)) + serial / TRIALS_PER_SECOND_PER_THREAD;
-  return { trials, estimatedSeconds: Math.round(seconds), basis };
+  const basis = `${parts.join(' + ') || 'an adaptive run (length not known in advance)'}, at about ${TRIALS_PER_SECOND_PER_THREAD} trials a second a thread (measured on the charger example; larger designs are slower)`;
+  if (!known) return { estimate: { trials: null, estimatedSecondsOnOneThread: null, basis }, wallSeconds: null };
+  const wall = parallel / (TRIALS_PER_SECOND_PER_THREAD * Math.max(1, threads)) + serial / TRIALS_PER_SECOND_PER_THREAD;
+  return { estimate: { trials, estimatedSecondsOnOneThread: Math.round(trials / TRIALS_PER_SECOND_PER_THREAD), basis }, wallSeconds: Math.round(wall) };
 }
 
 /** Plans the work of a command (refusing too much), and prints the choice's notes (e.g. workers capped) and, for a
  * run of more than about a minute, the estimate, on stderr before the run starts. */
 export function startWork(resolved: ResolvedDesign, work: PlannedWork): WorkEstimate {
   const choice = work.spread ?? work.grades!.choice;
-  const estimate = planWork(resolved, work, choice.workers ?? availableParallelism());
+  const threads = choice.workers ?? availableParallelism();
+  const { estimate, wallSeconds } = planWork(resolved, work, threads);
   const notes = new Set([...(work.spread?.notes ?? []), ...(work.grades?.choice.notes ?? [])]);
   for (const note of notes) process.stderr.write(`note: ${note}\n`);
-  const line = estimateLine(estimate);
+  const line = estimateLine(wallSeconds, threads, estimate);
   if (line !== undefined) process.stderr.write(`${line}\n`);
   return estimate;
 }
 
-/** The line printed before a long run, or undefined for a run under about a minute. */
-export function estimateLine(estimate: WorkEstimate): string | undefined {
-  if (estimate.estimatedSeconds === null || estimate.estimatedSeconds <= ANNOUNCE_ABOVE_SECONDS) return undefined;
-  const s = estimate.estimatedSeconds;
-  const time = s < 3600 ? `${Math.round(s / 60)} min` : `${(s / 3600).toFixed(1)} h`;
-  return `note: this run will take about ${time} (estimate: ${estimate.basis}); Ctrl-C stops it`;
+/** The line printed before a long run, or undefined for a run under about a minute. Wall time: Monte Carlo runs on
+ * `threads` threads, the all-specs yields and the grade search on one. */
+export function estimateLine(wallSeconds: number | null, threads: number, estimate: WorkEstimate): string | undefined {
+  if (wallSeconds === null || wallSeconds <= ANNOUNCE_ABOVE_SECONDS) return undefined;
+  const time = wallSeconds < 3600 ? `${Math.round(wallSeconds / 60)} min` : `${(wallSeconds / 3600).toFixed(1)} h`;
+  return `note: this run will take about ${time} (estimate: ${estimate.basis}; Monte Carlo on ${threads} threads, yields and the grade search on one); Ctrl-C stops it`;
 }
