@@ -32,17 +32,22 @@ export function readInputText(path: string, options: InputFileOptions): string {
     if (stats.isDirectory()) throw new InputError(where, `${shown}is a folder, not a file`, options.accepted);
     if (!stats.isFile()) throw new InputError(where, `${shown}is ${fileKind(stats)}, not a regular file`, options.accepted);
     if (stats.size > options.maxBytes) throw tooLarge(where, shown, options);
-    // Read to the cap plus one byte, whatever size was reported (a file still growing is cut off, then refused).
-    const buffer = Buffer.alloc(Math.min(stats.size, options.maxBytes) + 1);
+    // Read to the end, but never past the cap plus one byte, whatever size was reported (a file still growing, or
+    // one that reports no size at all such as those under /proc, is read as it is).
+    let buffer = Buffer.alloc(Math.min(stats.size, options.maxBytes) + 1);
     let length = 0;
     for (;;) {
+      if (length === buffer.length) {
+        if (length > options.maxBytes) throw tooLarge(where, shown, options);
+        const grown = Buffer.alloc(Math.min(buffer.length * 2, options.maxBytes + 1));
+        buffer.copy(grown, 0, 0, length);
+        buffer = grown;
+      }
       const n = readSync(fd, buffer, length, buffer.length - length, null);
       if (n === 0) break;
       length += n;
-      if (length > options.maxBytes) throw tooLarge(where, shown, options);
-      if (length === buffer.length) break;
     }
-    if (length === buffer.length && length > options.maxBytes) throw tooLarge(where, shown, options);
+    if (length > options.maxBytes) throw tooLarge(where, shown, options);
     return buffer.toString('utf8', 0, length);
   } catch (error) {
     if (error instanceof InputError) throw error;
