@@ -68,7 +68,7 @@ const ROWS: Row[] = [
   { alone: true, args: ['values', 'E25'], code: 2, where: 'series:', says: /unknown series 'E25'; accepted: E3, E6, E12, E24, E48, E96, E192/ },
   { args: ['values', 'E24', '--from', '10k', '--to', '1k'], code: 2, where: '--from/--to:', says: /inverted.*accepted: --from ≤ --to/ },
   { args: ['values', 'E24', '--from', '4x7'], code: 2, where: '--from:', says: /unexpected character 'x' at position 2 in '4x7'; accepted: .*4K7/ },
-  { args: ['values', 'E192', '--from', '1u', '--to', '1T'], code: 2, where: '--from/--to:', says: /the range spans 18 decades, more than the 10 listed at once; accepted: a range of at most 10 decades \(E192 over 10 decades is 1920 values\)/ },
+  { args: ['values', 'E192', '--from', '1', '--to', '10M'], code: 2, where: '--from/--to:', says: /the range holds 1345 E192 values, more than the 1200 a table lists; accepted: a narrower range \(E192: at most 6 decades\), or --json/ },
   { args: ['values', 'E24', '--to', '0'], code: 2, where: '--to:', says: /greater than zero, got '0'/ },
   { alone: true, args: ['values', 'E24', '--bogus'], code: 2, where: "unknown option '--bogus'", says: /see 'trimfree values --help'/ },
   { alone: true, args: ['values'], code: 2, where: "missing required argument 'series'", says: /see 'trimfree values --help'/ },

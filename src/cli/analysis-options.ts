@@ -52,7 +52,7 @@ export function trialsFlag(help: string): Option {
 
 /** `--workers <n>`. */
 export function workersFlag(): Option {
-  return new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers'));
+  return new Option('--workers <n>', "worker threads, capped at the cores; results do not depend on it (default: the file's, else every core)").argParser(workersOption('--workers'));
 }
 
 /** The parsed --seed, --trials and --workers as commander gives them. */
