@@ -6,7 +6,7 @@
 // Rows marked `alone` run as their own subprocess through the real entry point (dist/src/cli/main.js); the rest run
 // in ONE batch subprocess that calls the same runCli on each row in turn (node's start-up, not the rows, was most
 // of the table's time), so the whole table costs a few seconds on two cores.
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -16,6 +16,29 @@ import { PROJECT_ROOT } from '../src/project-root.js';
 const MAIN = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 const CHARGER = 'examples/charger-2s-liion.json';
 const LED = 'examples/led-driver-highside.json';
+
+/** A stock list of `n` distinct values spread evenly in log over 10 Ω..10 MΩ (so 5/6 of them lie in 1 Ω..1 MΩ). */
+function stockFile(name: string, n: number): string {
+  const lines: string[] = [];
+  for (let i = 0; i < n; i++) lines.push((10 * 10 ** ((6 * i) / n)).toPrecision(7));
+  const path = join(dir, `${name}.txt`);
+  writeFileSync(path, `${lines.join('\n')}\n`);
+  return path;
+}
+
+/** A file of `text` in the temporary folder. */
+function fileWith(name: string, text: string | Buffer): string {
+  const path = join(dir, name);
+  writeFileSync(path, text);
+  return path;
+}
+
+/** A FIFO in the temporary folder (mkfifo needs no privilege). */
+function fifo(name: string): string {
+  const path = join(dir, name);
+  spawnSync('mkfifo', [path]);
+  return path;
+}
 
 /** The charger example with one change, written to a temporary file (for the impossible requests a design states). */
 const dir = mkdtempSync(join(tmpdir(), 'trimfree-bad-'));
@@ -45,6 +68,7 @@ const ROWS: Row[] = [
   { alone: true, args: ['values', 'E25'], code: 2, where: 'series:', says: /unknown series 'E25'; accepted: E3, E6, E12, E24, E48, E96, E192/ },
   { args: ['values', 'E24', '--from', '10k', '--to', '1k'], code: 2, where: '--from/--to:', says: /inverted.*accepted: --from ≤ --to/ },
   { args: ['values', 'E24', '--from', '4x7'], code: 2, where: '--from:', says: /unexpected character 'x' at position 2 in '4x7'; accepted: .*4K7/ },
+  { args: ['values', 'E192', '--from', '1', '--to', '10M'], code: 2, where: '--from/--to:', says: /the range holds 1345 E192 values, more than the 1200 a table lists; accepted: a narrower range \(E192: at most 6 decades\), or --json/ },
   { args: ['values', 'E24', '--to', '0'], code: 2, where: '--to:', says: /greater than zero, got '0'/ },
   { alone: true, args: ['values', 'E24', '--bogus'], code: 2, where: "unknown option '--bogus'", says: /see 'trimfree values --help'/ },
   { alone: true, args: ['values'], code: 2, where: "missing required argument 'series'", says: /see 'trimfree values --help'/ },
@@ -62,10 +86,15 @@ const ROWS: Row[] = [
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--bottom', '10k..1k'], code: 2, where: '--bottom:', says: /'10k\.\.1k' is inverted.*accepted: LO\.\.HI with LO ≤ HI/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--parts', '4'], code: 2, where: '--parts:', says: /4 is out of range; accepted: a whole number from 2 to 3/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--tolerance', '150%'], code: 2, where: '--tolerance:', says: /'150%' is out of range; accepted: 0 % to 50 %/ },
-  { args: ['divider', '--vref', '1.25', '--vout', '12', '--stock', '/nonexistent/stock.txt'], code: 2, where: '--stock:', says: /cannot read '\/nonexistent\/stock\.txt'; accepted: a readable text file/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--stock', '/nonexistent/stock.txt'], code: 2, where: '--stock:', says: /cannot read '\/nonexistent\/stock\.txt' \(no such file\); accepted: a readable text file/ },
   { args: ['divider', '--vref', '1.25', '--vout', '3.3..24'], code: 2, where: '--vout:', says: /needs a pot; accepted: a single voltage, or a range with --pot/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--pot', '10k', '--pot-leg', 'middle'], code: 2, where: "option '--pot-leg <leg>' argument 'middle' is invalid", says: /Allowed choices are top, bottom/ },
-  { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', '1A'], code: 2, where: 'bottom resistor:', says: /100×\|Ifb\|.*; to fix: widen --bottom/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', '1A'], code: 2, where: '--bottom:', says: /100×\|Ifb\|.*; to fix: widen --bottom or --current, .*smaller bias current \(--ifb\) or lower --bias-ratio$/ },
+  // a negative divider-current window was silently ignored (exit 0 with 91 µA and 912 µA candidates)
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--current', '-1mA..-10uA'], code: 2, where: '--current:', says: /window -1\.00 mA\.\.-10\.0 µA is not above zero; accepted: LO\.\.HI with 0 < LO ≤ HI/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--current', '0A..1mA'], code: 2, where: '--current:', says: /is not above zero/ },
+  // a three-part search over a huge list took minutes and ignored Ctrl-C: refused with the size it takes
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--parts', '3', '--stock', stockFile('stock-3000', 3000)], code: 2, where: '--stock:', says: /25\d\d distinct values between 1\.00 Ω and 1\.00 MΩ are more than the 2000 a three-part search takes.*; accepted: at most 2000 values in range with --parts 3/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', '20n..10n'], code: 2, where: '--ifb:', says: /'20n\.\.10n' is inverted.*; accepted: a current as a typical value \(20n: exactly 20 nA\), a ± band .*max 20n/ },
   { args: ['divider', '--vref', '1.25', '--vout', '12', '--ifb', 'max -5n'], code: 2, where: '--ifb:', says: /a maximum must not be negative.*; accepted: .*for a current out of the pin give a range/ },
   { args: ['sense', '--limit', '3A', '--threshold', '1V', '--ib', '20n±'], code: 2, where: '--ib:', says: /empty current.*; accepted: a current as a typical value/ },
@@ -148,6 +177,53 @@ const ROWS: Row[] = [
     code: 2,
     where: 'voltage.tagret:',
     says: /unknown field 'tagret' \(did you mean 'target'\?\)/,
+  },
+  // the same refusals from a design file name its fields and offer remedies that exist there
+  {
+    args: ['spread', chargerWith('negative-current', (d) => (d.voltage.search.current = '-1mA..-10uA')), ...T],
+    code: 2,
+    where: 'voltage.search.current:',
+    says: /is not above zero; accepted: LO\.\.HI with 0 < LO ≤ HI/,
+  },
+  {
+    args: ['spread', chargerWith('bias-rule', (d) => ((d.voltage.feedbackBias = '100uA'), (d.voltage.search.bottom = '10k..100k'))), ...T],
+    code: 2,
+    where: 'voltage.search.bottom:',
+    says: /no bottom resistor satisfies.*; to fix: widen voltage\.search\.bottom or voltage\.search\.current, or \(if the feedback-pin rule binds\) use a regulator with a smaller bias current \(voltage\.feedbackBias\)$/,
+  },
+  {
+    args: ['spread', chargerWith('proto', (d) => (d.resistors.overrides = JSON.parse('{"__proto__": {"grade": "5%"}}'))), ...T],
+    code: 2,
+    where: 'resistors.overrides.__proto__:',
+    says: /'__proto__' is not accepted as a field name or designator/,
+  },
+  // inputs that are not regular files, or too large: refused up front (were: 16.8 GB then std::bad_alloc; a FIFO hung)
+  { alone: true, args: ['spread', '/dev/zero'], code: 2, where: '/dev/zero:', says: /is a character device, not a regular file; accepted: the path of a design file \(JSON, a regular file of at most 1 MB\)/ },
+  { args: ['nearest', '4k7', '--stock', '/dev/zero'], code: 2, where: '--stock:', says: /'\/dev\/zero' is a character device, not a regular file; accepted: .*at most 50000 lines and 8 MB/ },
+  { args: ['spread', fifo('design.fifo')], code: 2, where: `${dir}/design.fifo:`, says: /is a named pipe \(FIFO\), not a regular file/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '12', '--stock', fifo('stock.fifo')], code: 2, where: '--stock:', says: /is a named pipe \(FIFO\), not a regular file/ },
+  { args: ['spread', fileWith('huge.json', Buffer.alloc(2 ** 20 + 1, 32))], code: 2, where: `${dir}/huge.json:`, says: /is larger than 1 MB, the most accepted/ },
+  { args: ['nearest', '4k7', '--stock', stockFile('stock-50001', 50_001)], code: 2, where: '--stock ', says: /the stock list has more than 50000 lines; accepted: .*at most 50000 lines/ },
+  // a search over 100 000 shunt candidates took 26.8 s and ignored Ctrl-C: the list is capped
+  { args: ['sense', '--limit', '3A', '--threshold', '1V', '--shunts', Array.from({ length: 1001 }, (_, i) => `${20 + i}m`).join(',')], code: 2, where: '--shunts:', says: /1001 values are more than the 1000 the search takes; accepted: a comma-separated list of at most 1000 resistances/ },
+  {
+    args: ['spread', chargerWith('many-shunts', (d) => (d.current.shunt.candidates = Array.from({ length: 1001 }, (_, i) => `${20 + i / 10}m`))), ...T],
+    code: 2,
+    where: 'current.shunt.candidates:',
+    says: /a list of 1001 is out of range.*; accepted: shunt values to choose from for "auto", at most 1000/,
+  },
+  // hostile text: control characters shown escaped, long text cut (were: raw ESC/CR/NUL; a 20 MB "line" after 26 s;
+  // a 10 MB key is now refused by the 1 MB cap, so the long key here is 900 000 characters)
+  { args: ['nearest', '4k7', '--stock', fileWith('esc-stock.txt', '1k\n4\u001b[2J7\n')], code: 2, where: '--stock ', says: /line 2: unexpected character '\\x1b' at position 2 in '4\\x1b\[2J7'/ },
+  { args: ['spread', chargerWith('esc-key', (d) => (d.voltage['\u001b]0;owned\u0007\rtrimfree: ok'] = 1)), ...T], code: 2, where: 'voltage.\\x1b]0;owned\\x07\\rtrimfree: ok:', says: /unknown field '\\x1b]0;owned\\x07\\rtrimfree: ok'/ },
+  { args: ['spread', chargerWith('long-key', (d) => (d.voltage['k'.repeat(900_000)] = 1)), ...T], code: 2, where: `voltage.${'k'.repeat(79)}…:`, says: /unknown field 'k{79}…'; accepted: the fields of voltage/ },
+  { args: ['nearest', `4k7\u0000\u001b[2J`], code: 2, where: 'value:', says: /unexpected character '\\x00' at position 4 in '4k7\\x00\\x1b\[2J'/ },
+  {
+    // was: "output ilimit: 34 Monte Carlo trials gave no finite value", naming no field
+    args: ['spread', chargerWith('runaway', (d) => (d.current.shunt.thermalResistance = '9999 K/W')), ...T],
+    code: 2,
+    where: 'current.shunt.thermalResistance:',
+    says: /θ = 9999 K\/W with 226 mW at the limit heats the shunt 2261 K above ambient, shifting it by 17 % through its ±75 ppm\/K TCR.*; to fix: lower current\.shunt\.thermalResistance/,
   },
   // the yield gate: input fine, design below the bar: exit 1 after the full report
   { alone: true, args: ['spread', LED, ...T, '--fail-under-yield', '100'], code: 1, where: '--fail-under-yield 100 %:', says: /ilimit yield \d+\.\d+ % is below 100 %/ },
@@ -242,6 +318,9 @@ describe('bad command-line input: the table (subprocesses: some alone through ma
       expect(lines[0]).toMatch(row.says);
       // No stack trace, no internal error, no NaN or Infinity (a given value may be echoed in quotes).
       expect(r.stderr).not.toMatch(/\bat .*\.js:\d+|internal error/);
+      // No raw control character (a hostile file must not drive the terminal), and a line a person can read.
+      expect(r.stderr.replace(/\n$/, '')).not.toMatch(/[\u0000-\u001f\u007f]/);
+      expect(lines[0]!.length).toBeLessThan(1000);
       expect(`${r.stdout}\n${r.stderr}`.replace(/'[^']*'/g, '')).not.toMatch(/NaN|Infinity/);
       // Exit 2 prints nothing on stdout; the yield gate prints the full report first.
       if (row.code === 2) expect(r.stdout).toBe('');

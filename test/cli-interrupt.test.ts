@@ -43,7 +43,8 @@ describe('Ctrl-C during a long run (subprocess sent SIGINT)', { timeout: 120_000
   const cases: Array<[string, string[]]> = [
     ['spread on worker threads, writing a report and a CSV', ['spread', CHARGER, '--trials', '1e9', '--report', 'out.html', '--samples', 'out.csv']],
     ['spread on the calling thread (--workers 1)', ['spread', CHARGER, '--trials', '1e9', '--workers', '1', '--report', 'out.html']],
-    ['design (spread, then grades), writing a report', ['design', CHARGER, '--trials', '1e9', '--report', 'out.html']],
+    // 5e8: design runs the spread and then every grade, 5e9 trials in all (1e9 each would pass the 1e10 total).
+    ['design (spread, then grades), writing a report', ['design', CHARGER, '--trials', '5e8', '--report', 'out.html']],
     ['grades in its grade search (joint yields on the calling thread)', ['grades', CHARGER, '--trials', '1000', '--search-trials', '10000000']],
   ];
   for (const [name, args] of cases) {
@@ -53,7 +54,8 @@ describe('Ctrl-C during a long run (subprocess sent SIGINT)', { timeout: 120_000
       expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
       expect(ended.code, ended.stderr).toBe(130);
       expect(ended.stdout).toBe('');
-      expect(ended.stderr.trim()).toMatch(/^trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
+      // Each of these runs takes well over a minute, so it first says how long (src/cli/work-budget.ts).
+      expect(ended.stderr.trim()).toMatch(/^note: this run will take about \d+(\.\d)? (min|h) \(estimate: .*trials.*\); Ctrl-C stops it\n+trimfree: interrupted \(SIGINT\); stopped, no output file left half-written$/);
       expect(readdirSync(dir), 'no output, partial or temporary file').toEqual([]);
       // It stops when asked, not after the run: a generous bound for a loaded two-core machine (the runs asked
       // for take minutes).
@@ -79,7 +81,7 @@ describe('Ctrl-C while the samples CSV is being streamed to disk (subprocess sen
     const poll = setInterval(() => {
       if (sentAt !== 0) return;
       const names = readdirSync(dir);
-      const temporary = names.find((n) => /^\.out\.csv\..+\.tmp$/.test(n));
+      const temporary = names.find((n) => /^\.tf-[A-Za-z0-9_-]{6}$/.test(n));
       if (temporary === undefined) return;
       let bytes = 0;
       try {
@@ -97,7 +99,7 @@ describe('Ctrl-C while the samples CSV is being streamed to disk (subprocess sen
     clearInterval(poll);
     const secondsToStop = (performance.now() - sentAt) / 1000;
     expect(sentAt, `the temporary file never passed 4 MB; stderr: ${stderr}`).toBeGreaterThan(0);
-    expect(namesAtSignal, 'mid-file: only the temporary file, no out.csv yet').toEqual([expect.stringMatching(/^\.out\.csv\..+\.tmp$/)]);
+    expect(namesAtSignal, 'mid-file: only the temporary file, no out.csv yet').toEqual([expect.stringMatching(/^\.tf-[A-Za-z0-9_-]{6}$/)]);
     expect(bytesAtSignal).toBeLessThan(1e9); // far from the whole file (about 1.5 GB)
     expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
     expect(ended.code, stderr).toBe(130);
@@ -134,6 +136,35 @@ describe('output files are never overwritten without --force', { timeout: 120_00
       expect(text).not.toBe('the user\'s own file\n');
       expect(text.length).toBeGreaterThan(100);
       expect(readdirSync(dir)).toEqual(['existing.out']);
+    });
+  }
+});
+
+describe('Ctrl-C during the largest accepted searches on the calling thread (subprocess sent SIGINT)', { timeout: 120_000 }, () => {
+  // The largest stock list accepted (50 000 CSV lines, about 8 MB): parsed in slices with pauses, then searched;
+  // and a 1 MB design file listing 1 000 shunt candidates, on a run of 1e9 trials. Before the caps, a million-line
+  // list held Ctrl-C for 12.9 s and a 100 000-candidate design for 26.8 s. The signal comes at several moments; each
+  // run ends by its own handler (exit 130), or had already finished (exit 0) when it came late.
+  const dir = mkdtempSync(join(tmpdir(), 'trimfree-int-search-'));
+  const csv = ['qty,value,mpn'];
+  for (let i = 0; i < 49_999; i++) csv.push(`${i % 500},${(10 * 10 ** ((6 * i) / 49_999)).toPrecision(6)},MPN-${String(i).padStart(8, '0')}-${'y'.repeat(120)}`);
+  writeFileSync(join(dir, 'stock.csv'), `${csv.join('\n')}\n`);
+  const design = JSON.parse(readFileSync(CHARGER, 'utf8')) as { notes: unknown; current: { shunt: Record<string, unknown> } };
+  design.current.shunt.candidates = Array.from({ length: 1000 }, (_, i) => `${(20 + i * 0.09).toPrecision(6)}m`);
+  design.notes = Array.from({ length: 200_000 }, () => 'x');
+  writeFileSync(join(dir, 'big.json'), JSON.stringify(design));
+  const cases: Array<[string, string[], number]> = [
+    ['nearest --stock (50 000 lines) --count 50', ['nearest', '4k7', '--stock', 'stock.csv', '--count', '50'], 700],
+    ['spread of a 1 MB design with 1 000 shunt candidates', ['spread', 'big.json', '--trials', '1e9'], 900],
+  ];
+  for (const [name, args, afterMs] of cases) {
+    it(`${name}: ends by its handler within a few seconds`, async () => {
+      const ended = await interruptAfter(args, dir, afterMs);
+      expect(ended.signal, 'ended by its own handler, not killed by the signal').toBeNull();
+      expect([0, 130], ended.stderr).toContain(ended.code);
+      if (ended.code === 130) expect(ended.stderr).toMatch(/trimfree: interrupted \(SIGINT\); stopped, no output file left half-written\n$/);
+      // A generous bound for a loaded two-core machine (idle, these answer within about 0.5 s: see the commit).
+      expect(ended.secondsToStop).toBeLessThan(5);
     });
   }
 });

@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { PROJECT_ROOT } from '../src/project-root.js';
+import { buildIfMissing } from './cli-subprocess.js';
 
 const CLI = join(PROJECT_ROOT, 'dist', 'src', 'cli', 'main.js');
 let stock = '';
@@ -14,11 +15,13 @@ function cli(...args: string[]) {
 }
 
 beforeAll(() => {
-  spawnSync('npx', ['tsc', '-p', PROJECT_ROOT], { cwd: PROJECT_ROOT });
+  // Build only when dist/ is missing: rebuilding it here raced the other test files' subprocesses (half-written
+  // dist files gave them exit 1 and timeouts on a loaded machine).
+  buildIfMissing();
   const dir = mkdtempSync(join(tmpdir(), 'trimfree-stock-'));
   stock = join(dir, 'drawer.txt');
   writeFileSync(stock, '4.7k\n10k\n1k\n2K2\n');
-});
+}, 120_000); // a full tsc build when dist/ is missing: well over the 10 s default on a loaded two-core machine
 
 describe('nearest --stock', () => {
   it('20 kΩ from {1k, 2.2k, 4.7k, 10k}: nothing above, 10k below (−50 %), and 10k + 10k is exact', () => {

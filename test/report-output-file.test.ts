@@ -79,7 +79,7 @@ describe('writeOutputFileStreaming: the same guarantees for a file written piece
       }
     }, { force: false, where: '--samples' });
     expect(readFileSync(path, 'utf8')).toBe('trial,R (Ω)\r\n0,1000\r\n1,1001\r\n2,1002\r\n');
-    for (const names of seen) expect(names).toEqual([expect.stringMatching(/^\.samples\.csv\.\d+\..+\.tmp$/)]);
+    for (const names of seen) expect(names).toEqual([expect.stringMatching(/^\.tf-[A-Za-z0-9_-]{6}$/)]);
     expect(readdirSync(dir)).toEqual(['samples.csv']);
   });
 

@@ -24,15 +24,15 @@ describe('stock list', () => {
     }
     expect(() => parseStockText('qty,value\n5,1k\n6,\n', 'stock')).toThrow(/value column is empty/);
   });
-  it('a CSV without a value column, an empty list, a missing file', () => {
+  it('a CSV without a value column, an empty list, a missing file', async () => {
     expect(() => parseStockText('qty,ohms\n1,1k\n', 'stock')).toThrow(/no "value" column/);
     expect(() => parseStockText('# nothing\n\n', 'stock')).toThrow(/empty/);
-    expect(() => readStockFile('/nonexistent/stock.txt', '--stock')).toThrow(/cannot read/);
+    await expect(readStockFile('/nonexistent/stock.txt', '--stock')).rejects.toThrow(/cannot read/);
   });
-  it('reads a file', () => {
+  it('reads a file', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'trimfree-stock-'));
     const path = join(dir, 'stock.txt');
     writeFileSync(path, '10k\n1k\n');
-    expect(readStockFile(path, '--stock')).toEqual([1000, 10000]);
+    expect(await readStockFile(path, '--stock')).toEqual([1000, 10000]);
   });
 });

@@ -9,8 +9,9 @@ import { createProgress } from './progress.js';
 
 /** Largest seed a design file accepts; the command line takes the same range. */
 const MAX_SEED = 2 ** 32 - 1;
-/** Most Monte Carlo trials a run accepts: at the engine's ~10 million trials per second (npm run bench) this is about
- * a quarter of an hour on two cores; more could not finish in any sensible time. */
+/** Most Monte Carlo trials a run accepts, in all (src/cli/work-budget.ts counts every grade and the search): at
+ * 1–10 million trials a second on two cores (the charger example; npm run bench) this is a quarter of an hour to two
+ * hours; more could not finish in any sensible time. */
 export const MAX_RUN_TRIALS = 1e10;
 const MIN_RUN_TRIALS = 100;
 
@@ -29,7 +30,7 @@ export function trialsOption(name: string): (value: string) => number | 'auto' {
     const n = Number(text);
     if (!Number.isInteger(n)) throw new InputError(name, `'${text}' is not a whole number of trials`, accepted);
     if (n > MAX_RUN_TRIALS) {
-      throw new InputError(name, `'${text}' trials could not finish in any sensible time (1e10 already takes about a quarter of an hour); refused before any work`, `${accepted}; past about 1e7 trials the figures change little: compare two seeds instead`);
+      throw new InputError(name, `'${text}' trials could not finish in any sensible time (1e10 already takes hours); refused before any work`, `${accepted}; past about 1e7 trials the figures change little: compare two seeds instead`);
     }
     if (n < MIN_RUN_TRIALS) throw new InputError(name, `${text} is out of range (too few trials for a spread)`, accepted);
     return n;
@@ -51,7 +52,7 @@ export function trialsFlag(help: string): Option {
 
 /** `--workers <n>`. */
 export function workersFlag(): Option {
-  return new Option('--workers <n>', "worker threads; results do not depend on it (default: the file's, else one per 1e6 trials up to every core)").argParser(workersOption('--workers'));
+  return new Option('--workers <n>', "worker threads, capped at the cores; results do not depend on it (default: the file's, else one per 1e6 trials up to every core)").argParser(workersOption('--workers'));
 }
 
 /** The parsed --seed, --trials and --workers as commander gives them. */

@@ -17,10 +17,11 @@ import { gradesReportTables } from '../report/grades-tables.js';
 import { stringifyReport } from '../report/json.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { colourWanted } from './colour.js';
-import { writeOutputFile } from './output-file.js';
-import { checkSpreadFiles, refuseExisting, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
+import { checkOutputTarget, sameOutputFile, writeOutputFile } from './output-file.js';
+import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
+import { startWork } from './work-budget.js';
 import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
 interface DesignCliOptions extends AnalysisCliOptions {
@@ -39,15 +40,20 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree design ${process.argv.slice(3).join(' ')}`.trim(), targetYieldPct: options.targetYield };
   if (options.report !== undefined) files.report = options.report;
   checkSpreadFiles(files);
-  refuseExisting(options.bom, '--bom', files.force);
-  if (options.bom !== undefined && (options.bom === options.report)) throw new InputError('--bom', 'the same file as --report', 'two different file names');
+  if (options.bom !== undefined) {
+    checkOutputTarget(options.bom, { force: files.force, where: '--bom' });
+    if (options.report !== undefined && sameOutputFile(options.bom, options.report)) throw new InputError('--bom', 'the same file as --report', 'two different files');
+  }
   const chips = options.chipSizes !== undefined ? loadChipSizes(options.chipSizes, '--chip-sizes') : loadChipSizes();
   const resolved = resolveDesign(loadDesignFile(file));
   const cli = commandLineAnalysis(options);
   // The spread as `spread` runs it (same default trial count), then the grade study as `grades` runs it.
-  const spread = await runSpread(resolved, analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS), progressToTerminal);
+  const spreadChoice = analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS);
+  const gradesChoice = analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS);
+  const estimate = startWork(resolved, options.grades ? { spread: spreadChoice, grades: { choice: gradesChoice, searchTrials: options.searchTrials } } : { spread: spreadChoice });
+  const spread = await runSpread(resolved, spreadChoice, progressToTerminal);
   const grades = options.grades
-    ? await runGrades(resolved, analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS), { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
+    ? await runGrades(resolved, gradesChoice, { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
     : undefined;
   if (grades) {
     refuseUnreachableTarget(grades, command);
@@ -59,7 +65,7 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
     writeOutputFile(options.bom, renderBomCsv(bom), { force: files.force, where: '--bom' });
     written.push(options.bom);
   }
-  process.stdout.write(options.json ? stringifyReport(designReportJson(spread, grades, VERSION, bom)) : renderDesignText(spread, grades, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
+  process.stdout.write(options.json ? stringifyReport({ ...(designReportJson(spread, grades, VERSION, bom) as object), workEstimate: estimate }) : renderDesignText(spread, grades, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(spread));
 }

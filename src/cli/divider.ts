@@ -154,11 +154,11 @@ const NOTES =
   'Vref, its tolerance and the feedback-pin bias current Ifb come from the regulator\'s datasheet.\n' +
   'Where the output charges a battery, check the worst-case maximum against the cell maker\'s charge-voltage limit.\n';
 
-function run(options: DividerOptions): void {
+async function run(options: DividerOptions): Promise<void> {
   if (options.parts !== 2 && options.parts !== 3) {
     throw new InputError('--parts', `${options.parts} parts is not offered`, '2 (one resistor a leg) or 3 (one leg may be two resistors)');
   }
-  const stock = options.stock !== undefined ? readStockFile(options.stock, '--stock') : undefined;
+  const stock = options.stock !== undefined ? await readStockFile(options.stock, '--stock') : undefined;
   const result = pickDivider({
     vref: options.vref,
     vout: options.vout,

@@ -15,6 +15,7 @@ import { wrapText } from '../report/wrap-text.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
+import { startWork } from './work-budget.js';
 import { checkYieldGate, failUnderYieldOptionWith, FAIL_UNDER_YIELD_HELP } from './yield-gate.js';
 
 interface GradesCliOptions extends AnalysisCliOptions {
@@ -27,9 +28,10 @@ interface GradesCliOptions extends AnalysisCliOptions {
 async function run(file: string, options: GradesCliOptions, command: Command): Promise<void> {
   const resolved = resolveDesign(loadDesignFile(file));
   const choice = analysisChoice(resolved, commandLineAnalysis(options), DEFAULT_GRADES_TRIALS);
+  const estimate = startWork(resolved, { grades: { choice, searchTrials: options.searchTrials } });
   const study = await runGrades(resolved, choice, { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal);
   refuseUnreachableTarget(study, command);
-  process.stdout.write(options.json ? stringifyReport(gradesJson(study, VERSION)) : renderGradesText(study, { subject: file, version: VERSION }));
+  process.stdout.write(options.json ? stringifyReport({ ...(gradesJson(study, VERSION) as object), workEstimate: estimate }) : renderGradesText(study, { subject: file, version: VERSION }));
   checkYieldGate(options.failUnderYield, gradesYields(study));
 }
 

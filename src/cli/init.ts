@@ -12,7 +12,7 @@ interface InitOptions {
 
 function run(options: InitOptions): void {
   const text = starterText(options.kind);
-  if (options.out === undefined) {
+  if (options.out === undefined || options.out === '-') {
     process.stdout.write(options.json ? `${JSON.stringify({ kind: options.kind, file: null, design: JSON.parse(text) })}\n` : text);
     return;
   }
@@ -26,7 +26,7 @@ export function initCommand(): Command {
     .description('write a starter design file with notes explaining each part')
     .configureOutput({ outputError: () => undefined })
     .addOption(new Option('--kind <kind>', 'kind of supply').choices([...STARTER_KINDS]).default('bench'))
-    .option('--out <file>', 'file to write (default: print to stdout)')
+    .option('--out <file>', 'file to write (default, or -: print to stdout)')
     .option('--force', 'overwrite an existing --out file', false)
     .option('--json', 'print { kind, file } (with --out) or { kind, file: null, design } as JSON')
     .addHelpText(

@@ -2,8 +2,12 @@
 // Entry point: runs the program (src/cli/run.ts decides the exit code and the one line on stderr) and handles
 // the process's own events: Ctrl-C (SIGINT) and SIGTERM stop the run, remove any output file still being written
 // and exit 130 (143); a closed stdout (`trimfree values E192 | head`) ends the run quietly.
-import { removePendingTemporaries } from './output-file.js';
-import { EXIT_INTERRUPTED, runCli } from './run.js';
+// The signal handlers are installed first thing: this module imports nothing statically, so they are in place before
+// the program and its commands are loaded (0.1 s idle, much more on a loaded machine), and a Ctrl-C at any moment
+// after node itself has started ends the same way.
+
+/** Removes output files still being written; set once output-file.js is loaded (nothing is pending before). */
+let removePendingTemporaries = (): void => undefined;
 
 function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
   process.once(signal, () => {
@@ -17,7 +21,7 @@ function onSignal(signal: 'SIGINT' | 'SIGTERM', code: number): void {
   });
 }
 
-onSignal('SIGINT', EXIT_INTERRUPTED);
+onSignal('SIGINT', 128 + 2); // EXIT_INTERRUPTED in run.ts
 onSignal('SIGTERM', 128 + 15);
 
 process.stdout.on('error', (error: NodeJS.ErrnoException) => {
@@ -26,6 +30,8 @@ process.stdout.on('error', (error: NodeJS.ErrnoException) => {
   process.exit(1);
 });
 
+({ removePendingTemporaries } = await import('./output-file.js'));
+const { runCli } = await import('./run.js');
 const outcome = await runCli(process.argv);
 if (outcome.line !== undefined) process.stderr.write(`trimfree: ${outcome.line}\n`);
 // Let stdout drain (a large report through a pipe) and end naturally; should anything still hold the process

@@ -26,12 +26,12 @@ interface ValueSource {
   origin: string;
 }
 
-function valueSource(options: NearestOptions): ValueSource {
+async function valueSource(options: NearestOptions): Promise<ValueSource> {
   if (options.stock === undefined) {
     const series = options.series;
     return { values: series, label: series, digits: seriesDigits(series), origin: shortSource(loadSeries(series).source) };
   }
-  const values = readStockFile(options.stock, '--stock');
+  const values = await readStockFile(options.stock, '--stock');
   return { values, label: 'stock', digits: 3, origin: `${values.length} values from ${options.stock}` };
 }
 
@@ -59,9 +59,9 @@ function comboRow(combo: Combination, digits: number): string[] {
   ];
 }
 
-function run(value: number, options: NearestOptions): void {
+async function run(value: number, options: NearestOptions): Promise<void> {
   const { count } = options;
-  const source = valueSource(options);
+  const source = await valueSource(options);
   const bracket = typeof source.values === 'string' ? nearestStandard(value, source.values) : nearestStandard(value, source.values);
   const combos = bestCombinations(value, source.values, count);
   if (options.json) {

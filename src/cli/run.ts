@@ -4,6 +4,7 @@
 // main.ts calls it for the real process; tests call it in-process, so the policy is tested without a subprocess.
 import { CommanderError } from 'commander';
 import { ImpossibleError, InputError, describeError } from '../errors.js';
+import { printableText } from '../user-text.js';
 import { programFor } from './program.js';
 import { EXIT_YIELD_GATE, YieldGateFailure } from './yield-gate-failure.js';
 
@@ -43,8 +44,14 @@ export function outcomeOf(error: unknown, argv: string[]): RunOutcome {
   return { code: EXIT_INTERNAL, line: oneLine(`internal error: ${message} (a bug in trimfree: please report it with the command line and the design file)`) };
 }
 
+/** Longest line printed: every message quotes user text cut to 80 characters (src/user-text.ts), so only a bug
+ * could make one longer; cut rather than flood the terminal. */
+const MAX_LINE = 2000;
+
+/** The message as one line: its own line breaks become spaces, any control character left in user text is shown
+ * escaped (so nothing can move the cursor or overwrite the `trimfree:` line), and it is cut to MAX_LINE. */
 function oneLine(text: string): string {
-  return text.replace(/\s*\n\s*/g, ' ').trim();
+  return printableText(text.replace(/\s*\n\s*/g, ' ').trim(), MAX_LINE);
 }
 
 function commandName(argv: string[]): string {

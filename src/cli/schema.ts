@@ -11,7 +11,7 @@ interface SchemaOptions {
 
 function run(options: SchemaOptions): void {
   const text = `${JSON.stringify(designJsonSchema(), null, 2)}\n`;
-  if (options.out === undefined) {
+  if (options.out === undefined || options.out === '-') {
     process.stdout.write(text);
     return;
   }
@@ -24,7 +24,7 @@ export function schemaCommand(): Command {
   return new Command('schema')
     .description("print the design file's JSON Schema (for editors)")
     .configureOutput({ outputError: () => undefined })
-    .option('--out <file>', 'file to write (default: print to stdout)')
+    .option('--out <file>', 'file to write (default, or -: print to stdout)')
     .option('--force', 'overwrite an existing --out file', false)
     .option('--json', 'the schema is JSON already; with --out, print { file }')
     .addHelpText(

@@ -5,7 +5,7 @@ import { Command, Option } from 'commander';
 import Table from 'cli-table3';
 import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
 import { InputError } from '../errors.js';
-import { pickSense, type SenseCandidate, type SensePick, type SenseRequest } from '../pick/sense.js';
+import { MAX_SHUNT_CANDIDATES, pickSense, type SenseCandidate, type SensePick, type SenseRequest } from '../pick/sense.js';
 import { exceedsLossLimit } from '../pick/sense/feasibility.js';
 import { SENSE_TOPOLOGIES, type SenseTopologyName, type ThresholdSource } from '../pick/sense/types.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
@@ -23,6 +23,7 @@ import {
   voltageOption,
 } from './option-parsers.js';
 import { COMPACT_TABLE } from './values.js';
+import { printableText } from '../user-text.js';
 
 interface SenseOptions {
   limit: number;
@@ -57,7 +58,10 @@ export const SHUNT_CAUTION =
 function parseShuntList(text: string): number[] {
   const entries = text.split(',').map((entry) => entry.trim());
   if (entries.some((entry) => entry === '')) {
-    throw new InputError('--shunts', `empty entry in '${text}'`, 'a comma-separated list of resistances such as 10m,20m,R05');
+    throw new InputError('--shunts', `empty entry in '${printableText(text)}'`, 'a comma-separated list of resistances such as 10m,20m,R05');
+  }
+  if (entries.length > MAX_SHUNT_CANDIDATES) {
+    throw new InputError('--shunts', `${entries.length} values are more than the ${MAX_SHUNT_CANDIDATES} the search takes`, `a comma-separated list of at most ${MAX_SHUNT_CANDIDATES} resistances`);
   }
   return entries.map((entry) => parseResistance(entry, '--shunts'));
 }

@@ -13,7 +13,8 @@ import { renderSpreadRunText } from '../report/spread-run-text.js';
 import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { colourWanted } from './colour.js';
 import { integerOption } from './option-parsers.js';
-import { checkSpreadFiles, DEFAULT_SAMPLE_ROWS, MAX_SAMPLE_ROWS, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
+import { startWork } from './work-budget.js';
+import { checkSpreadFiles, noteSampleRows, DEFAULT_SAMPLE_ROWS, MAX_SAMPLE_ROWS, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
 import { targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
 import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
@@ -28,16 +29,19 @@ interface SpreadCliOptions extends AnalysisCliOptions {
   targetYield: number;
 }
 
-async function run(file: string, options: SpreadCliOptions): Promise<void> {
+async function run(file: string, options: SpreadCliOptions, command: Command): Promise<void> {
   const files: SpreadFiles = { force: options.force ?? false, subject: file, command: `trimfree spread ${process.argv.slice(3).join(' ')}`.trim(), targetYieldPct: options.targetYield };
   if (options.samples !== undefined) files.samples = options.samples;
   if (options.report !== undefined) files.report = options.report;
   if (options.sampleRows !== undefined) files.sampleRows = options.sampleRows;
   checkSpreadFiles(files);
   const resolved = resolveDesign(loadDesignFile(file));
-  const study = await runSpread(resolved, analysisChoice(resolved, commandLineAnalysis(options), DEFAULT_SPREAD_TRIALS), progressToTerminal);
+  const choice = analysisChoice(resolved, commandLineAnalysis(options), DEFAULT_SPREAD_TRIALS);
+  const estimate = startWork(resolved, { spread: choice });
+  const study = await runSpread(resolved, choice, progressToTerminal);
+  if (files.samples !== undefined && command.getOptionValueSource('sampleRows') === 'cli') noteSampleRows(study, files.sampleRows ?? DEFAULT_SAMPLE_ROWS);
   const written = await writeSpreadFiles(study, files);
-  process.stdout.write(options.json ? stringifyReport(spreadReportJson(study, VERSION)) : renderSpreadRunText(study, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
+  process.stdout.write(options.json ? stringifyReport({ ...spreadReportJson(study, VERSION), workEstimate: estimate }) : renderSpreadRunText(study, { subject: file, version: VERSION, targetYieldPct: options.targetYield, colour: colourWanted(process.stdout) }));
   for (const path of written) process.stderr.write(`wrote ${path}\n`);
   checkYieldGate(options.failUnderYield, spreadYields(study));
 }
@@ -84,5 +88,5 @@ Examples:
   $ trimfree spread examples/led-driver-highside.json --report led.html --samples led.csv --force
   $ trimfree spread examples/charger-2s-liion.json --fail-under-yield 99.5%`,
     )
-    .action((file: string, options: SpreadCliOptions) => run(file, options));
+    .action((file: string, options: SpreadCliOptions, command: Command) => run(file, options, command));
 }

@@ -4,12 +4,15 @@
 import { analyze } from '../analysis/analyze.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
+import { cappedWorkerCount } from '../analysis/worker-count.js';
 import { DEFAULT_SEED, type ResolvedDesign } from './resolve.js';
 
 export interface AnalysisChoice {
   trials: number | 'auto';
   seed: number;
   workers?: number;
+  /** Notes for the user about the choice (e.g. workers capped at the cores), printed by the CLI. */
+  notes?: string[];
   /** Report the engine's progress to the progress sink (the CLI draws it only on a terminal, after a second). */
   progress: boolean;
 }
@@ -45,7 +48,11 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
     progress: true,
   };
   const workers = cli.workers ?? resolved.analysis.workers;
-  if (workers !== undefined) choice.workers = workers;
+  if (workers !== undefined) {
+    const capped = cappedWorkerCount(workers, cli.workers !== undefined ? '--workers' : 'analysis.workers');
+    choice.workers = capped.workers;
+    if (capped.note !== undefined) choice.notes = [capped.note];
+  }
   return choice;
 }
 

@@ -1,26 +1,25 @@
 // Reads a design file: the file, the JSON, then the schema. Every failure is one InputError naming the field path
 // (e.g. current.amplifier.vos), what was given and what is accepted; an unknown field gets the closest valid name.
-import { readFileSync } from 'node:fs';
 import { z } from 'zod';
 import { InputError } from '../errors.js';
+import { readInputText } from '../input-file.js';
+import { printableText } from '../user-text.js';
 import { DesignSchema, type Design } from './schema.js';
 import { suggestField } from './suggest-field.js';
 
 type Issue = z.core.$ZodIssue;
 type Path = readonly PropertyKey[];
 
+/** Largest design file read: a design is a few kilobytes (the examples 2–4 kB), so 1 MB leaves room for any notes,
+ * while a device or an endless file (/dev/zero) is refused instead of filling memory. Reading, checking and reporting
+ * happen on the calling thread: a 16 MB file of notes took 2–4 s (Ctrl-C waits for it); 1 MB takes a small part. */
+export const MAX_DESIGN_FILE_BYTES = 2 ** 20;
+
 /** Reads, parses and validates a design file. */
 export function loadDesignFile(path: string): Design {
   if (path.trim() === '') throw new InputError('file', 'empty file name', 'the path of a design file (JSON); `trimfree init` writes a starter');
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code ?? 'unreadable';
-    const reason = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : `cannot read it (${code})`;
-    throw new InputError(path, reason, 'the path of a design file (JSON); `trimfree init` writes a starter');
-  }
-  return parseDesignText(text, path);
+  const text = readInputText(path, { maxBytes: MAX_DESIGN_FILE_BYTES, accepted: `the path of a design file (JSON, a regular file of at most ${MAX_DESIGN_FILE_BYTES / 2 ** 20} MB); \`trimfree init\` writes a starter` });
+  return parseDesignText(text, printableText(path));
 }
 
 /** Parses design-file text; `source` names it in messages. */
@@ -37,9 +36,34 @@ export function parseDesignText(text: string, source: string): Design {
 
 /** Validates parsed JSON against the design schema. */
 export function validateDesign(data: unknown, source = 'design'): Design {
+  refuseProtoKeys(data, []);
   const result = DesignSchema.safeParse(data, { reportInput: true });
   if (result.success) return result.data;
   throw issueToError(pickIssue(result.error.issues), data, source);
+}
+
+/** Deepest nesting looked at: a design file is a few levels deep; a hostile one nested thousands deep would
+ * otherwise exhaust the stack of any recursive check. */
+const MAX_NESTING = 64;
+
+/** JSON.parse keeps a "__proto__" key as an own property, but copying it into a plain object (as the schema does
+ * for a record such as resistors.overrides) sets the prototype instead: the entry would vanish unchecked. Refused
+ * wherever it appears, with its path. */
+function refuseProtoKeys(data: unknown, path: PropertyKey[]): void {
+  if (data === null || typeof data !== 'object') return;
+  if (path.length > MAX_NESTING) {
+    throw new InputError(joinPath(path.slice(0, 4)), `nested more than ${MAX_NESTING} levels deep`, 'a design file as `trimfree schema` describes it (a few levels deep)');
+  }
+  if (Array.isArray(data)) {
+    data.forEach((item, i) => refuseProtoKeys(item, [...path, i]));
+    return;
+  }
+  for (const key of Object.keys(data)) {
+    if (key === '__proto__') {
+      throw new InputError(joinPath([...path, key]), "'__proto__' is not accepted as a field name or designator", 'the fields listed by `trimfree schema` and the designators of this design');
+    }
+    refuseProtoKeys((data as Record<string, unknown>)[key], [...path, key]);
+  }
 }
 
 // ---- JSON syntax errors ---------------------------------------------------------------------------------------
@@ -82,7 +106,7 @@ function joinPath(path: Path): string {
   let out = '';
   for (const key of path) {
     if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
+    else out += out === '' ? printableText(String(key)) : `.${printableText(String(key))}`;
   }
   return out;
 }
@@ -194,7 +218,7 @@ function issueToError(issue: Issue, data: unknown, source: string): InputError {
       const key = issue.keys[0]!;
       const suggestion = suggestField(key, valid);
       const hint = suggestion ? ` (did you mean '${suggestion}'?)` : '';
-      return new InputError(joinPath([...path, key]), `unknown field '${key}'${hint}`, valid.length ? `the fields of ${joinPath(path) || 'the file'}: ${valid.join(', ')}` : 'no other fields');
+      return new InputError(joinPath([...path, key]), `unknown field '${printableText(key)}'${hint}`, valid.length ? `the fields of ${joinPath(path) || 'the file'}: ${valid.join(', ')}` : 'no other fields');
     }
     case 'custom': {
       const params = (issue.params ?? {}) as { accepted?: string; unknownKey?: string; validKeys?: string[] };

@@ -64,6 +64,7 @@ export function resolveDivider(design: Design): ResolvedDivider {
       minOhms: DIVIDER_DEFAULTS.minOhms,
       maxOhms: v.search?.max ?? DIVIDER_DEFAULTS.maxOhms,
       biasRatio: DIVIDER_DEFAULTS.biasRatio,
+      biasRatioFixed: true,
       tolerance: Math.max(gradeTop.tolerance, gradeBottom.tolerance),
       vrefTolerance: design.reference.tolerance,
       count: 5,

@@ -109,6 +109,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);
   checkShuntSignal(design, nominal, sense.parts[DESIGNATORS.shunt]!);
+  checkSelfHeating(design, nominal, sense.grades[DESIGNATORS.shunt]!.tcrPerK);
   const limits: string[] = [];
   checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, limits);
 
@@ -157,6 +158,27 @@ function worstShuntLoss(spec: SupplySpec): number {
   const exact = (name: string): SupplySpec['divider']['top'] => ({ resistors: [{ name, nominal: 1, tolerance: 0 }] });
   const senseOnly: SupplySpec = { ...spec, divider: { top: exact(DESIGNATORS.dividerTop), bottom: exact(DESIGNATORS.dividerBottom) } };
   return worstCase(buildSupplyModel(senseOnly)).find((w) => w.name === 'shuntLoss')!.max;
+}
+
+/** Largest α·θ·P (the shunt's relative change from its own heat at the limit) the first-order self-heating model is
+ * used for: it assumes α·θ·P ≪ 1 (src/analysis/models/supply.ts hotShunt), and past 1/4 at any trial it has no
+ * steady state at all (thermal runaway: the Monte Carlo trials there give no value). 0.1 leaves room for the spread
+ * of P across units (common practice: a 10 % shift from self-heating alone is already a design to rework). */
+const MAX_SELF_HEATING_SHIFT = 0.1;
+
+/** A shunt whose own heat shifts its value past the self-heating model's range: refused with the fields to change,
+ * rather than left to fail in the Monte Carlo run with a message naming no field. */
+function checkSelfHeating(design: Design, nominal: Record<string, number>, tcrPerK: number): void {
+  const theta = design.current.shunt.thermalResistance ?? 0;
+  const loss = nominal['shuntLoss']!;
+  const shift = tcrPerK * theta * loss;
+  if (theta > 0 && shift > MAX_SELF_HEATING_SHIFT) {
+    throw new ImpossibleError(
+      'current.shunt.thermalResistance',
+      `θ = ${Math.round(theta)} K/W with ${formatEngineering(loss, 'W')} at the limit heats the shunt ${Math.round(theta * loss)} K above ambient, shifting it by ${formatPercent(shift, 0)} through its ±${Math.round(tcrPerK * 1e6)} ppm/K TCR: past the ${formatPercent(MAX_SELF_HEATING_SHIFT, 0)} the self-heating model holds for, towards thermal runaway`,
+      'lower current.shunt.thermalResistance (more copper, a larger package), a shunt with a smaller TCR (current.shunt.tcr), or less loss (a smaller shunt with more gain)',
+    );
+  }
 }
 
 /** Loads and heat the nominal design must stay within, whatever picked its values. */

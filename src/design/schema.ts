@@ -23,6 +23,8 @@ import {
   type WindowInput,
 } from './fields.js';
 import { GRADE_NAMES } from './grades.js';
+import { printableText } from '../user-text.js';
+import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 
 /** Adds what a field means in front of what it accepts (the value field's own description). */
 function describe<T extends z.ZodType>(schema: T, meaning: string): T {
@@ -166,7 +168,8 @@ const shunt = z
     thermalResistance: describe(thermalResistance(), 'θ shunt to ambient, for self-heating θ·I²R (default 0)').optional(),
     candidates: z
       .array(z.union([z.string(), z.number()]))
-      .meta({ description: 'shunt values to choose from for "auto" (default: the stocked milliohm list)' })
+      .max(MAX_SHUNT_CANDIDATES)
+      .meta({ description: `shunt values to choose from for "auto", at most ${MAX_SHUNT_CANDIDATES} (default: the stocked milliohm list)` })
       .optional(),
   })
   .meta({ description: 'the current-sense shunt RS' });
@@ -348,7 +351,7 @@ export const DesignSchema = z
           code: 'custom',
           path: ['resistors', 'overrides', name],
           input: name,
-          message: `no part '${name}' in this design`,
+          message: `no part '${printableText(name)}' in this design`,
           params: { accepted: `a designator of this design: ${placed.join(', ')}`, unknownKey: name, validKeys: placed },
         });
       }

@@ -34,6 +34,10 @@ export function editDistance(a: string, b: string): number {
  * "did you mean" hints). Ties go to the name listed first.
  */
 export function suggestField(given: string, valid: readonly string[]): string | undefined {
+  // A name more than half again as long as the longest valid one is never within a third of its letters: no
+  // suggestion, and no quadratic distance over a hostile 10 MB key.
+  const longest = valid.reduce((most, name) => Math.max(most, name.length), 0);
+  if (given.length > 2 * longest + 2) return undefined;
   const folded = given.toLowerCase();
   let best: string | undefined;
   let bestDistance = Infinity;

@@ -39,6 +39,8 @@ export interface DividerRequest {
   maxOhms: number;
   /** Divider current ≥ biasRatio × |Ifb| (common practice: 100); 0 turns the rule off. */
   biasRatio: number;
+  /** True where the request has no --bias-ratio to change (a design file): remedies do not offer it. */
+  biasRatioFixed?: boolean | undefined;
   /** Relative tolerance of each resistor; undefined: the series' commonly sold tolerance. */
   tolerance?: number | undefined;
   vrefTolerance: number;
@@ -113,6 +115,12 @@ export function commonTolerance(name: SeriesName): number {
   return match ? Number(match[1]) / 100 : 0.2;
 }
 
+/** Most distinct values in range a three-part (--parts 3) search takes. Its time grows with the square of the list:
+ * measured on one core of the project's two-core machine, 1 000 values ~0.1 s, 2 000 ~0.3 s, 3 000 ~0.4 s, 5 000
+ * ~1.1 s, 10 000 ~4.6 s (a 100 000-line list ran for more than 5 minutes and could not be interrupted, since the
+ * search is synchronous). E192 from 1 Ω to 1 MΩ has 1 153. */
+export const MAX_THREE_PART_VALUES = 2000;
+
 export function pickDivider(request: DividerRequest): DividerResult {
   const { vref, vout, ifb } = request;
   if (!(vref > 0)) throw new InputError('--vref', `reference must be positive, got ${vref} V`, 'a positive voltage such as 0.8, 1.25V');
@@ -132,10 +140,17 @@ export function pickDivider(request: DividerRequest): DividerResult {
   if (request.pot && request.maxParts !== 2) {
     throw new InputError('--parts', 'two-resistor legs are not offered with a pot', '--parts 2 (the default) with --pot');
   }
-  const window = bottomWindow({ vref, ifb, bottom: request.bottom, current: request.current, biasRatio: request.biasRatio });
+  const window = bottomWindow({ vref, ifb, bottom: request.bottom, current: request.current, biasRatio: request.biasRatio, biasRatioFixed: request.biasRatioFixed });
   const allowed = request.stock
     ? allowedFromStock(request.stock, request.minOhms, request.maxOhms)
     : allowedFromSeries(request.series, request.minOhms, request.maxOhms);
+  if (request.maxParts === 3 && !request.pot && allowed.ohms.length > MAX_THREE_PART_VALUES) {
+    throw new InputError(
+      request.stock ? '--stock' : '--series',
+      `${allowed.ohms.length} distinct values between ${formatEngineering(request.minOhms, 'Ω')} and ${formatEngineering(request.maxOhms, 'Ω')} are more than the ${MAX_THREE_PART_VALUES} a three-part search takes (its time grows with the square of the list)`,
+      `at most ${MAX_THREE_PART_VALUES} values in range with --parts 3: a shorter list, a lower --max, or --parts 2`,
+    );
+  }
   const finest = byCommonness(request.series).at(-1)!;
   const tolerance = request.tolerance ?? (request.stock ? DIVIDER_DEFAULTS.stockTolerance : commonTolerance(finest));
   const toleranceSource =

@@ -72,15 +72,36 @@ export function bestPairs(value: number, pool: readonly number[], kind: ComboKin
     const from = kind === 'series' ? 0 : i;
     const to = kind === 'series' ? i + 1 : pool.length;
     const j = partnerIndex(kind, a, pool, from, to, value);
-    for (let k = j - count; k < j + count; k++) {
-      if (k < from || k >= to) continue;
-      const b = pool[k] as number;
-      const combined = combine(kind, a, b);
-      found.push({ kind, parts: [a, b], value: combined, errorPct: relativeErrorPct(combined, value) });
-    }
+    // Walk outward from j on each side: the combined value moves away from the target at every step (combine is
+    // monotonic in b), so once a pair is worse than the `count` kept, so is every pair further out on that side.
+    for (let k = j; k < Math.min(to, j + count); k++) if (!offer(found, kind, a, pool[k] as number, value, count)) break;
+    for (let k = j - 1; k >= Math.max(from, j - count); k--) if (!offer(found, kind, a, pool[k] as number, value, count)) break;
   }
-  found.sort(compareCombos);
-  return found.slice(0, count);
+  return found;
+}
+
+/** Offers the pair (a, b) to `found`; false when it is worse than all `count` kept (so is any pair further out). */
+function offer(found: Combination[], kind: ComboKind, a: number, b: number, value: number, count: number): boolean {
+  const combined = combine(kind, a, b);
+  const errorPct = relativeErrorPct(combined, value);
+  if (found.length === count && Math.abs(errorPct) > Math.abs(found[count - 1]!.errorPct)) return false;
+  keepBest(found, { kind, parts: [a, b], value: combined, errorPct }, count);
+  return true;
+}
+
+/** Inserts `c` into `best` (sorted by compareCombos, at most `count` long) where it belongs, after any equal one: the
+ * same `count` as sorting every pair stably and keeping the first `count`, with memory for `count` only. */
+function keepBest(best: Combination[], c: Combination, count: number): void {
+  if (best.length === count && compareCombos(c, best[count - 1]!) >= 0) return;
+  let lo = 0;
+  let hi = best.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (compareCombos(best[mid]!, c) <= 0) lo = mid + 1;
+    else hi = mid;
+  }
+  best.splice(lo, 0, c);
+  if (best.length > count) best.pop();
 }
 
 /**

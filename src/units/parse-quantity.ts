@@ -3,6 +3,7 @@
 //   letter-and-digit code (IEC 60062:2016)           e.g. 4K7, R047, 3V3
 // Anything else is an InputError naming the first character that does not fit. Nothing is guessed.
 import { InputError } from '../errors.js';
+import { printableText } from '../user-text.js';
 import { decimalValue, scanDecimal } from './decimal-number.js';
 import { unexpectedCharacter } from './notation-error.js';
 import { parseLetterCode } from './rkm-code.js';
@@ -32,12 +33,12 @@ function matchUnit(rest: string, units: readonly string[]): string | undefined {
 }
 
 function checkValue(value: number, text: string, kind: QuantityKind, where: string): number {
-  if (!Number.isFinite(value)) throw new InputError(where, `'${text}' is out of range`, kind.accepted);
+  if (!Number.isFinite(value)) throw new InputError(where, `'${printableText(text)}' is out of range`, kind.accepted);
   if (kind.sign === 'positive' && !(value > 0)) {
-    throw new InputError(where, `${kind.noun} must be greater than zero, got '${text}'`, kind.accepted);
+    throw new InputError(where, `${kind.noun} must be greater than zero, got '${printableText(text)}'`, kind.accepted);
   }
   if (kind.sign === 'nonNegative' && value < 0) {
-    throw new InputError(where, `${kind.noun} must not be negative, got '${text}'`, kind.accepted);
+    throw new InputError(where, `${kind.noun} must not be negative, got '${printableText(text)}'`, kind.accepted);
   }
   return value === 0 ? 0 : value; // no -0
 }

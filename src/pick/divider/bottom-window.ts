@@ -2,7 +2,7 @@
 // current window (I = Vref/Rbottom, so a current window is a resistance window) and the feedback-pin rule
 // (divider current at least `biasRatio` × |Ifb| so the pin's bias current barely moves the output: common practice,
 // 100× by default). An empty intersection is an ImpossibleError naming the constraints that clash.
-import { ImpossibleError } from '../../errors.js';
+import { ImpossibleError, InputError } from '../../errors.js';
 import { formatEngineering } from '../../units/index.js';
 
 export interface Interval {
@@ -19,6 +19,9 @@ export interface BottomWindowRequest {
   current?: Interval | undefined;
   /** Divider current must be at least this multiple of |Ifb|; 0 turns the rule off. */
   biasRatio: number;
+  /** The bias ratio is fixed where the request came from (a design file has no --bias-ratio): the remedy then does
+   * not offer to lower it. */
+  biasRatioFixed?: boolean | undefined;
 }
 
 export interface BottomWindow {
@@ -35,6 +38,10 @@ export function bottomWindow(request: BottomWindowRequest): BottomWindow {
   let lo = bottom.lo;
   let hi = bottom.hi;
   const clauses = [`--bottom ${fmt(bottom.lo)}..${fmt(bottom.hi)}`];
+  if (current && !(current.lo > 0 && current.hi >= current.lo)) {
+    // A negative or zero current would turn into a negative (or infinite) resistance window, silently ignored.
+    throw new InputError('--current', `the divider current window ${formatEngineering(current.lo, 'A')}..${formatEngineering(current.hi, 'A')} is not above zero`, 'LO..HI with 0 < LO ≤ HI, e.g. 10uA..1mA');
+  }
   if (current) {
     lo = Math.max(lo, vref / current.hi);
     hi = Math.min(hi, current.lo > 0 ? vref / current.lo : Infinity);
@@ -52,10 +59,11 @@ export function bottomWindow(request: BottomWindowRequest): BottomWindow {
     hi = Math.min(hi, (vref / -ifb) * (1 - 1e-9));
   }
   if (!(lo <= hi) || !(hi > 0)) {
+    const biasRemedy = request.biasRatioFixed ? 'use a regulator with a smaller bias current (--ifb)' : 'use a regulator with a smaller bias current (--ifb) or lower --bias-ratio';
     throw new ImpossibleError(
-      'bottom resistor',
+      current ? '--bottom/--current' : '--bottom',
       `no bottom resistor satisfies ${clauses.join(' and ')}`,
-      'widen --bottom or --current, or (if the feedback-pin rule binds) use a regulator with a smaller bias current or lower --bias-ratio',
+      `widen --bottom or --current, or (if the feedback-pin rule binds) ${biasRemedy}`,
     );
   }
   return { lo, hi, middle: Math.sqrt(lo * hi), biasLimit };
