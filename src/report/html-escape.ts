@@ -16,3 +16,16 @@ export function exact(value: number): string {
   if (!Number.isFinite(value)) throw new Error(`data value is not a finite number (${value})`);
   return String(value);
 }
+
+/** The document head every trimfree HTML page starts with: charset, viewport, generator, title and its styles. */
+export function htmlDocumentHead(title: string, version: string, style: string): string {
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="trimfree ${escapeHtml(version)}">
+<title>${escapeHtml(title)}</title>
+<style>${style}</style>
+</head>`;
+}

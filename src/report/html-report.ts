@@ -7,7 +7,7 @@ import type { AnalysisResult, OutputResult } from '../analysis/result.js';
 import type { Part } from '../tolerance/part.js';
 import { describeDistribution } from '../tolerance/sample.js';
 import { formatEngineering, formatPercent, formatPpmPerK } from '../units/index.js';
-import { escapeHtml, exact } from './html-escape.js';
+import { escapeHtml, exact, htmlDocumentHead } from './html-escape.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits, outputTitle } from './format-value.js';
 import { groupMethodNotes } from './method-notes.js';
 import { POT_OUTPUTS } from './pot-ends.js';
@@ -233,15 +233,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
     'Yield per unit: share of units (a trial is one unit, its parts drawn once) inside the spec window at every ambient checked over the range, with its 95 % Wilson score interval; the yield at a random ambient is a second figure, never in its place. Cp and Cpk per NIST/SEMATECH e-Handbook 6.1.6, from the units at the worst ambient.',
     ...groupMethodNotes(r.notes, new Set(input.parts.map((p) => p.name))),
   ];
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="generator" content="trimfree ${escapeHtml(input.version)}">
-<title>${escapeHtml(input.title)}</title>
-<style>${STYLE}</style>
-</head>
+  return `${htmlDocumentHead(input.title, input.version, STYLE)}
 <body data-seed="${escapeHtml(r.seed)}" data-trials="${r.trials}" data-version="${escapeHtml(input.version)}">
 <h1>${escapeHtml(input.title)}</h1>
 ${provenanceBlock(input)}

@@ -3,7 +3,7 @@
 // figures (pilot-figures.ts, the rows the terminal shows), the diagnosis, the re-centring and the findings.
 // Figure cells carry `td[data-field][data-value]` with the exact numbers.
 import type { PilotOutput, PilotRun } from '../pilot/study.js';
-import { escapeHtml, exact } from './html-escape.js';
+import { escapeHtml, exact, htmlDocumentHead } from './html-escape.js';
 import { pilotFigures, pilotTitle, windowText, type PilotProvenance } from './pilot-figures.js';
 import { renderPilotSvg } from './pilot-svg.js';
 import { DIAGNOSIS_ROWS, METHOD_NOTES } from './pilot-text.js';
@@ -64,15 +64,7 @@ ${diagnosisHtml(out)}
 export function renderPilotHtml(run: PilotRun, provenance: PilotProvenance): string {
   const r = run.prediction.result;
   const title = `trimfree pilot report: ${provenance.designFile.path} against ${provenance.measurementsFile.path}`;
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="generator" content="trimfree ${escapeHtml(provenance.version)}">
-<title>${escapeHtml(title)}</title>
-<style>${STYLE}</style>
-</head>
+  return `${htmlDocumentHead(title, provenance.version, STYLE)}
 <body data-seed="${escapeHtml(r.seed)}" data-trials="${r.trials}" data-version="${escapeHtml(provenance.version)}">
 <h1>${escapeHtml(title)}</h1>
 <table id="provenance"><tbody>

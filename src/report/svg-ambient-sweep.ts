@@ -5,7 +5,7 @@
 // result's sweep; computes no statistic.
 import type { AmbientPoint, OutputResult } from '../analysis/result.js';
 import { axisTicks } from './axis-ticks.js';
-import { escapeHtml } from './html-escape.js';
+import { coordinate, escapeHtml, exact } from './html-escape.js';
 import { formatEngineering } from '../units/index.js';
 
 const WIDTH = 520;
@@ -15,7 +15,7 @@ const RIGHT = 16;
 const TOP = 14;
 const BOTTOM = 46;
 
-const c = (x: number): string => Number(x.toFixed(2)).toString();
+const c = coordinate;
 
 /** The sweep chart, or '' when the output has fewer than two ambients or no worst case per ambient. */
 export function renderSvgAmbientSweep(output: OutputResult): string {
@@ -47,14 +47,14 @@ export function renderSvgAmbientSweep(output: OutputResult): string {
   parts.push(`<polyline class="sweep-nominal" points="${points.map((p) => `${c(x(p.ambientC))},${c(y(p.nominal))}`).join(' ')}"><title>nominal</title></polyline>`);
   if (output.spec) {
     for (const limit of output.spec) {
-      parts.push(`<line class="sweep-limit" data-value="${limit}" x1="${LEFT}" x2="${LEFT + plotW}" y1="${c(y(limit))}" y2="${c(y(limit))}"><title>spec limit ${escapeHtml(formatEngineering(limit, output.unit, 5))}</title></line>`);
+      parts.push(`<line class="sweep-limit" data-value="${exact(limit)}" x1="${LEFT}" x2="${LEFT + plotW}" y1="${c(y(limit))}" y2="${c(y(limit))}"><title>spec limit ${escapeHtml(formatEngineering(limit, output.unit, 5))}</title></line>`);
     }
   }
   for (const t of xTicks.values) {
-    parts.push(`<g class="tick x" data-value="${t}"><line x1="${c(x(t))}" x2="${c(x(t))}" y1="${TOP + plotH}" y2="${TOP + plotH + 5}"/><text x="${c(x(t))}" y="${TOP + plotH + 17}" text-anchor="middle">${escapeHtml(`${t} °C`)}</text></g>`);
+    parts.push(`<g class="tick x" data-value="${exact(t)}"><line x1="${c(x(t))}" x2="${c(x(t))}" y1="${TOP + plotH}" y2="${TOP + plotH + 5}"/><text x="${c(x(t))}" y="${TOP + plotH + 17}" text-anchor="middle">${escapeHtml(`${t} °C`)}</text></g>`);
   }
   for (const v of yTicks.values) {
-    parts.push(`<g class="tick y" data-value="${v}"><line x1="${LEFT - 5}" x2="${LEFT}" y1="${c(y(v))}" y2="${c(y(v))}"/><text x="${LEFT - 8}" y="${c(y(v) + 4)}" text-anchor="end">${escapeHtml(formatEngineering(v, output.unit, yTicks.digits))}</text></g>`);
+    parts.push(`<g class="tick y" data-value="${exact(v)}"><line x1="${LEFT - 5}" x2="${LEFT}" y1="${c(y(v))}" y2="${c(y(v))}"/><text x="${LEFT - 8}" y="${c(y(v) + 4)}" text-anchor="end">${escapeHtml(formatEngineering(v, output.unit, yTicks.digits))}</text></g>`);
   }
   parts.push(`<line class="axis" x1="${LEFT}" x2="${LEFT + plotW}" y1="${TOP + plotH}" y2="${TOP + plotH}"/><line class="axis" x1="${LEFT}" x2="${LEFT}" y1="${TOP}" y2="${TOP + plotH}"/>`);
   parts.push(`<text class="axis-title" x="${LEFT + plotW / 2}" y="${HEIGHT - 8}" text-anchor="middle">ambient temperature</text>`);
