@@ -172,7 +172,7 @@ function checkedTarget(path: string, options: WriteOptions): string {
 }
 
 /** A short temporary name (`.tf-` and 6 random letters), so a target name near the file system's 255-byte limit
- * still has room; random from node:crypto, not Math.random. */
+ * still has room; random bytes from node:crypto (a temporary name, not a figure). */
 function temporaryName(): string {
   return `.tf-${randomBytes(6).toString('base64url').slice(0, 6)}`;
 }
