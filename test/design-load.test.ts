@@ -32,7 +32,7 @@ describe('design values in SI units', () => {
     d.current.amplifier.vosDrift = '5 µV/K';
     d.current.shunt.thermalResistance = '60 °C/W';
     const design = validateDesign(d);
-    expect(design.voltage.divider).toEqual({ top: 4700, bottom: 1000 });
+    expect(design.voltage.divider).toEqual({ top: { parts: [4700], ohms: 4700 }, bottom: { parts: [1000], ohms: 1000 } });
     expect(design.reference.voltage).toBe(1.25);
     expect(design.reference.tolerance).toBeCloseTo(0.01, 15);
     expect(design.resistors.tolerance).toBeCloseTo(0.005, 15); // a bare number is percent
@@ -135,6 +135,18 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['amplifier bias, negative maximum', (d) => (d.current.amplifier.biasCurrent = 'max -1n'), 'current.amplifier.biasCurrent', /a maximum must not be negative/],
   ['amplifier bias, beyond any part', (d) => (d.current.amplifier.biasCurrent = '±1e6'), 'current.amplifier.biasCurrent', /out of range.*accepted: .*-10 kA to 10 kA/],
   ['notes of the wrong type', (d) => (d.notes = 5), 'notes', /wrong type/],
+  // Two-resistor divider legs (src/design/divider-leg.ts): one line naming the leg and every accepted form.
+  ['leg with a dangling joint', (d) => (d.voltage.divider.bottom = '6R8 + '), 'voltage.divider.bottom', /'6R8 \+ ' needs a resistance on each side.*; accepted: .*"6R8 \+ 2K2".*"10k ∥ 47k".*\{ "series": \["6R8", "2K2"\] \}/],
+  ['leg of three resistors', (d) => (d.voltage.divider.top = '10k ∥ 47k ∥ 100k'), 'voltage.divider.top', /joins 3 resistors: a leg takes one resistor or two; accepted: .*"parallel"/],
+  ['leg mixing series and parallel', (d) => (d.voltage.divider.top = '10k + 47k || 1k'), 'voltage.divider.top', /joins 3 resistors/],
+  ['leg with a bad value', (d) => (d.voltage.divider.top = '10k + 4K7K'), 'voltage.divider.top', /4K7K.*; accepted: .*"6R8 \+ 2K2"/],
+  ['structured leg of one value', (d) => (d.voltage.divider.bottom = { series: ['10k'] }), 'voltage.divider.bottom', /"series" lists 1 value: it takes exactly two resistors; accepted: .*\{ "parallel": \["10k", "47k"\] \}/],
+  ['structured leg of three values', (d) => (d.voltage.divider.bottom = { parallel: ['10k', '47k', '1M'] }), 'voltage.divider.bottom', /"parallel" lists 3 values: it takes exactly two resistors/],
+  ['structured leg both series and parallel', (d) => (d.voltage.divider.bottom = { series: ['1k', '2k'], parallel: ['1k', '2k'] }), 'voltage.divider.bottom', /either series or parallel/],
+  ['structured leg, unknown key', (d) => (d.voltage.divider.bottom = { serie: ['1k', '2k'] }), 'voltage.divider.bottom.serie', /did you mean 'series'/],
+  ['two-resistor leg with a pot', (d) => { d.voltage.target = '3..12 V'; d.voltage.pot = { value: '10k' }; delete d.voltage.window; d.voltage.divider.top = '1k + 2k'; }, 'voltage.divider.top', /two-resistor legs are not offered with a pot/],
+  ['search.parts not 2 or 3', (d) => { d.voltage.divider = 'auto'; d.voltage.search = { parts: 4 }; }, 'voltage.search.parts', /accepted: .*2 \(default, one per leg\) or 3/],
+  ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 
 describe('bad design files name the field path', () => {

@@ -26,9 +26,11 @@ export interface SectionGrade {
 /** Default production spread inside the tolerance band: uniform (the conservative choice for yield; common practice). */
 export const DEFAULT_DISTRIBUTION: DistributionName = 'uniform';
 
-export function partGrade(design: Design, designator: string, section: SectionGrade = {}): PartGrade {
+/** `leg`: for a resistor of a two-part divider leg (RTOP_A), its leg's designator (RTOP), whose override applies
+ * when the part has none of its own. */
+export function partGrade(design: Design, designator: string, section: SectionGrade = {}, leg?: string): PartGrade {
   const defaults = design.resistors;
-  const override = defaults.overrides?.[designator];
+  const override = defaults.overrides?.[designator] ?? (leg === undefined ? undefined : defaults.overrides?.[leg]);
   const overrideGrade = override?.grade ? gradeByName(override.grade) : undefined;
   const defaultGrade = defaults.grade ? gradeByName(defaults.grade) : undefined;
 

@@ -21,7 +21,7 @@ import type { AnalysisResult } from '../analysis/result.js';
 import { toleranceLetter } from '../units/index.js';
 import type { BomLine } from './bom.js';
 import { smallestChip, type ChipSizeTable } from './chip-sizes.js';
-import { DESIGNATORS } from './schema.js';
+import { DESIGNATORS, legPartDesignators } from './schema.js';
 
 export interface PurchaseBomLine {
   designator: string;
@@ -55,7 +55,7 @@ export interface PurchaseBomLine {
 
 /** Which model output drives each placed part's current. */
 function driverOf(designator: string): string | undefined {
-  if (designator === DESIGNATORS.dividerTop || designator === DESIGNATORS.dividerBottom || designator === DESIGNATORS.pot) return 'dividerCurrent';
+  if (designator === DESIGNATORS.pot || [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom].some((leg) => designator === leg || legPartDesignators(leg).includes(designator))) return 'dividerCurrent';
   if (designator === DESIGNATORS.shunt || (DESIGNATORS.diff as readonly string[]).includes(designator)) return 'ilimit';
   if (designator === DESIGNATORS.feedback || designator === DESIGNATORS.ground) return 'ampOutput';
   return undefined;

@@ -2,12 +2,13 @@
 // engine's leg specs, the BOM parts and notes. Fixed outputs and adjustable ones (a pot in one leg) alike.
 import { adjustablePeakPowers, wiperForHighest, wiperForLowest, type PotLeg } from '../circuits/adjustable-divider.js';
 import type { LegSpec, ResistorSpec } from '../analysis/models/supply.js';
-import { DIVIDER_DEFAULTS, pickDivider, type DividerRequest } from '../pick/divider.js';
+import { DIVIDER_DEFAULTS, pickDivider, type AdjustableCandidate, type DividerCandidate, type DividerRequest } from '../pick/divider.js';
 import { currentBandHalfWidth, formatEngineering, formatRkm } from '../units/index.js';
 import { dividerCurrents, resistorPower, type BomPart } from './bom.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
-import { DESIGNATORS, type Design } from './schema.js';
+import { DESIGNATORS, legPartDesignators, type Design } from './schema.js';
+import { legNotation, type DividerLegValue } from './divider-leg.js';
 
 /** Default pot tolerance: 20 % is the usual track tolerance of trimmer pots (common practice). */
 export const DEFAULT_POT_TOLERANCE = DIVIDER_DEFAULTS.potTolerance;
@@ -25,7 +26,8 @@ export interface ResolvedDivider {
   pot?: { ohms: number; tolerance: number; leg: PotLeg };
   bomParts: BomPart[];
   notes: string[];
-  grades: { top: PartGrade; bottom: PartGrade };
+  /** The grade of every fixed divider resistor (for the notes of assumed TCRs). */
+  grades: PartGrade[];
 }
 
 export function resistorSpec(name: string, nominal: number, grade: PartGrade): ResistorSpec {
@@ -50,15 +52,15 @@ export function resolveDivider(design: Design): ResolvedDivider {
   const notes: string[] = [];
   const pot = v.pot ? { ohms: v.pot.value, tolerance: v.pot.tolerance ?? DEFAULT_POT_TOLERANCE, leg: v.pot.leg ?? 'top' } : undefined;
 
-  let top: number;
-  let bottom: number;
+  let topLeg: DividerLegValue;
+  let bottomLeg: DividerLegValue;
   if (v.divider === 'auto') {
     const request: DividerRequest = {
       vref,
       vout: { lo, hi },
       ifb,
       series: [v.search?.series ?? gradeBottom.series],
-      maxParts: 2,
+      maxParts: v.search?.parts ?? 2,
       bottom: v.search?.bottom ? { lo: v.search.bottom[0], hi: v.search.bottom[1] } : DIVIDER_DEFAULTS.bottom,
       current: v.search?.current ? { lo: v.search.current[0], hi: v.search.current[1] } : undefined,
       minOhms: DIVIDER_DEFAULTS.minOhms,
@@ -72,14 +74,16 @@ export function resolveDivider(design: Design): ResolvedDivider {
     };
     const result = mapPickerError(() => pickDivider(request), DIVIDER_OPTION_FIELDS);
     const best = result.candidates[0]!; // the picker throws rather than return none
-    top = best.top;
-    bottom = best.bottom;
-    const how = `${request.series.join(', ')}, bottom ${formatEngineering(request.bottom.lo, 'Ω')}..${formatEngineering(request.bottom.hi, 'Ω')}`;
-    notes.push(`Divider picked (${how}): ${DESIGNATORS.dividerTop} ${top > 0 ? formatRkm(top) : 'none'}, ${DESIGNATORS.dividerBottom} ${formatRkm(bottom)}; best of ${result.candidates.length} shown by \`trimfree divider\`.`);
+    topLeg = pickedLeg(best, 'top');
+    bottomLeg = pickedLeg(best, 'bottom');
+    const how = `${request.series.join(', ')}, bottom ${formatEngineering(request.bottom.lo, 'Ω')}..${formatEngineering(request.bottom.hi, 'Ω')}${request.maxParts === 3 ? ', up to 3 parts' : ''}`;
+    notes.push(`Divider picked (${how}): ${DESIGNATORS.dividerTop} ${topLeg.ohms > 0 ? legNotation(topLeg, formatRkm) : 'none'}, ${DESIGNATORS.dividerBottom} ${legNotation(bottomLeg, formatRkm)}; best of ${result.candidates.length} shown by \`trimfree divider\`.`);
   } else {
-    top = v.divider.top;
-    bottom = v.divider.bottom;
+    topLeg = v.divider.top;
+    bottomLeg = v.divider.bottom;
   }
+  const top = topLeg.ohms;
+  const bottom = bottomLeg.ohms;
 
   const bias = ifb;
   const topSpec = (): ResistorSpec => (top > 0 ? resistorSpec(DESIGNATORS.dividerTop, top, gradeTop) : { name: 'jumper', nominal: JUMPER_OHMS, tolerance: 0 });
@@ -109,14 +113,46 @@ export function resolveDivider(design: Design): ResolvedDivider {
       pot,
       bomParts,
       notes,
-      grades: { top: gradeTop, bottom: gradeBottom },
+      grades: [gradeTop, gradeBottom],
     };
   }
   const currents = dividerCurrents(vref, bottom, bias);
   const at = 'at the nominal output';
-  bomParts.push({ designator: DESIGNATORS.dividerTop, role: 'feedback divider, top', ohms: top, tolerance: gradeTop.tolerance, tcrPerK: gradeTop.tcrPerK, powerW: resistorPower(currents.top, top), powerAt: at });
-  bomParts.push({ designator: DESIGNATORS.dividerBottom, role: 'feedback divider, bottom', ohms: bottom, tolerance: gradeBottom.tolerance, tcrPerK: gradeBottom.tcrPerK, powerW: resistorPower(currents.bottom, bottom), powerAt: at });
-  return { top, bottom, legs: { top: leg('top', 0), bottom: leg('bottom', 0) }, bomParts, notes, grades: { top: gradeTop, bottom: gradeBottom } };
+  const grades: PartGrade[] = [];
+  const fixedLeg = (value: DividerLegValue, designator: string, where: string, current: number): LegSpec => {
+    const legVolts = current * value.ohms;
+    if (value.parts.length === 1) {
+      const grade = designator === DESIGNATORS.dividerTop ? gradeTop : gradeBottom;
+      grades.push(grade);
+      bomParts.push({ designator, role: `feedback divider, ${where}`, ohms: value.ohms, tolerance: grade.tolerance, tcrPerK: grade.tcrPerK, powerW: resistorPower(current, value.ohms), powerAt: at });
+      return { resistors: [resistorSpec(designator, value.ohms, grade)] };
+    }
+    const arrangement = value.arrangement!;
+    const names = legPartDesignators(designator);
+    const specs = value.parts.map((ohms, i) => {
+      const grade = partGrade(design, names[i]!, {}, designator);
+      grades.push(grade);
+      // Series: the leg current flows through each part; parallel: each part takes the leg voltage (Ohm's law).
+      const partCurrent = arrangement === 'series' ? current : legVolts / ohms;
+      bomParts.push({ designator: names[i]!, role: `feedback divider, ${where} (${arrangement} with ${names[1 - i]})`, ohms, tolerance: grade.tolerance, tcrPerK: grade.tcrPerK, powerW: resistorPower(partCurrent, ohms), powerAt: at });
+      return resistorSpec(names[i]!, ohms, grade);
+    }) as [ResistorSpec, ResistorSpec];
+    return { resistors: specs, arrangement };
+  };
+  const legs = {
+    top: fixedLeg(topLeg, DESIGNATORS.dividerTop, 'top', currents.top),
+    bottom: fixedLeg(bottomLeg, DESIGNATORS.dividerBottom, 'bottom', currents.bottom),
+  };
+  return { top, bottom, legs, bomParts, notes, grades };
+}
+
+/** The picked candidate's leg as the design file would write it. */
+function pickedLeg(candidate: DividerCandidate | AdjustableCandidate, which: 'top' | 'bottom'): DividerLegValue {
+  const ohms = which === 'top' ? candidate.top : candidate.bottom;
+  const parts = candidate.parts.filter((p) => p.leg === which).map((p) => p.ohms);
+  const kind = 'topKind' in candidate ? (which === 'top' ? candidate.topKind : candidate.bottomKind) : 'single';
+  if (parts.length === 2 && kind !== 'single') return { parts: [parts[0]!, parts[1]!], arrangement: kind, ohms };
+  return { parts: [ohms], ohms };
 }
 
 /** The divider picker's option names and the design-file fields they come from. */
@@ -126,7 +162,7 @@ const DIVIDER_OPTION_FIELDS: Record<string, string> = {
   '--ifb': 'voltage.feedbackBias',
   '--pot': 'voltage.pot',
   '--pot-tol': 'voltage.pot.tolerance',
-  '--parts': 'voltage.divider',
+  '--parts': 'voltage.search.parts',
   '--bottom': 'voltage.search.bottom',
   '--current': 'voltage.search.current',
   '--max': 'voltage.search.max',

@@ -119,7 +119,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (notFinite) {
     throw new ImpossibleError('design', `the ${notFinite[0]} of this design is not a finite number`, 'check the values for extremes (a resistance near zero, a threshold at an offset)');
   }
-  for (const grade of [divider.grades.top, divider.grades.bottom, ...Object.values(sense.grades)]) {
+  for (const grade of [...divider.grades, ...Object.values(sense.grades)]) {
     if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
   }
 

@@ -23,6 +23,7 @@ import {
   type WindowInput,
 } from './fields.js';
 import { GRADE_NAMES } from './grades.js';
+import { dividerLeg } from './divider-leg.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 
@@ -53,9 +54,16 @@ export const DESIGNATORS = {
   thresholdBottom: 'RT2',
 } as const;
 
-/** The designators of the resistors a design places (the pot RV takes its tolerance from voltage.pot). */
-export function placedDesignators(topology: Topology, thresholdDivider: boolean): string[] {
+/** The two resistors of a two-part divider leg: RTOP_A and RTOP_B (a before b, as written or as picked). */
+export function legPartDesignators(leg: string): [string, string] {
+  return [`${leg}_A`, `${leg}_B`];
+}
+
+/** The designators of the resistors a design places (the pot RV takes its tolerance from voltage.pot). A two-part
+ * divider leg places its leg's _A and _B parts; its leg designator (RTOP) stays valid for overrides of both. */
+export function placedDesignators(topology: Topology, thresholdDivider: boolean, twoPartLegs: string[] = []): string[] {
   const names: string[] = [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom, DESIGNATORS.shunt];
+  for (const leg of twoPartLegs) names.push(...legPartDesignators(leg));
   if (topology === 'noninv') names.push(DESIGNATORS.feedback, DESIGNATORS.ground);
   if (topology === 'diff') names.push(...DESIGNATORS.diff);
   if (thresholdDivider) names.push(DESIGNATORS.thresholdTop, DESIGNATORS.thresholdBottom);
@@ -94,8 +102,8 @@ const reference = z
 
 // ---- output voltage -----------------------------------------------------------------------------------------------
 const dividerValues = z.strictObject({
-  top: describe(resistance(), 'top resistor RTOP (output to feedback pin)'),
-  bottom: describe(resistance(), 'bottom resistor RBOT (feedback pin to ground)'),
+  top: dividerLeg('top leg RTOP (output to feedback pin); two resistors become RTOP_A and RTOP_B'),
+  bottom: dividerLeg('bottom leg RBOT (feedback pin to ground); two resistors become RBOT_A and RBOT_B'),
 });
 
 const dividerSearch = z
@@ -104,6 +112,10 @@ const dividerSearch = z
     bottom: rangeField(PARSERS.resistance, 'bottom resistor range, e.g. 1k..100k').optional(),
     current: rangeField(PARSERS.current, 'divider current window Vref/RBOT, e.g. 50uA..1mA').optional(),
     max: describe(resistance(), 'largest resistor allowed').optional(),
+    parts: z
+      .union([z.literal(2), z.literal(3)])
+      .meta({ description: 'resistors in the whole divider for "auto": 2 (default, one per leg) or 3 (one leg may be two resistors in series or parallel, as `trimfree divider --parts 3`)' })
+      .optional(),
   })
   .meta({ description: 'constraints for "auto" divider values' });
 
@@ -122,7 +134,7 @@ const voltageSection = z
     absoluteMax: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'an output voltage the supply must never exceed (e.g. what the load survives); the caution box reports a worst case above it').optional(),
     divider: z
       .union([z.literal('auto'), dividerValues])
-      .meta({ description: '"auto" (picked from the series) or { top, bottom }' }),
+      .meta({ description: '"auto" (picked from the series; search.parts 3 allows a two-resistor leg) or { top, bottom }, each leg one resistance or two in series ("6R8 + 2K2") or parallel ("10k ∥ 47k")' }),
     search: dividerSearch.optional(),
     pot: pot.optional(),
     feedbackBias: describe(currentBand(), 'feedback-pin bias current, positive into the pin (default 0); the divider picker aims at its nominal').optional(),
@@ -140,6 +152,16 @@ const voltageSection = z
       ctx.issues.push({ code: 'custom', path: ['window'], input: undefined, message: 'missing required field', params: { accepted: 'a spec window: "±0.5%", "8.36..8.44 V" or [LO, HI]' } });
     }
     if (v.window && !adjustable) checkTargetInside(v.window, v.target[0], ctx, 'V');
+    if (v.pot && v.divider !== 'auto') {
+      for (const leg of ['top', 'bottom'] as const) {
+        if (v.divider[leg].parts.length === 2) {
+          ctx.issues.push({ code: 'custom', path: ['divider', leg], input: undefined, message: 'two-resistor legs are not offered with a pot', params: { accepted: 'one resistance per leg with a pot' } });
+        }
+      }
+    }
+    if (v.pot && v.search?.parts === 3) {
+      ctx.issues.push({ code: 'custom', path: ['search', 'parts'], input: 3, message: 'two-resistor legs are not offered with a pot', params: { accepted: '2 (the default) with a pot' } });
+    }
   })
   .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin' });
 
@@ -344,7 +366,12 @@ export const DesignSchema = z
     costs: costs.optional(),
   })
   .superRefine((d, ctx) => {
-    const placed = placedDesignators(d.current.topology, d.current.threshold.reference !== undefined);
+    const divider = d.voltage.divider;
+    const twoPartLegs = divider === 'auto' ? (d.voltage.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
+      ...(divider.top.parts.length === 2 ? [DESIGNATORS.dividerTop] : []),
+      ...(divider.bottom.parts.length === 2 ? [DESIGNATORS.dividerBottom] : []),
+    ];
+    const placed = placedDesignators(d.current.topology, d.current.threshold.reference !== undefined, twoPartLegs);
     for (const name of Object.keys(d.resistors.overrides ?? {})) {
       if (!placed.includes(name)) {
         ctx.issues.push({
