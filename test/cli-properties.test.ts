@@ -3,7 +3,7 @@
 // random and mutated input never ends in an internal error (exit 1) or a stack trace, never prints NaN or Infinity
 // (a value the user gave may be echoed in quotes), and every refusal is one line naming the option or field, exit 2.
 // The options are read from the commands themselves, so a new option is covered without editing this file.
-// Options that write files (--out, --report, --samples) are left to cli-bad-input and cli-interrupt tests.
+// Options that write files (--out, --report, --samples, --bom) are left to cli-bad-input and cli-interrupt tests.
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -100,7 +100,7 @@ function tooSlow(option: string, value: string): boolean {
   return false;
 }
 
-const NOT_MUTATED = new Set(['--out', '--report', '--samples', '--help', '--version']);
+const NOT_MUTATED = new Set(['--out', '--report', '--samples', '--bom', '--help', '--version']);
 
 /** Every command as its module builds it (the program itself loads only the one a command line names). */
 const FULL_COMMANDS = await Promise.all(COMMANDS.map((c) => c.load()));
