@@ -287,6 +287,7 @@ const resistors = z
   .strictObject({
     ...gradeFields,
     overrides: z.record(z.string(), override).meta({ description: 'per-designator grade: { "RS": { "tolerance": "0.5%" } }' }).optional(),
+    grades: z.array(gradeName).min(1).meta({ description: 'the grades `grades` and `design` compare and may choose from (default: 5%, 1%, 0.5%, 0.1%)' }).optional(),
   })
   .superRefine((r, ctx) => {
     if (r.grade === undefined && r.tolerance === undefined) {
@@ -327,7 +328,7 @@ const analysis = z
 
 const costs = z
   .strictObject(Object.fromEntries(GRADE_NAMES.map((g) => [g, z.number().positive().optional()])) as Record<(typeof GRADE_NAMES)[number], z.ZodOptional<z.ZodNumber>>)
-  .meta({ description: 'relative cost per part of each grade (defaults are illustrative: 5% 1, 1% 1.2, 0.5% 3, 0.1% 8)' });
+  .meta({ description: 'relative cost per part of each grade (defaults are illustrative: 10% 1, 5% 1, 2% 1.1, 1% 1.2, 0.5% 3, 0.25% 5, 0.1% 8, 0.05% 15, 0.02% 30, 0.01% 60)' });
 
 // ---- the file -----------------------------------------------------------------------------------------------------
 export const DesignSchema = z

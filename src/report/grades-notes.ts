@@ -3,7 +3,8 @@
 
 export const GRADING_NOTE =
   "Each grade brings its usual TCR (common practice); the shunt takes the grade's tolerance and keeps its own TCR; " +
-  "resistor values stay as designed (a looser grade's usual series may not stock them).";
+  "resistor values stay as designed, and the search offers a part only the grades whose usual series (or a coarser " +
+  "one) holds its value (common practice: a 5 % part is an E24 value).";
 
 export const SEARCH_METHOD =
   'Every assignment is evaluated by Monte Carlo on the same seed and trials, so any two are compared on paired ' +

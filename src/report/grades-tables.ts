@@ -1,7 +1,7 @@
 // The grade study as tables for the HTML review report (`design` passes them to the spread report): the grades side
 // by side (σ · yield · Cpk per output, the all-specs yield) and, when found, the cheapest grade mix.
 import type { GradesRun } from '../design/grade-study.js';
-import { GRADES_SOURCE } from '../design/grades.js';
+import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatYieldPct } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
 import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
@@ -26,7 +26,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
       title: 'Tolerance grades side by side (every resistor in one grade)',
       head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield', 'Monte Carlo trials (this grade)'],
       rows,
-      notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
+      notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${gradesSource(run.allowed)}.`, GRADING_NOTE, ...run.seriesNotes],
     },
   ];
   if (run.mix.found && run.mix.assignment) {
