@@ -4,7 +4,7 @@
 import type { GradesRun } from '../design/grade-study.js';
 import { gradesSource } from '../design/grades.js';
 import { specOutputs } from './grades-cells.js';
-import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 
 export function gradesJson(run: GradesRun, version: string): unknown {
   const names = specOutputs(run);
@@ -46,7 +46,7 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       verifiedTrials: run.mix.verified?.trials ?? null,
       evaluations: run.mix.evaluations,
       skipped: run.mix.skipped,
-      method: SEARCH_METHOD,
+      method: searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%')),
     },
     bestUpgrade: run.upgrade,
     notes: [

@@ -4,7 +4,7 @@ import type { GradesRun } from '../design/grade-study.js';
 import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
-import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 import { textTable } from './text-table.js';
 
 export interface GradesTextOptions {
@@ -80,7 +80,7 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
     );
   }
   out.push('');
-  out.push(`how the search works: ${SEARCH_METHOD}`);
+  out.push(`how the search works: ${searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%'))}`);
   out.push(GRADING_NOTE);
   if (run.resolved.cautions.length > 0) {
     out.push('');
