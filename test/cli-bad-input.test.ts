@@ -125,6 +125,7 @@ const ROWS: Row[] = [
   { args: ['spread', CHARGER, '--fail-under-yield', '101'], code: 2, where: '--fail-under-yield:', says: /'101' is out of range; accepted: a yield from 0 % to 100 %/ },
   { args: ['spread', CHARGER, '--fail-under-yield', 'abc'], code: 2, where: '--fail-under-yield:', says: /unexpected character 'a'/ },
   { args: ['grades', CHARGER, '--target-yield', '120%'], code: 2, where: '--target-yield:', says: /120% is out of range/ },
+  { args: ['grades', CHARGER, '--grades', '5%,3%'], code: 2, where: '--grades:', says: /no grade "3%"; accepted: a comma-separated list of 10%, 5%, 2%, 1%, 0\.5%, 0\.25%, 0\.1%, 0\.05%, 0\.02%, 0\.01%/ },
   { args: ['grades', CHARGER, '--search-trials', '10'], code: 2, where: '--search-trials:', says: /10 is out of range; accepted: a whole number from 1000/ },
   { args: ['grades', LED, '--target-yield', '99.9', ...T, '--search-trials', '1000'], code: 2, where: '--target-yield:', says: /no resistor grade mix reaches 99\.9 %.*even every resistor at 0\.1% gives .*; to fix: lower --target-yield/ },
   { args: ['design', CHARGER, '--target-yield', '40%'], code: 2, where: '--target-yield:', says: /40% is out of range/ },
@@ -177,6 +178,18 @@ const ROWS: Row[] = [
     code: 2,
     where: 'voltage.tagret:',
     says: /unknown field 'tagret' \(did you mean 'target'\?\)/,
+  },
+  {
+    args: ['grades', chargerWith('grades-typo', (d) => (d.resistors.grdes = ['1%'])), ...T],
+    code: 2,
+    where: 'resistors.grdes:',
+    says: /unknown field 'grdes' \(did you mean 'grades'\?\)/,
+  },
+  {
+    args: ['grades', chargerWith('grades-unknown', (d) => (d.resistors.grades = ['1%', '3%'])), ...T],
+    code: 2,
+    where: 'resistors.grades[1]:',
+    says: /0\.01%/,
   },
   // the same refusals from a design file name its fields and offer remedies that exist there
   {

@@ -118,7 +118,7 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['enum with suggestion', (d) => (d.current.topology = 'nonin'), 'current.topology', /"nonin" is not one of the choices \(did you mean 'noninv'\?\); accepted: "direct", "noninv", "diff"/],
   ['near-miss of "auto"', (d) => (d.voltage.divider = 'atuo'), 'voltage.divider', /did you mean "auto"/],
   ['series name', (d) => (d.resistors.series = 'E97'), 'resistors.series', /unknown series 'E97'; accepted: E3, E6, E12, E24, E48, E96, E192/],
-  ['grade not in the table', (d) => (d.resistors.grade = '2%'), 'resistors.grade', /"2%" is not one of the choices/],
+  ['grade not in the table', (d) => (d.resistors.grade = '3%'), 'resistors.grade', /"3%" is not one of the choices; accepted: "10%", "5%", "2%", "1%", "0.5%", "0.25%", "0.1%", "0.05%", "0.02%", "0.01%"/],
   ['no grade and no tolerance', (d) => (d.resistors = {}), 'resistors.grade', /give a grade or a tolerance/],
   ['negative resistance', (d) => (d.voltage.divider.top = -30000), 'voltage.divider.top', /greater than zero/],
   ['tolerance above 50 %', (d) => (d.reference.tolerance = '80%'), 'reference.tolerance', /out of range/],

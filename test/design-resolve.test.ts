@@ -176,7 +176,11 @@ describe('grades and overrides', () => {
     const d = baseDesign();
     d.costs = { '0.1%': 12 };
     const r = resolve(d);
-    expect(r.costs).toEqual({ '5%': 1, '1%': 1.2, '0.5%': 3, '0.1%': 12 });
+    // The illustrative defaults as the schema's description states them; the file's 0.1 % replaces one.
+    expect(r.costs).toEqual({ '10%': 1, '5%': 1, '2%': 1.1, '1%': 1.2, '0.5%': 3, '0.25%': 5, '0.1%': 12, '0.05%': 15, '0.02%': 30, '0.01%': 60 });
+    expect(r.allowedGrades).toBeUndefined();
+    d.resistors.grades = ['0.01%', '5%', '1%'];
+    expect(resolve(d).allowedGrades).toEqual(['5%', '1%', '0.01%']);
   });
 });
 

@@ -8,7 +8,9 @@ import { loadChipSizes } from '../design/chip-sizes.js';
 import { purchaseBom } from '../design/purchase-bom.js';
 import { renderBomCsv } from '../report/bom-csv.js';
 import { InputError } from '../errors.js';
-import { DEFAULT_GRADES_TRIALS, runGrades } from '../design/grade-study.js';
+import { allowedGrades, DEFAULT_GRADES_TRIALS, runGrades } from '../design/grade-study.js';
+import type { GradeName } from '../design/grades.js';
+import { gradesFlag } from './grades.js';
 import { loadDesignFile } from '../design/load.js';
 import { resolveDesign } from '../design/resolve.js';
 import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields } from '../design/spread-study.js';
@@ -26,7 +28,8 @@ import { checkYieldGate, failUnderYieldOptionWith } from './yield-gate.js';
 
 interface DesignCliOptions extends AnalysisCliOptions {
   json?: boolean;
-  grades: boolean;
+  /** false with --no-grades; the allowed grades with --grades; undefined otherwise. */
+  grades?: GradeName[] | false;
   targetYield: number;
   searchTrials: number;
   report?: string;
@@ -50,10 +53,12 @@ async function run(file: string, options: DesignCliOptions, command: Command): P
   // The spread as `spread` runs it (same default trial count), then the grade study as `grades` runs it.
   const spreadChoice = analysisChoice(resolved, cli, DEFAULT_SPREAD_TRIALS);
   const gradesChoice = analysisChoice(resolved, cli, DEFAULT_GRADES_TRIALS);
-  const estimate = startWork(resolved, options.grades ? { spread: spreadChoice, grades: { choice: gradesChoice, searchTrials: options.searchTrials } } : { spread: spreadChoice });
+  const wantGrades = options.grades !== false;
+  const allowed = options.grades ? { grades: options.grades } : {};
+  const estimate = startWork(resolved, wantGrades ? { spread: spreadChoice, grades: { choice: gradesChoice, searchTrials: options.searchTrials, gradeCount: allowedGrades(resolved, allowed).length } } : { spread: spreadChoice });
   const spread = await runSpread(resolved, spreadChoice, progressToTerminal);
-  const grades = options.grades
-    ? await runGrades(resolved, gradesChoice, { targetYieldPct: options.targetYield, searchTrials: options.searchTrials }, progressToTerminal)
+  const grades = wantGrades
+    ? await runGrades(resolved, gradesChoice, { targetYieldPct: options.targetYield, searchTrials: options.searchTrials, ...allowed }, progressToTerminal)
     : undefined;
   if (grades) {
     refuseUnreachableTarget(grades, command);
@@ -80,6 +85,7 @@ export function designCommand(): Command {
     .addOption(new Option('--bom <file.csv>', 'write the bill of materials as CSV (RFC 4180, SI units) for a purchasing import'))
     .addOption(new Option('--chip-sizes <file.json>', 'chip-size table the BOM picks sizes from (default: series/chip-sizes.json, common practice)'))
     .option('--force', 'overwrite existing output files', false)
+    .addOption(gradesFlag())
     .option('--no-grades', 'skip the grade comparison and the cheapest-grade search')
     .addOption(targetYieldFlag('share of units the cheapest grade mix must bring inside every spec window, and each output\'s yield must reach to read "pass" in the summary'))
     .addOption(searchTrialsFlag('Monte Carlo trials per grade assignment the search evaluates'))

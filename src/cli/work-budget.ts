@@ -5,7 +5,6 @@
 // runs slower, a smaller one faster), so it is a rough guide, not a promise.
 import { availableParallelism } from 'node:os';
 import { MAX_SEARCH_EVALUATIONS } from '../design/grade-study.js';
-import { GRADES } from '../design/grades.js';
 import type { AnalysisChoice } from '../design/analysis-choice.js';
 import type { ResolvedDesign } from '../design/resolve.js';
 import { InputError } from '../errors.js';
@@ -22,7 +21,7 @@ export interface PlannedWork {
   /** Trials of the spread study (twice for an adjustable output: the pot at each end), when it runs. */
   spread?: AnalysisChoice;
   /** The grade study: its trial count per grade and the search's trials per evaluated assignment. */
-  grades?: { choice: AnalysisChoice; searchTrials: number };
+  grades?: { choice: AnalysisChoice; searchTrials: number; gradeCount: number };
 }
 
 export interface WorkEstimate {
@@ -55,9 +54,9 @@ export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: n
     if (perGrade === 'auto') known = false;
     else {
       // Each grade: the Monte Carlo run and the all-specs yield over the same trials; then the cheapest mix re-run.
-      parallel += GRADES.length * perGrade;
-      serial += GRADES.length * perGrade + perGrade;
-      parts.push(`${GRADES.length} grades × 2 passes × ${perGrade} trials + a ${perGrade}-trial re-run`);
+      parallel += work.grades.gradeCount * perGrade;
+      serial += work.grades.gradeCount * perGrade + perGrade;
+      parts.push(`${work.grades.gradeCount} grades × 2 passes × ${perGrade} trials + a ${perGrade}-trial re-run`);
     }
     serial += MAX_SEARCH_EVALUATIONS * work.grades.searchTrials;
     parts.push(`at most ${MAX_SEARCH_EVALUATIONS} search evaluations × ${work.grades.searchTrials} trials`);

@@ -10,8 +10,9 @@ import { jointYieldAsync } from '../analysis/joint-yield-async.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
-import { GRADES, type Grade, type GradeName } from './grades.js';
+import { DEFAULT_GRADE_NAMES, GRADES, gradeSoldAt, type Grade, type GradeName } from './grades.js';
 import type { ResolvedDesign } from './resolve.js';
+import { formatRkmDigits } from '../units/index.js';
 
 /** Trials of each side-by-side run when neither the file nor the command line says. */
 export const DEFAULT_GRADES_TRIALS = 100_000;
@@ -25,10 +26,15 @@ export const MAX_SEARCH_EVALUATIONS = 400;
 export interface GradesOptions {
   targetYieldPct: number;
   searchTrials: number;
+  /** The grades to compare and choose from (--grades); absent: the design file's resistors.grades, else the default four. */
+  grades?: readonly GradeName[];
 }
 
 export interface GradeRow {
   grade: Grade;
+  /** Parts whose value is not in this grade's series or a coarser one: the row prices them in this grade for
+   * comparison, but the search never gives them this grade. */
+  notSold: string[];
   cost: number;
   result: AnalysisResult;
   joint: JointYield;
@@ -64,6 +70,12 @@ export interface GradesRun {
   choice: AnalysisChoice;
   options: GradesOptions;
   parts: GradableResistor[];
+  /** The grades compared and allowed in the search, widest first. */
+  allowed: Grade[];
+  /** Per part, the allowed grades it may be ordered in (its value is in the grade's series or a coarser one). */
+  offered: Record<string, GradeName[]>;
+  /** One line per part that some allowed grade is refused for, saying why; empty when none is. */
+  seriesNotes: string[];
   /** Each part's grade as designed (nearest table grade where the design's tolerance is not in the table). */
   designed: Record<string, GradeName>;
   designedNotes: string[];
@@ -73,6 +85,32 @@ export interface GradesRun {
   /** Yield of the design as graded (table TCRs), in the search's paired trials, %. */
   designedYieldPct: number;
   designedCost: number;
+}
+
+/** The allowed grades: the command line's, else the design file's, else the default four; widest first. */
+export function allowedGrades(resolved: ResolvedDesign, options: { grades?: readonly GradeName[] | undefined }): Grade[] {
+  const names = options.grades ?? resolved.allowedGrades ?? DEFAULT_GRADE_NAMES;
+  return GRADES.filter((g) => names.includes(g.name));
+}
+
+/**
+ * The allowed grades a part may be ordered in: those whose usual series (or a coarser one) holds its value. Refusing
+ * the grade keeps the value the design chose for accuracy; re-picking a value would move the output it sets.
+ */
+function offeredGrades(part: GradableResistor, allowed: readonly Grade[]): { offered: Grade[]; note?: string } {
+  const refused: Grade[] = [];
+  const offered = allowed.filter((g) => {
+    const sold = gradeSoldAt(g, part.nominal);
+    if (sold === false) refused.push(g);
+    return sold !== false;
+  });
+  if (refused.length === 0) return { offered };
+  const widest = refused[refused.length - 1]!;
+  const kept = offered.length > 0 ? `; it may take ${offered.map((g) => g.name).join(', ')}` : '; no allowed grade is sold at this value, so no grade mix can be chosen';
+  return {
+    offered,
+    note: `${part.name} ${formatRkmDigits(part.nominal, 3)} is not an ${widest.series} or coarser value: not offered in ${refused.map((g) => g.name).join(', ')}${kept}.`,
+  };
 }
 
 /** The table grade a tolerance belongs to: the exact one, else the nearest on a log scale. */
@@ -110,13 +148,23 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
   const parts = gradableResistors(spec);
   const costs = resolved.costs;
   const seed = String(choice.seed);
+  const allowed = allowedGrades(resolved, options);
+  const offered: Record<string, GradeName[]> = {};
+  const seriesNotes: string[] = [];
+  const offeredPerPart = parts.map((p) => {
+    const o = offeredGrades(p, allowed);
+    offered[p.name] = o.offered.map((g) => g.name);
+    if (o.note) seriesNotes.push(o.note);
+    return o.offered;
+  });
 
   // Side by side: every resistor in one grade.
   const rows: GradeRow[] = [];
-  for (const grade of GRADES) {
+  for (const grade of allowed) {
     const graded = specWith(spec, parts, parts.map(() => grade));
     const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
-    rows.push({ grade, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
+    const notSold = parts.filter((_, i) => !offeredPerPart[i]!.includes(grade)).map((p) => p.name);
+    rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
   }
 
   // The design as it stands, mapped onto the table.
@@ -131,29 +179,37 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
     designed[p.name] = designedGrades[i]!.name;
   });
 
-  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached).
-  const gradeOptions: GradeOption[][] = parts.map(() => GRADES.map((g, i) => ({ name: g.name, cost: costs[g.name], tightness: i })));
+  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached by grade names). The
+  // search chooses among each part's offered grades; the upgrade starts from the design's own grades, so each part's
+  // list there also holds its designed grade.
+  const optionsOf = (lists: Grade[][]): GradeOption[][] => lists.map((list) => list.map((g) => ({ name: g.name, cost: costs[g.name], tightness: GRADES.indexOf(g) })));
+  const searchLists = offeredPerPart;
+  const upgradeLists = parts.map((_, i) => GRADES.filter((g) => searchLists[i]!.includes(g) || g === designedGrades[i]));
   const cache = new Map<string, number>();
   const progress = progressFor('grade search');
-  const evaluate = async (assignment: readonly number[]): Promise<number> => {
-    const key = assignment.join(',');
+  const evaluatorFor = (lists: Grade[][]) => async (assignment: readonly number[]): Promise<number> => {
+    const chosen = assignment.map((option, p) => lists[p]![option]!);
+    const key = chosen.map((g) => g.name).join(',');
     const known = cache.get(key);
     if (known !== undefined) return known;
-    const y = (await jointOf(specWith(spec, parts, assignment.map((i) => GRADES[i]!)), seed, options.searchTrials, false)).pct / 100;
+    const y = (await jointOf(specWith(spec, parts, chosen), seed, options.searchTrials, false)).pct / 100;
     cache.set(key, y);
     progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
     return y;
   };
   let mix: GradeMixAnswer;
   let upgrade: UpgradeAnswer | null = null;
-  const base = designedGrades.map((g) => GRADES.indexOf(g));
+  const base = designedGrades.map((g, i) => upgradeLists[i]!.indexOf(g));
   let designedYieldPct: number;
   try {
-    const found = await cheapestGradeMix({ options: gradeOptions, target: options.targetYieldPct / 100, evaluate, maxEvaluations: MAX_SEARCH_EVALUATIONS });
+    const unsold = parts.filter((_, i) => searchLists[i]!.length === 0);
+    const found = unsold.length > 0
+      ? { found: false, assignment: null, cost: null, yield: null, evaluations: 0, skipped: 0, reason: 'no-grade-sold' as const }
+      : await cheapestGradeMix({ options: optionsOf(searchLists), target: options.targetYieldPct / 100, evaluate: evaluatorFor(searchLists), maxEvaluations: MAX_SEARCH_EVALUATIONS });
     mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
     if (found.reason) mix.reason = found.reason;
     if (found.found && found.assignment) {
-      const chosen = found.assignment.map((i) => GRADES[i]!);
+      const chosen = found.assignment.map((option, p) => searchLists[p]![option]!);
       mix.assignment = {};
       parts.forEach((p, i) => {
         mix.assignment![p.name] = chosen[i]!.name;
@@ -163,13 +219,13 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
       const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
       mix.verified = await jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
     }
-    const up = await bestSingleUpgrade({ options: gradeOptions, base, evaluate });
+    const up = await bestSingleUpgrade({ options: optionsOf(upgradeLists), base, evaluate: evaluatorFor(upgradeLists) });
     designedYieldPct = up.baseYield * 100;
     if (up.best) {
       upgrade = {
         part: parts[up.best.part]!.name,
         from: designedGrades[up.best.part]!.name,
-        to: GRADES[up.best.option]!.name,
+        to: upgradeLists[up.best.part]![up.best.option]!.name,
         yieldBeforePct: up.baseYield * 100,
         yieldAfterPct: up.best.yield * 100,
         extraCost: up.best.extraCost,
@@ -184,6 +240,9 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
     choice,
     options,
     parts,
+    allowed,
+    offered,
+    seriesNotes,
     designed,
     designedNotes,
     rows,

@@ -11,7 +11,7 @@ import { bomLine, diffBranchCurrents, noninvGainCurrent, resistorPower, type Bom
 import { cautionsFor } from './cautions.js';
 import type { OutputCautionLimits } from './output-cautions.js';
 import { windowBounds } from './fields.js';
-import { gradeCosts, type GradeName } from './grades.js';
+import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
 import { resolveSense } from './resolve-sense.js';
 import { DESIGNATORS, type Design } from './schema.js';
@@ -30,6 +30,8 @@ export interface ResolvedDesign {
   nominal: Record<string, number>;
   /** Relative cost of each grade (the file's, else the illustrative defaults). */
   costs: Record<GradeName, number>;
+  /** The grades the design file allows (resistors.grades), widest first; absent: the default four. */
+  allowedGrades?: GradeName[];
   analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
   /** Limits no part choice can fix (e.g. a window narrower than the reference alone allows), stated in the output. */
   limits?: string[];
@@ -142,6 +144,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: design.voltage.window ? voutWindow : null };
   if (design.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = design.voltage.absoluteMax;
   const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits };
+  if (design.resistors.grades) resolved.allowedGrades = GRADE_NAMES.filter((g) => design.resistors.grades!.includes(g));
   if (lowEnd) resolved.lowEnd = lowEnd;
   if (limits.length > 0) {
     resolved.limits = limits;

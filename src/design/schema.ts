@@ -309,13 +309,14 @@ const resistors = z
   .strictObject({
     ...gradeFields,
     overrides: z.record(z.string(), override).meta({ description: 'per-designator grade: { "RS": { "tolerance": "0.5%" } }' }).optional(),
+    grades: z.array(gradeName).min(1).meta({ description: 'the grades `grades` and `design` compare and may choose from (default: 5%, 1%, 0.5%, 0.1%); a part is offered a grade only where its usual series (common practice) or a coarser one holds the value' }).optional(),
   })
   .superRefine((r, ctx) => {
     if (r.grade === undefined && r.tolerance === undefined) {
       ctx.issues.push({ code: 'custom', path: ['grade'], input: undefined, message: 'missing required field: give a grade or a tolerance', params: { accepted: `grade: ${GRADE_NAMES.join(', ')}; or tolerance (with tcr and series)` } });
     }
   })
-  .meta({ description: 'the default resistor grade: a grade name (5%, 1%, 0.5%, 0.1%) and/or series, tolerance, TCR, distribution' });
+  .meta({ description: 'the default resistor grade: a grade name (10%, 5%, 2%, 1%, 0.5%, 0.25%, 0.1%, 0.05%, 0.02%, 0.01%) and/or series, tolerance, TCR, distribution' });
 
 // ---- temperature, analysis, costs ---------------------------------------------------------------------------------
 const temperature = z
@@ -349,7 +350,7 @@ const analysis = z
 
 const costs = z
   .strictObject(Object.fromEntries(GRADE_NAMES.map((g) => [g, z.number().positive().optional()])) as Record<(typeof GRADE_NAMES)[number], z.ZodOptional<z.ZodNumber>>)
-  .meta({ description: 'relative cost per part of each grade (defaults are illustrative: 5% 1, 1% 1.2, 0.5% 3, 0.1% 8)' });
+  .meta({ description: 'relative cost per part of each grade (defaults are illustrative: 10% 1, 5% 1, 2% 1.1, 1% 1.2, 0.5% 3, 0.25% 5, 0.1% 8, 0.05% 15, 0.02% 30, 0.01% 60)' });
 
 // ---- the file -----------------------------------------------------------------------------------------------------
 export const DesignSchema = z

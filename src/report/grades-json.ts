@@ -2,9 +2,9 @@
 // interval, worst case, yield, Cpk; the all-specs yield), the design as it stands, the cheapest grade mix and the
 // best single upgrade, with the notes on how they were obtained.
 import type { GradesRun } from '../design/grade-study.js';
-import { GRADES_SOURCE } from '../design/grades.js';
+import { gradesSource } from '../design/grades.js';
 import { specOutputs } from './grades-cells.js';
-import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 
 export function gradesJson(run: GradesRun, version: string): unknown {
   const names = specOutputs(run);
@@ -12,14 +12,16 @@ export function gradesJson(run: GradesRun, version: string): unknown {
     seed: run.rows[0]!.result.seed,
     trials: run.rows.map((r) => r.result.trials),
     version,
-    parts: run.parts.map((p) => ({ name: p.name, kind: p.kind, nominal: p.nominal, designedGrade: run.designed[p.name] })),
-    costs: run.resolved.costs,
-    costsSource: GRADES_SOURCE,
+    parts: run.parts.map((p) => ({ name: p.name, kind: p.kind, nominal: p.nominal, designedGrade: run.designed[p.name], offeredGrades: run.offered[p.name] ?? [] })),
+    costs: Object.fromEntries(run.allowed.map((g) => [g.name, run.resolved.costs[g.name]])),
+    costsSource: gradesSource(run.allowed),
+    seriesNotes: run.seriesNotes,
     grades: run.rows.map((row) => ({
       grade: row.grade.name,
       tolerance: row.grade.tolerance,
       tcrPerK: row.grade.tcrPerK,
       cost: row.cost,
+      notSold: row.notSold,
       trials: row.result.trials,
       allSpecsYieldPct: row.joint.pct,
       allSpecsYieldInterval95: row.joint.interval,
@@ -44,7 +46,7 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       verifiedTrials: run.mix.verified?.trials ?? null,
       evaluations: run.mix.evaluations,
       skipped: run.mix.skipped,
-      method: SEARCH_METHOD,
+      method: searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%')),
     },
     bestUpgrade: run.upgrade,
     notes: [

@@ -1,10 +1,10 @@
 // The grade study as tables for the HTML review report (`design` passes them to the spread report): the grades side
 // by side (σ · yield · Cpk per output, the all-specs yield) and, when found, the cheapest grade mix.
 import type { GradesRun } from '../design/grade-study.js';
-import { GRADES_SOURCE } from '../design/grades.js';
+import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatYieldPct } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
-import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 import type { ReportTable } from './html-report.js';
 
 /** The grade comparison and the search's answer as tables for the HTML report (`design` passes them to writeSpreadFiles). */
@@ -26,7 +26,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
       title: 'Tolerance grades side by side (every resistor in one grade)',
       head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield', 'Monte Carlo trials (this grade)'],
       rows,
-      notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${GRADES_SOURCE}.`, GRADING_NOTE],
+      notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${gradesSource(run.allowed)}.`, GRADING_NOTE, ...run.seriesNotes],
     },
   ];
   if (run.mix.found && run.mix.assignment) {
@@ -36,7 +36,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
       title: `Cheapest grades reaching ${run.options.targetYieldPct} % (cost ${costText(run.mix.cost!)}; as designed ${costText(run.designedCost)})`,
       head: ['part', 'grade', 'as designed'],
       rows: run.parts.map((p) => [p.name, run.mix.assignment![p.name]!, run.designed[p.name]!]),
-      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, from ${v.trials.toLocaleString('en-US')} trials of this grade mix).`, SEARCH_METHOD],
+      notes: [`All-specs yield ${formatYieldPct(v.pct)} (95 % interval ${formatYieldPct(v.interval.low)} … ${formatYieldPct(v.interval.high)}, from ${v.trials.toLocaleString('en-US')} trials of this grade mix).`, searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%'))],
     });
   }
   return tables;

@@ -1,10 +1,10 @@
 // The grade study as the terminal report: every resistor in each grade side by side, the design as it stands, the
 // cheapest grade mix that reaches the target (or why none does), the best single upgrade and how the search works.
 import type { GradesRun } from '../design/grade-study.js';
-import { GRADES_SOURCE } from '../design/grades.js';
+import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
-import { GRADING_NOTE, SEARCH_METHOD } from './grades-notes.js';
+import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 import { textTable } from './text-table.js';
 
 export interface GradesTextOptions {
@@ -43,7 +43,9 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
     rows.push(['', '', 'all specs', '', '', formatYieldPct(row.joint.pct), '']);
   }
   out.push(textTable(['grade (TCR)', 'cost', 'output', 'σ', '95 % interval', 'yield', 'Cpk'], rows, [false, true, false, true, true, true, true]));
-  out.push(`cost: relative, summed over the ${run.parts.length} graded resistors (${GRADES_SOURCE}).`);
+  out.push(`cost: relative, summed over the ${run.parts.length} graded resistors (${gradesSource(run.allowed)}).`);
+  if (run.seriesNotes.length > 0) out.push('grades refused by series (common practice; the grade is refused rather than the value re-picked, which would move the outputs the value was chosen for; the rows above price every part in every grade for comparison only):');
+  for (const note of run.seriesNotes) out.push(`  ${note}`);
   out.push('');
   out.push(`as designed: cost ${costText(run.designedCost)}, all-specs yield ${formatYieldPct(run.designedYieldPct)} (${run.options.searchTrials.toLocaleString('en-US')} paired trials)`);
   for (const note of run.designedNotes) out.push(`  ${note}`);
@@ -57,7 +59,9 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
     );
     if (v.interval.low < run.options.targetYieldPct) out.push('  the re-run\'s interval reaches below the target: check with more --trials and --search-trials.');
   } else if (run.mix.reason === 'target-unreachable') {
-    out.push(`no grade mix reaches ${target}: even 0.1 % everywhere falls short. The reference, offsets or the spec window limit the yield; no resistor grade can fix that.`);
+    out.push(`no grade mix reaches ${target}: even ${run.allowed[run.allowed.length - 1]!.name.replace('%', ' %')} everywhere falls short. The reference, offsets or the spec window limit the yield; no resistor grade can fix that.`);
+  } else if (run.mix.reason === 'no-grade-sold') {
+    out.push(`no grade mix can be chosen: a part's value is sold in none of the allowed grades (see "grades refused by series" above); allow a tighter grade (--grades, resistors.grades).`);
   } else {
     out.push(`the search stopped after ${run.mix.evaluations} evaluations without reaching ${target}; try fewer parts to grade or a lower target.`);
   }
@@ -76,7 +80,7 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
     );
   }
   out.push('');
-  out.push(`how the search works: ${SEARCH_METHOD}`);
+  out.push(`how the search works: ${searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%'))}`);
   out.push(GRADING_NOTE);
   if (run.resolved.cautions.length > 0) {
     out.push('');

@@ -25,3 +25,11 @@ export function orderableSeries(ohms: number, tolerance: number): SeriesName | u
   const holding = SERIES_NAMES.filter((name) => holds(name, significand));
   return holding.find((name) => tightestCommonTolerance(name) <= tolerance * (1 + 1e-9)) ?? holding[holding.length - 1];
 }
+
+/** Every IEC 60063 series whose decade holds `ohms`, coarsest first; empty for a value no series holds. */
+export function seriesHolding(ohms: number): SeriesName[] {
+  if (!(ohms > 0) || !Number.isFinite(ohms)) return [];
+  const exponent = Math.floor(Math.log10(ohms) + 1e-12);
+  const significand = ohms / 10 ** exponent;
+  return SERIES_NAMES.filter((name) => holds(name, significand));
+}

@@ -1,7 +1,9 @@
 // The tolerance code letter of IEC 60062:2016 (the letter printed after a value code, e.g. 4K7F for ±1 %) for a
 // symmetric tolerance given as a fraction. Letters and tolerances from IEC 60062:2016, table of tolerance codes
-// (from memory): W ±0.05 %, B ±0.1 %, C ±0.25 %, D ±0.5 %, F ±1 %, G ±2 %, J ±5 %, K ±10 %, M ±20 %.
+// (from memory): L ±0.01 %, P ±0.02 %, W ±0.05 %, B ±0.1 %, C ±0.25 %, D ±0.5 %, F ±1 %, G ±2 %, J ±5 %, K ±10 %, M ±20 %.
 const TOLERANCE_LETTERS: ReadonlyArray<[number, string]> = [
+  [0.0001, 'L'],
+  [0.0002, 'P'],
   [0.0005, 'W'],
   [0.001, 'B'],
   [0.0025, 'C'],
