@@ -5,6 +5,7 @@ import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { gradedSpec } from '../src/analysis/graded-spec.js';
+import { directSenseSupply } from './direct-supply-fixture.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
 import { jointYield } from '../src/analysis/trial-values.js';
 import { runGrades } from '../src/design/grade-study.js';
@@ -52,21 +53,7 @@ describe('grades side by side', { timeout: 120_000 }, () => {
 
 describe('cheapest grade mix on the real supply model against exhaustive search', { timeout: 120_000 }, () => {
   // A direct-sense supply: three graded resistors (RTOP, RBOT, RS) → 4³ = 64 assignments, few enough to try all.
-  const spec: SupplySpec = {
-    reference: { nominal: 1.25, tolerance: 0.002 },
-    divider: {
-      top: { resistors: [{ name: 'RTOP', nominal: 30e3, tolerance: 0.01, tcrPerK: 100e-6 }] },
-      bottom: { resistors: [{ name: 'RBOT', nominal: 10e3, tolerance: 0.01, tcrPerK: 100e-6 }] },
-    },
-    temperature: { minC: 0, maxC: 50, monteCarlo: 'uniform' },
-    sense: {
-      topology: 'direct',
-      shunt: { name: 'RS', nominal: 0.1, tolerance: 0.01, tcrPerK: 50e-6 },
-      threshold: { kind: 'fixed', nominal: 0.1, tolerance: 0.01 },
-      limitTarget: 1,
-    },
-    windows: { vout: [4.95, 5.05], ilimit: [0.96, 1.04] },
-  };
+  const spec: SupplySpec = directSenseSupply(30e3, 10e3, { vout: [4.95, 5.05], ilimit: [0.96, 1.04] });
   const searchTrials = 8000;
 
   it('the search returns the cost of the cheapest passing assignment found by trying all 64', async () => {

@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { gradedSpec } from '../src/analysis/graded-spec.js';
+import { directSenseSupply } from './direct-supply-fixture.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
 import { jointYield } from '../src/analysis/trial-values.js';
 import { runGrades } from '../src/design/grade-study.js';
@@ -101,22 +102,8 @@ describe('--grades parsing', () => {
 describe('grade restriction by series in the study', { timeout: 120_000 }, () => {
   // RBOT 1K4 is an E48 value, not E24: a 5 % part is never offered for it. The windows are wide enough that every
   // part at 5 % passes, so without the restriction the cheapest mix would put 5 % on RBOT.
-  const spec: SupplySpec = {
-    reference: { nominal: 1.25, tolerance: 0.002 },
-    divider: {
-      top: { resistors: [{ name: 'RTOP', nominal: 2200, tolerance: 0.01, tcrPerK: 100e-6 }] },
-      bottom: { resistors: [{ name: 'RBOT', nominal: 1400, tolerance: 0.01, tcrPerK: 100e-6 }] },
-    },
-    temperature: { minC: 0, maxC: 50, monteCarlo: 'uniform' },
-    sense: {
-      topology: 'direct',
-      shunt: { name: 'RS', nominal: 0.1, tolerance: 0.01, tcrPerK: 50e-6 },
-      threshold: { kind: 'fixed', nominal: 0.1, tolerance: 0.01 },
-      limitTarget: 1,
-    },
-    // Vout = 1.25 × (1 + 2.2/1.4) = 3.214 V (closed form); ±15 % and ±20 % windows hold every 5 % corner.
-    windows: { vout: [2.73, 3.7], ilimit: [0.8, 1.2] },
-  };
+  // Vout = 1.25 × (1 + 2.2/1.4) = 3.214 V (closed form); ±15 % and ±20 % windows hold every 5 % corner.
+  const spec: SupplySpec = directSenseSupply(2200, 1400, { vout: [2.73, 3.7], ilimit: [0.8, 1.2] });
 
   it('a 1K4 part never gets 5 %: the cheapest mix gives it the cheapest grade sold at its value, and says why', async () => {
     const run = await runGrades(resolvedOf(spec), { ...CHOICE }, { targetYieldPct: 99, searchTrials: 4000 });
