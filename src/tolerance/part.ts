@@ -36,7 +36,11 @@ export type PartKind =
   /** A temperature coefficient whose sign and size within ±limit are unknown for a given unit (TCR, tempco). */
   | 'temperature coefficient'
   /** A long-term drift allowance, a relative change within ±limit. */
-  | 'drift';
+  | 'drift'
+  /** A resistor network's deviation shared by all its members, a relative change (src/tolerance/network-bands.ts). */
+  | 'network absolute'
+  /** One network member's own deviation from the others, a relative change (src/tolerance/network-bands.ts). */
+  | 'network ratio';
 
 export interface Part {
   /** Name shown in reports: a designator (R1, RS) or a quantity (Vref, Vos amp, T ambient, R1 TCR). */
@@ -81,6 +85,8 @@ const DEFAULT_UNITS: Record<PartKind, string> = {
   temperature: '°C',
   'temperature coefficient': '1/K',
   drift: '',
+  'network absolute': '',
+  'network ratio': '',
 };
 
 export interface RelativePartInput {

@@ -20,6 +20,9 @@ import type { DistributionSpec, Part } from '../../tolerance/part.js';
 import { partFromBound, partFromTolerance } from '../../tolerance/part.js';
 import type { Model, ModelOutput } from '../model.js';
 import { ambientGrid } from '../ambient-grid.js';
+import { memberColumn, NetworkRegistry, type MemberSlot, type NetworkSpec } from './network-parts.js';
+
+export type { NetworkSpec } from './network-parts.js';
 
 /** One resistor: value, tolerance (fraction), TCR bound (1/K), drift allowance (fraction), distribution. */
 export interface ResistorSpec {
@@ -149,6 +152,8 @@ export interface SupplySpec {
   windows?: { vout?: [number, number]; ilimit?: [number, number]; voutSides?: 'both' | 'low' | 'high' };
   /** The output voltage the design aims at, V (for reports). */
   voutTarget?: number;
+  /** Resistor networks: their members take the network's shared and own draws (network-parts.ts), not their own tolerance and TCR. */
+  networks?: NetworkSpec[];
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -161,6 +166,8 @@ interface ResistorSlot {
   value: number;
   tcr: number;
   drift: number;
+  /** A network member: its value comes from the network's draws (value and tcr are NONE). */
+  member?: MemberSlot;
 }
 
 interface LegSlots {
@@ -173,6 +180,7 @@ interface LegSlots {
 
 class PartList {
   readonly parts: Part[] = [];
+  networks: NetworkRegistry | null = null;
   add(part: Part): number {
     if (this.parts.some((p) => p.name === part.name)) {
       throw new InputError(`part ${part.name}`, 'two parts share this name', 'a unique designator for each part');
@@ -195,6 +203,12 @@ function addResistor(list: PartList, r: ResistorSpec, where: string, kind: 'resi
   if (r.tolerance >= 1) throw new InputError(`${where}.tolerance`, `${r.tolerance} would let the resistance reach 0 Ω`, 'a tolerance fraction below 1 (0.01 for 1 %)');
   checkFinite(r.tcrPerK, `${where}.tcrPerK`, 'a TCR bound ≥ 0 per kelvin (1e-4 for 100 ppm/K)');
   checkFinite(r.drift, `${where}.drift`, 'a drift fraction ≥ 0');
+  if (list.networks?.has(r.name)) {
+    if (kind !== 'resistor') throw new InputError(where, `${r.name} is a ${kind} and cannot be a network member`, 'fixed resistors of the divider, gain stage or threshold divider');
+    const member = list.networks.member(r.name, r.nominal, where);
+    const drift = r.drift ? list.add(partFromBound({ name: `${r.name} drift`, kind: 'drift', nominal: 0, plusMinus: r.drift })) : NONE;
+    return { value: NONE, tcr: NONE, drift, member };
+  }
   const input = { name: r.name, kind, nominal: r.nominal, tolerance: r.tolerance } as Parameters<typeof partFromTolerance>[0];
   if (r.distribution) input.distribution = r.distribution;
   if (r.tcrPerK !== undefined) input.tcrPerK = r.tcrPerK;
@@ -318,6 +332,7 @@ function scaledColumn(p: Float64Array[], value: number, drift: number, coefficie
 }
 
 function resistorColumn(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  if (s.member !== undefined) return memberColumn(p, s.member, s.drift, dT, n, scratch.take());
   return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
 }
 
@@ -463,6 +478,7 @@ const OUTPUT_UNITS = { vout: 'V', dividerCurrent: 'A', ilimit: 'A', shuntLoss: '
 export function buildSupplyModel(spec: SupplySpec): Model {
   const list = new PartList();
   const notes: string[] = [];
+  if (spec.networks && spec.networks.length > 0) list.networks = new NetworkRegistry(spec.networks, (part) => list.add(part));
 
   const t = spec.temperature;
   if (!t || !Number.isFinite(t.minC) || !Number.isFinite(t.maxC) || t.minC > t.maxC) {
@@ -497,6 +513,10 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   notes.push('Resistor TCRs, reference tempco and offset drift are unknown within their bounds for a given unit: drawn uniformly (common practice).');
 
   const sense = spec.sense ? addSense(spec.sense, spec, list, vref, notes) : null;
+  if (list.networks) {
+    list.networks.finish();
+    notes.push(...list.networks.notes());
+  }
   const count = sense ? 5 : 2;
 
   const scratch = new ScratchColumns();
