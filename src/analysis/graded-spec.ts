@@ -21,7 +21,7 @@ export interface ResistorGrade {
 }
 
 /** Every fixed resistor of the supply, in a stable order: divider legs, shunt, gain resistors, threshold divider. Potentiometers are left out (their track tolerance is not a resistor grade). */
-function resistorsOf(spec: SupplySpec): Array<{ path: string; kind: 'resistor' | 'shunt'; r: ResistorSpec }> {
+export function supplyResistors(spec: SupplySpec): Array<{ path: string; kind: 'resistor' | 'shunt'; r: ResistorSpec }> {
   const out: Array<{ path: string; kind: 'resistor' | 'shunt'; r: ResistorSpec }> = [];
   const leg = (l: LegSpec, path: string): void => {
     l.resistors.forEach((r, i) => out.push({ path: `${path}.resistors[${i}]`, kind: 'resistor', r }));
@@ -41,6 +41,12 @@ function resistorsOf(spec: SupplySpec): Array<{ path: string; kind: 'resistor' |
     }
   }
   return out;
+}
+
+/** The resistors a grade applies to: every fixed resistor but a network's members (a network is bought at its own figures). */
+function resistorsOf(spec: SupplySpec): Array<{ path: string; kind: 'resistor' | 'shunt'; r: ResistorSpec }> {
+  const members = new Set((spec.networks ?? []).flatMap((n) => n.members));
+  return supplyResistors(spec).filter(({ r }) => !members.has(r.name));
 }
 
 export function gradableResistors(spec: SupplySpec): GradableResistor[] {

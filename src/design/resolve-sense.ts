@@ -6,7 +6,8 @@ import { thresholdFromReference } from '../circuits/sense/threshold-divider.js';
 import { ImpossibleError, InputError } from '../errors.js';
 import { pickSense, type SenseCandidate, type SenseRequest } from '../pick/sense.js';
 import { exceedsLossLimit } from '../pick/sense/feasibility.js';
-import { loadShunts } from '../series/load.js';
+import { loadShunts, type SeriesName } from '../series/load.js';
+import { gradeForTolerance } from './grades.js';
 import { seriesValuesBetween } from '../series/enumerate.js';
 import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm, parseResistance } from '../units/index.js';
 import { mapPickerError } from './picker-errors.js';
@@ -65,7 +66,8 @@ export function resolveSense(design: Design): ResolvedSense {
       throw new InputError('current.shunt.rating', 'missing required field: the shunt rating is needed to pick the current-sense parts', 'a power rating such as "1 W"');
     }
     const firstGain = gainDesignators(c.topology)[0] ?? DESIGNATORS.thresholdTop;
-    const gainGrade = grades[firstGain] ?? grades[DESIGNATORS.shunt]!;
+    const network = gainNetwork(design);
+    const gainGrade = network ? networkGrade(network) : (grades[firstGain] ?? grades[DESIGNATORS.shunt]!);
     const range = c.gainRange ?? DEFAULT_GAIN_RANGE;
     const series = c.gainSeries ?? gainGrade.series;
     const volts = thresholdVolts(c);
@@ -94,6 +96,7 @@ export function resolveSense(design: Design): ResolvedSense {
       commonMode: c.commonMode ?? 0,
     };
     if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
+    if (network) request.gainNetwork = { name: network.name, tolerance: network.tolerance, ratio: network.ratio };
     const pick = mapPickerError(() => pickSense(request), SENSE_OPTION_FIELDS);
     // Never a candidate `sense` flags with "!" (exceedsLossLimit: one rule for both); the best of the others.
     const allowed = pick.candidates.filter((candidate) => !exceedsLossLimit(candidate));
@@ -123,6 +126,21 @@ export function resolveSense(design: Design): ResolvedSense {
     }
   }
   return { sense: senseSpec(design, parts, grades, lossLimit), parts, grades, ...(picked ? { picked } : {}), derating, notes };
+}
+
+/** The network holding every gain resistor of the topology (diff R1–R4), if the file declares one. */
+function gainNetwork(design: Design): { name: string; tolerance: number; ratio: number } | undefined {
+  const gain = gainDesignators(design.current.topology);
+  if (gain.length === 0) return undefined;
+  for (const [name, n] of Object.entries(design.networks ?? {})) {
+    if (gain.every((g) => n.members.includes(g))) return { name, tolerance: n.tolerance, ratio: n.ratio };
+  }
+  return undefined;
+}
+
+/** The picker's tolerance and series for a network's members: its absolute tolerance, the series that tolerance is usually sold in (common practice, grades.ts). */
+function networkGrade(network: { tolerance: number }): { tolerance: number; series: SeriesName } {
+  return { tolerance: network.tolerance, series: gradeForTolerance(network.tolerance)?.series ?? 'E192' };
 }
 
 export function gainDesignators(topology: Design['current']['topology']): string[] {

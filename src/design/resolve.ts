@@ -14,6 +14,7 @@ import { windowBounds } from './fields.js';
 import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
 import { resolveSense } from './resolve-sense.js';
+import { resolveNetworks } from './resolve-networks.js';
 import { DESIGNATORS, type Design } from './schema.js';
 
 export interface ResolvedDesign {
@@ -107,6 +108,13 @@ export function resolveDesign(design: Design): ResolvedDesign {
   // Without a window from the file only the limit each end must reach is the design's: HI at the top, LO at the bottom.
   const spec = base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both');
   const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo } : undefined;
+  // Resistor networks: members take the network's figures (resolve-networks.ts), in both ends of an adjustable output.
+  const networks = resolveNetworks(design, spec);
+  if (networks.networks.length > 0) {
+    spec.networks = networks.networks;
+    if (lowEnd) lowEnd.networks = resolveNetworks(design, lowEnd).networks;
+    notes.push(...networks.notes);
+  }
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);
@@ -116,6 +124,13 @@ export function resolveDesign(design: Design): ResolvedDesign {
   checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, limits);
 
   const bomParts: BomPart[] = [...divider.bomParts, ...senseBomParts(design, sense.parts, sense.grades, nominal)];
+  for (const part of bomParts) {
+    const network = spec.networks?.find((n) => n.name === networks.memberOf[part.designator]);
+    if (!network) continue;
+    part.tolerance = network.tolerance;
+    part.tcrPerK = network.tcrPerK ?? part.tcrPerK;
+    part.role = `${part.role}; in network ${network.name} (${network.members.join(', ')}), ratio ±${formatPercent(network.ratio)}`;
+  }
   const bom = bomParts.map(bomLine);
   const notFinite = [...Object.entries(nominal), ...bom.map((l) => [`${l.designator} power`, l.powerW] as const)].find(([, v]) => !Number.isFinite(v));
   if (notFinite) {

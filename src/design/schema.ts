@@ -24,6 +24,7 @@ import {
 } from './fields.js';
 import { GRADE_NAMES } from './grades.js';
 import { dividerLeg } from './divider-leg.js';
+import { networkIssues, networksField } from './network-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 
@@ -365,6 +366,7 @@ export const DesignSchema = z
     temperature: temperature.optional(),
     analysis: analysis.optional(),
     costs: costs.optional(),
+    networks: networksField(gradeFields.distribution.unwrap()).optional(),
   })
   .superRefine((d, ctx) => {
     const divider = d.voltage.divider;
@@ -382,6 +384,17 @@ export const DesignSchema = z
           message: `no part '${printableText(name)}' in this design`,
           params: { accepted: `a designator of this design: ${placed.join(', ')}`, unknownKey: name, validKeys: placed },
         });
+      }
+    }
+    if (d.networks) {
+      const explicitTwoPart = divider === 'auto' ? [] : twoPartLegs;
+      for (const issue of networkIssues(d.networks, placed, explicitTwoPart, Object.keys(d.resistors.overrides ?? {}), DESIGNATORS.shunt)) {
+        const params: Record<string, unknown> = { accepted: issue.accepted };
+        if (issue.unknownKey !== undefined) {
+          params['unknownKey'] = issue.unknownKey;
+          params['validKeys'] = issue.validKeys;
+        }
+        ctx.issues.push({ code: 'custom', path: issue.path, input: undefined, message: issue.message, params });
       }
     }
   })

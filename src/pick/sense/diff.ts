@@ -1,12 +1,14 @@
 // Picker side of the `diff` topology: four-resistor difference amplifier, R1 = R3 and R2 = R4 from the series,
 // gain R2/R1 = Vth/(Rs·I), each pair scored by the limit error it causes, |G/G' − 1|. The model keeps all four
 // resistors as separate uncertain parts and uses the exact transfer (src/circuits/sense/diff.ts), so tolerance
-// mismatch turns the common-mode voltage into limit error.
+// mismatch turns the common-mode voltage into limit error. With request.gainNetwork, R1–R4 are one network
+// (gain-resistors.ts): the quick worst case takes the corners of its shared × own terms.
 import { diffLimit, diffNominalGain, diffOutput, type DiffSense } from '../../circuits/sense/diff.js';
 import { nearestRatioPairs } from './ratio-pairs.js';
 import type { SenseDesign, SenseTopology } from './topology.js';
 import type { UncertainVariable } from './types.js';
 import { bandVariable, indexOfVariable, offsetVariable, toleranceVariable } from './variables.js';
+import { gainResistors } from './gain-resistors.js';
 
 export const diffTopology: SenseTopology = {
   name: 'diff',
@@ -24,26 +26,25 @@ export const diffTopology: SenseTopology = {
     return pairs.map((pair): SenseDesign => {
       const r2 = pair.numerator;
       const r1 = pair.denominator;
+      const gainSet = gainResistors(['R1', 'R2', 'R3', 'R4'], [r1, r2, r1, r2], request);
       const variables: UncertainVariable[] = [
         toleranceVariable('RS', shunt, request.shuntTolerance),
-        toleranceVariable('R1', r1, request.resistorTolerance),
-        toleranceVariable('R2', r2, request.resistorTolerance),
-        toleranceVariable('R3', r1, request.resistorTolerance),
-        toleranceVariable('R4', r2, request.resistorTolerance),
+        ...gainSet.variables,
         ...threshold.variables,
         offsetVariable('Vos', request.amplifierOffset),
         bandVariable('Ib', request.biasCurrent),
         offsetVariable('Vos_cmp', request.compareOffset),
       ];
-      const names = ['RS', 'R1', 'R2', 'R3', 'R4', 'Vos', 'Ib', 'Vos_cmp'] as const;
-      const [iRs, i1, i2, i3, i4, iVos, iIb, iCmp] = names.map((n) => indexOfVariable(variables, n)) as [number, number, number, number, number, number, number, number];
+      const names = ['RS', 'Vos', 'Ib', 'Vos_cmp'] as const;
+      const [iRs, iVos, iIb, iCmp] = names.map((n) => indexOfVariable(variables, n)) as [number, number, number, number];
+      gainSet.bind(variables);
       const thresholdOf = threshold.bind(variables);
       const circuit = (x: Float64Array): DiffSense => ({
         shunt: x[iRs]!,
-        r1: x[i1]!,
-        r2: x[i2]!,
-        r3: x[i3]!,
-        r4: x[i4]!,
+        r1: gainSet.value(x, 0),
+        r2: gainSet.value(x, 1),
+        r3: gainSet.value(x, 2),
+        r4: gainSet.value(x, 3),
         commonMode: request.commonMode,
         threshold: thresholdOf(x),
         amplifierOffset: x[iVos]!,
@@ -59,7 +60,7 @@ export const diffTopology: SenseTopology = {
           limit: (x) => diffLimit(circuit(x)),
           output: (x, current) => diffOutput(circuit(x), current),
           // The non-inverting input sits at the shunt's supply-side node through R3/R4; the inverting one follows it.
-          amplifierInput: (x, current) => ((request.commonMode + current * x[iRs]!) * x[i4]!) / (x[i3]! + x[i4]!),
+          amplifierInput: (x, current) => ((request.commonMode + current * x[iRs]!) * gainSet.value(x, 3)) / (gainSet.value(x, 2) + gainSet.value(x, 3)),
         },
       };
     });

@@ -32,6 +32,11 @@ export interface SenseRequest {
   resistorValues: readonly number[];
   /** Tolerance of the gain and threshold-divider resistors, a fraction. */
   resistorTolerance: number;
+  /**
+   * The gain resistors (diff R1–R4, noninv RF/RG) as one network: absolute tolerance and ratio tolerance, fractions
+   * (src/tolerance/network-bands.ts). Absent: each at ±resistorTolerance on its own.
+   */
+  gainNetwork?: { name: string; tolerance: number; ratio: number };
   /** Amplifier supply rail, V, and how close to it the output can swing, V. */
   rail: number;
   headroom: number;
