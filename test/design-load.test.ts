@@ -147,6 +147,19 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['two-resistor leg with a pot', (d) => { d.voltage.target = '3..12 V'; d.voltage.pot = { value: '10k' }; delete d.voltage.window; d.voltage.divider.top = '1k + 2k'; }, 'voltage.divider.top', /two-resistor legs are not offered with a pot/],
   ['search.parts not 2 or 3', (d) => { d.voltage.divider = 'auto'; d.voltage.search = { parts: 4 }; }, 'voltage.search.parts', /accepted: .*2 \(default, one per leg\) or 3/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
+  // Resistor networks (src/design/network-field.ts).
+  ['network field typo', (d) => (d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratoi: '0.05%' } }), 'networks.RN1.ratoi', /did you mean 'ratio'/],
+  ['network member not placed', (d) => (d.networks = { RN1: { members: ['RF', 'RGG'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN1.members[1]', /no part 'RGG' in this design \(did you mean 'RG'\?\); accepted: a resistor of this design: RTOP, RBOT, RF, RG/],
+  ['network ratio wider than its tolerance', (d) => (d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratio: '0.2%' } }), 'networks.RN1.ratio', /ratio tolerance 0.2 % is wider than the absolute tolerance 0.1 %; got "0.2%"; accepted: a ratio tolerance at most the absolute tolerance/],
+  ['network tracking past twice its TCR', (d) => (d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratio: '0.05%', tcr: '10ppm', tracking: '25ppm' } }), 'networks.RN1.tracking', /more than twice the 10 ppm\/K TCR/],
+  ['network of one member', (d) => (d.networks = { RN1: { members: ['RF'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN1.members', /too small|at least|>=2/i],
+  ['network member listed twice', (d) => (d.networks = { RN1: { members: ['RF', 'RF'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN1.members[1]', /'RF' is listed twice/],
+  ['the shunt in a network', (d) => (d.networks = { RN1: { members: ['RS', 'RG'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN1.members[0]', /the shunt RS cannot be a network member/],
+  ['a resistor in two networks', (d) => (d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratio: '0.05%' }, RN2: { members: ['RG', 'RTOP'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN2.members[0]', /RG is already a member of RN1/],
+  ['an override of a network member', (d) => { d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratio: '0.05%' } }; d.resistors.overrides = { RG: { grade: '0.1%' } }; }, 'resistors.overrides.RG', /RG is a member of the network RN1, whose tolerance and TCR it takes/],
+  ['a network named like a part', (d) => (d.networks = { RF: { members: ['RTOP', 'RBOT'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RF', /has the name of a part of this design/],
+  ['a network name that is not a designator', (d) => (d.networks = { 'RN 1': { members: ['RTOP', 'RBOT'], tolerance: '0.1%', ratio: '0.05%' } }), 'networks.RN 1', /is not a designator/],
+  ['a two-resistor leg named as a member', (d) => { d.voltage.divider.top = '10k + 20k'; d.networks = { RN1: { members: ['RTOP', 'RBOT'], tolerance: '0.1%', ratio: '0.05%' } }; }, 'networks.RN1.members[0]', /RTOP is a two-resistor leg here; got "RTOP"; accepted: its parts RTOP_A and RTOP_B/],
 ];
 
 describe('bad design files name the field path', () => {

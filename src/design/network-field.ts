@@ -12,6 +12,9 @@ function describe<T extends z.ZodType>(schema: T, meaning: string): T {
   return schema.meta({ description: accepted ? `${meaning}; ${accepted}` : meaning }) as T;
 }
 
+/** A fraction as a percentage for a message, without binary noise (0.1 %, not 0.30000000000000004 %). */
+const pct = (x: number): string => `${Number((x * 100).toPrecision(6))} %`;
+
 const DESIGNATOR = /^[A-Za-z][A-Za-z0-9_]{0,15}$/;
 
 /** One network. `distribution` is the design file's distribution field (passed in: it lives in schema.ts). */
@@ -31,7 +34,7 @@ function networkObject(distribution: z.ZodType<string>) {
     })
     .superRefine((n, ctx) => {
       if (n.ratio > n.tolerance) {
-        ctx.issues.push({ code: 'custom', path: ['ratio'], input: undefined, message: `the ratio tolerance ${n.ratio * 100} % is wider than the absolute tolerance ${n.tolerance * 100} %`, params: { accepted: 'a ratio tolerance at most the absolute tolerance (networks are sold with ratio ≤ absolute)' } });
+        ctx.issues.push({ code: 'custom', path: ['ratio'], input: undefined, message: `the ratio tolerance ${pct(n.ratio)} is wider than the absolute tolerance ${pct(n.tolerance)}`, params: { accepted: 'a ratio tolerance at most the absolute tolerance (networks are sold with ratio ≤ absolute)' } });
       }
       if (n.tracking !== undefined && n.tcr !== undefined && n.tracking > 2 * n.tcr * (1 + 1e-12)) {
         ctx.issues.push({ code: 'custom', path: ['tracking'], input: undefined, message: `tracking ${Math.round(n.tracking * 1e6 * 100) / 100} ppm/K is more than twice the ${Math.round(n.tcr * 1e6 * 100) / 100} ppm/K TCR`, params: { accepted: 'a tracking figure at most twice tcr (two members inside ±tcr differ by at most 2·tcr)' } });
