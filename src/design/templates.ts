@@ -14,6 +14,7 @@ const COMMON_NOTES = [
   'current: the current limit: target, window, topology (direct, noninv, diff), shunt, amplifier offsets, threshold, gain resistors.',
   'Bias currents: "20 nA" is exactly 20 nA, "±20 nA" or "10n±10n" a band, "0..20n" a range, "max 20 nA" anywhere in 0..20 nA.',
   'resistors: the default grade (10%, 5%, 2%, 1%, 0.5%, 0.25%, 0.1%, 0.05%, 0.02%, 0.01%), the grades `grades` compares (grades, default 5%, 1%, 0.5%, 0.1%), with per-designator overrides (RTOP, RBOT, RS, RF, RG, R1-R4, RT1, RT2).',
+  'networks (optional): resistors bought as one network, e.g. { "RN1": { "members": ["R1", "R2", "R3", "R4"], "tolerance": "0.1%", "ratio": "0.05%", "tcr": "25ppm", "tracking": "5ppm" } }: the members share one draw and each has its own, so both the absolute and the ratio (matching) band hold; members take the network\'s figures, not the resistor grade.',
   'temperature: ambient range for TCRs and drifts. analysis: Monte Carlo trials ("auto" or a number) and seed. costs: relative cost per grade (defaults illustrative).',
 ];
 
@@ -60,7 +61,7 @@ const TEMPLATES: Record<StarterKind, DesignInput> = {
     analysis: { trials: 'auto', seed: 1 },
   },
   led: {
-    notes: [...COMMON_NOTES, 'LED driver: the current loop sets the LED current; the voltage loop only clamps the output if the string opens. High-side sensing with a difference amplifier.'],
+    notes: [...COMMON_NOTES, 'LED driver: the current loop sets the LED current; the voltage loop only clamps the output if the string opens. High-side sensing with a difference amplifier.', 'At high common mode the match of R1..R4 sets most of the limit error: four loose 0.1 % parts here, or one network with a ratio tolerance (see "networks" above; examples/led-driver-highside-network.json shows the difference).'],
     application: 'led',
     reference: { voltage: '0.8 V', tolerance: '1%' },
     voltage: { target: '24 V', window: '±4%', divider: 'auto', feedbackBias: 'max 50 nA' },
