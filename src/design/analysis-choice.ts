@@ -5,6 +5,8 @@ import { analyze } from '../analysis/analyze.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
+import { DEFAULT_LIFE_CONDITION, lifeConditionOr, type LifeCondition } from '../tolerance/life-allowances.js';
+import { specForCondition } from './life-condition.js';
 import { DEFAULT_SEED, type ResolvedDesign } from './resolve.js';
 
 export interface AnalysisChoice {
@@ -15,6 +17,8 @@ export interface AnalysisChoice {
   notes?: string[];
   /** Report the engine's progress to the progress sink (the CLI draws it only on a terminal, after a second). */
   progress: boolean;
+  /** As built (no drift) or end of life (with the drift allowances): what the figures describe (absent: as built). */
+  condition?: LifeCondition;
 }
 
 /** What the command line asked for; anything left out comes from the design file, then the defaults. */
@@ -22,6 +26,7 @@ export interface CommandLineAnalysis {
   trials?: number | 'auto';
   seed?: number;
   workers?: number;
+  condition?: LifeCondition;
 }
 
 /** Where a long run reports how far it has got. */
@@ -46,6 +51,7 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
     trials: cli.trials ?? resolved.analysis.trials ?? defaultTrials,
     seed: cli.seed ?? resolved.analysis.seed ?? DEFAULT_SEED,
     progress: true,
+    condition: cli.condition ?? resolved.life?.condition ?? DEFAULT_LIFE_CONDITION,
   };
   const workers = cli.workers ?? resolved.analysis.workers;
   if (workers !== undefined) {
@@ -67,4 +73,21 @@ export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, 
   } finally {
     progress.finish();
   }
+}
+
+/** The condition a choice analyses (as built when it names none). */
+export function conditionOf(choice: AnalysisChoice): LifeCondition {
+  return lifeConditionOr(choice.condition);
+}
+
+/**
+ * The resolved design for the chosen condition: its spec (and low end) with the drift allowances the condition
+ * takes (life-condition.ts), and a note saying which condition the figures describe.
+ */
+export function resolvedForCondition(resolved: ResolvedDesign, condition: LifeCondition = DEFAULT_LIFE_CONDITION): ResolvedDesign {
+  const plan = resolved.life ?? { resistors: {} };
+  const main = specForCondition(resolved.spec, plan, condition);
+  const out: ResolvedDesign = { ...resolved, spec: main.spec, notes: [...resolved.notes, ...main.notes] };
+  if (resolved.lowEnd) out.lowEnd = specForCondition(resolved.lowEnd, plan, condition).spec;
+  return out;
 }

@@ -15,6 +15,8 @@ import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
 import { resolveSense } from './resolve-sense.js';
 import { DESIGNATORS, type Design } from './schema.js';
+import { lifePlanOf, type LifePlan } from './life-condition.js';
+import { withProductionSpread } from './production-spread.js';
 
 export interface ResolvedDesign {
   /** The engine's input: at the top of the range for an adjustable output. */
@@ -33,6 +35,10 @@ export interface ResolvedDesign {
   /** The grades the design file allows (resistors.grades), widest first; absent: the default four. */
   allowedGrades?: GradeName[];
   analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
+  /** What the file says about drift (life-condition.ts): the analysis condition picks the spec from it (absent: nothing). */
+  life?: LifePlan;
+  /** The file's lot structure (lots), for the lot study. */
+  lots?: NonNullable<Design['lots']>;
   /** Limits no part choice can fix (e.g. a window narrower than the reference alone allows), stated in the output. */
   limits?: string[];
   /** What the analysed figures are checked against in the caution box (output-cautions.ts). */
@@ -105,8 +111,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
     return spec;
   }
   // Without a window from the file only the limit each end must reach is the design's: HI at the top, LO at the bottom.
-  const spec = base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both');
-  const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo } : undefined;
+  // The file's production distributions (binned resistors, the reference's, offsets' and bias currents') on both ends.
+  const spec = withProductionSpread(base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both'), design);
+  const lowEnd = divider.lowLegs ? withProductionSpread({ ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo }, design) : undefined;
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
   checkOperatingPoint(design, nominal, sense.derating);
@@ -143,7 +150,8 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: design.voltage.window ? voutWindow : null };
   if (design.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = design.voltage.absoluteMax;
-  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits };
+  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits, life: lifePlanOf(design, spec) };
+  if (design.lots) resolved.lots = design.lots;
   if (design.resistors.grades) resolved.allowedGrades = GRADE_NAMES.filter((g) => design.resistors.grades!.includes(g));
   if (lowEnd) resolved.lowEnd = lowEnd;
   if (limits.length > 0) {

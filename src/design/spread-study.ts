@@ -4,7 +4,7 @@
 import type { Model } from '../analysis/model.js';
 import { buildSupplyModel } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
-import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { analyzeAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { outputCautions } from './output-cautions.js';
 import type { ResolvedDesign } from './resolve.js';
 
@@ -21,7 +21,9 @@ export interface SpreadRun {
 }
 
 /** Runs the analysis of a resolved design (and of its low end when the output is adjustable). */
-export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
+export async function runSpread(asResolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
+  // The condition (as built, or end of life with the drift allowances) decides which parts the spec carries.
+  const resolved = resolvedForCondition(asResolved, choice.condition);
   const model = buildSupplyModel(resolved.spec);
   const result = await analyzeAsChosen(resolved.spec, choice, 'spread', progressFor);
   // The cautions that quote analysed figures go first in the caution box.

@@ -2,6 +2,7 @@
 // cautions and design notes, the pot's bottom end for an adjustable output, and any further tables (`design` adds
 // the grade comparison: src/report/grades-tables.ts).
 import type { SpreadRun } from '../design/spread-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { bomRows } from './bom-table.js';
 import { renderHtmlReport, type ReportProvenance, type ReportTable } from './html-report.js';
 
@@ -21,7 +22,7 @@ export interface SpreadRunHtmlOptions {
 export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOptions): string {
   const { subject, command, tables } = options;
   const input: Parameters<typeof renderHtmlReport>[0] = {
-    title: `trimfree spread report: ${subject}`,
+    title: `trimfree spread report: ${subject}, ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}`,
     subject,
     version: options.version,
     result: run.result,

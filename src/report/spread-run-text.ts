@@ -1,6 +1,7 @@
 // A spread study as the terminal report: each analysis (and the pot's bottom end for an adjustable output), then
 // the limits no resistor grade can fix, the design notes and the cautions from the design's resolution.
 import type { SpreadRun } from '../design/spread-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { POT_OUTPUTS } from './pot-ends.js';
 import { renderSpreadText } from './spread-text.js';
 
@@ -15,7 +16,9 @@ export interface SpreadRunTextOptions {
 }
 
 export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
-  const { subject, version } = options;
+  const { version } = options;
+  // The heading says which condition the figures describe: as built, or end of life with the drift allowances.
+  const subject = `${options.subject}, ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}`;
   const partNames = run.model.parts.map((p) => p.name);
   const verdict = { ...(options.targetYieldPct !== undefined ? { targetYieldPct: options.targetYieldPct } : {}), colour: options.colour ?? false };
   if (!run.lowEnd) return withDesignNotes(renderSpreadText(run.result, { version, subject, partNames, ...verdict }), run);
