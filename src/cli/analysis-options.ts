@@ -71,12 +71,18 @@ export function conditionFlag(): Option {
   return new Option('--condition <as-built|end-of-life>', "as-built: tolerances only; end-of-life: plus every drift allowance (load life, damp heat, soldering, reference drift) (default: the file's analysis.condition, else as-built)").argParser(conditionOption('--condition'));
 }
 
+/** `--lots <K>` (spread): the lot study with K lots (reel-lot model). */
+export function lotsFlag(): Option {
+  return new Option('--lots <K>', "also simulate K lots (2 to 1000) of the reel-lot model and report the worst lot's yield beside the overall (default: the file's lots, else none)").argParser(integerOption('--lots', 2, 1000));
+}
+
 /** The parsed --seed, --trials, --workers and --condition as commander gives them. */
 export interface AnalysisCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
   condition?: LifeCondition;
+  lots?: number;
 }
 
 /** What the command line asks of the analysis (only the options given; the design file and defaults fill the rest). */
@@ -86,6 +92,7 @@ export function commandLineAnalysis(options: AnalysisCliOptions): CommandLineAna
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
   if (options.condition !== undefined) cli.condition = options.condition;
+  if (options.lots !== undefined) cli.lots = options.lots;
   return cli;
 }
 

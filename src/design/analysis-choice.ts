@@ -2,6 +2,7 @@
 // `analysis` section over the defaults), and one engine run with that choice, reporting progress to whatever sink
 // the caller passes in (the CLI draws it on a terminal; tests and library callers pass nothing).
 import { analyze } from '../analysis/analyze.js';
+import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
@@ -19,6 +20,14 @@ export interface AnalysisChoice {
   progress: boolean;
   /** As built (no drift) or end of life (with the drift allowances): what the figures describe (absent: as built). */
   condition?: LifeCondition;
+  /** The lot study (reel-lot model, src/analysis/lot-study.ts) the spread study adds, when asked for. */
+  lots?: LotChoice;
+}
+
+export interface LotChoice {
+  count: number;
+  share: number;
+  trialsPerLot: number;
 }
 
 /** What the command line asked for; anything left out comes from the design file, then the defaults. */
@@ -27,6 +36,8 @@ export interface CommandLineAnalysis {
   seed?: number;
   workers?: number;
   condition?: LifeCondition;
+  /** --lots K: run the lot study with K lots. */
+  lots?: number;
 }
 
 /** Where a long run reports how far it has got. */
@@ -53,6 +64,10 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
     progress: true,
     condition: cli.condition ?? resolved.life?.condition ?? DEFAULT_LIFE_CONDITION,
   };
+  const lotCount = cli.lots ?? resolved.lots?.count;
+  if (lotCount !== undefined) {
+    choice.lots = { count: lotCount, share: resolved.lots?.share ?? DEFAULT_LOT_SHARE, trialsPerLot: resolved.lots?.trialsPerLot ?? DEFAULT_TRIALS_PER_LOT };
+  }
   const workers = cli.workers ?? resolved.analysis.workers;
   if (workers !== undefined) {
     const capped = cappedWorkerCount(workers, cli.workers !== undefined ? '--workers' : 'analysis.workers');

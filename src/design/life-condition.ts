@@ -11,7 +11,7 @@ import { formatPercent } from '../units/index.js';
 import type { DriftAllowancesInput } from './life-fields.js';
 import { boundDistributionSpec } from './production-spread.js';
 import { DESIGNATORS, type Design } from './schema.js';
-import { legOf, specResistors } from './spec-resistors.js';
+import { legOf, specResistors } from '../analysis/spec-resistors.js';
 
 /** What the design file says about drift, gathered once at resolve time (plain JSON). */
 export interface LifePlan {

@@ -8,7 +8,7 @@ import type { DistributionSpec } from '../tolerance/part.js';
 import type { BoundDistributionName } from './life-fields.js';
 import { distributionSpec } from './part-grade.js';
 import type { Design, DistributionName } from './schema.js';
-import { legOf, specResistors } from './spec-resistors.js';
+import { legOf, specResistors } from '../analysis/spec-resistors.js';
 
 /** σ of the production normal a binned grade is cut from: band = 3σ (common practice, as the other normals). */
 const BINNED_K = 3;

@@ -4,6 +4,7 @@
 import type { SpreadRun } from '../design/spread-study.js';
 import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { bomRows } from './bom-table.js';
+import { lotReportTable } from './lot-table.js';
 import { renderHtmlReport, type ReportProvenance, type ReportTable } from './html-report.js';
 
 export interface SpreadRunHtmlOptions {
@@ -32,7 +33,7 @@ export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOption
     designNotes: run.resolved.notes,
   };
   if (command) input.command = command;
-  if (tables) input.tables = tables;
+  if (tables || run.lots) input.tables = [...(run.lots ? [lotReportTable(run.lots)] : []), ...(tables ?? [])];
   if (options.provenance) input.provenance = options.provenance;
   if (options.targetYieldPct !== undefined) input.targetYieldPct = options.targetYieldPct;
   if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };

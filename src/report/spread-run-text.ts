@@ -2,6 +2,7 @@
 // the limits no resistor grade can fix, the design notes and the cautions from the design's resolution.
 import type { SpreadRun } from '../design/spread-study.js';
 import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
+import { renderLotText } from './lot-table.js';
 import { POT_OUTPUTS } from './pot-ends.js';
 import { renderSpreadText } from './spread-text.js';
 
@@ -35,6 +36,7 @@ export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOption
 
 function withDesignNotes(body: string, run: SpreadRun): string {
   let text = body;
+  if (run.lots) text += renderLotText(run.lots);
   const limits = run.resolved.limits ?? [];
   const notes = run.resolved.notes.filter((n) => !limits.includes(n));
   if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;

@@ -1,6 +1,6 @@
-// Every resistor of an engine SupplySpec with its kind and field path, potentiometers included: the walk the design
-// layer's passes over a resolved spec share (drift allowances, production distributions, lots).
-import type { LegSpec, ResistorSpec, SupplySpec } from '../analysis/models/supply.js';
+// Every resistor of an engine SupplySpec with its kind and field path, potentiometers included: the walk the passes
+// over a resolved spec share (drift allowances, production distributions in src/design/, the lot study).
+import type { LegSpec, ResistorSpec, SupplySpec } from './models/supply.js';
 
 export interface SpecResistor {
   r: ResistorSpec;
