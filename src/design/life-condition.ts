@@ -23,6 +23,8 @@ export interface LifePlan {
   allResistors?: AllowanceSpec[];
   /** The fixed threshold's (current.threshold.drift). */
   threshold?: AllowanceSpec[];
+  /** reference.drift: the regulator reference's drift allowance, a fraction. */
+  referenceDrift?: number;
 }
 
 /** A design file's drift block as the engine's allowances (zero bands left out). */
@@ -43,6 +45,7 @@ export function allowancesOf(block: DriftAllowancesInput): AllowanceSpec[] {
 export function lifePlanOf(design: Design, spec: SupplySpec): LifePlan {
   const plan: LifePlan = { resistors: {} };
   if (design.analysis?.condition !== undefined) plan.condition = design.analysis.condition;
+  if (design.reference.drift) plan.referenceDrift = design.reference.drift;
   const overrides = design.resistors.overrides ?? {};
   if (design.resistors.drift) plan.allResistors = allowancesOf(design.resistors.drift);
   if (design.current.threshold.drift) plan.threshold = allowancesOf(design.current.threshold.drift);
@@ -82,11 +85,13 @@ export function specForCondition(spec: SupplySpec, plan: LifePlan, condition: Li
       delete r.allowancesFromGrade;
     }
     if (out.sense?.threshold.kind === 'fixed') delete out.sense.threshold.allowances;
+    if (plan.referenceDrift) dropped.unshift(`reference.drift ±${formatPercent(plan.referenceDrift)}`);
     const given = dropped.length > 0 || Object.keys(plan.resistors).length > 0 || plan.allResistors !== undefined || plan.threshold !== undefined;
     notes.push(`Analysed as built: tolerances, TCRs and tempcos only, no drift allowances${given ? ` (those given${dropped.length > 0 ? `, e.g. ${dropped.join(', ')},` : ''} count at end of life)` : ''}; --condition end-of-life adds them.`);
     return { spec: out, notes };
   }
 
+  if (plan.referenceDrift) out.reference.drift = plan.referenceDrift;
   const fromGrade: string[] = [];
   const none: string[] = [];
   for (const { r, kind } of resistors) {

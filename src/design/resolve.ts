@@ -19,7 +19,7 @@ import { lifePlanOf, type LifePlan } from './life-condition.js';
 import { withProductionSpread } from './production-spread.js';
 
 export interface ResolvedDesign {
-  /** The engine's input: at the top of the range for an adjustable output. */
+  /** The engine's input, as built (no drift allowances: resolvedForCondition adds them): at the top of the range for an adjustable output. */
   spec: SupplySpec;
   /** Adjustable output only: the same supply with the pot at the bottom of its travel (vout window [0, LO]). */
   lowEnd?: SupplySpec;
@@ -76,7 +76,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (ib && design.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
-  if (design.reference.drift) reference.drift = design.reference.drift;
+  // reference.drift is a drift allowance: the spec is as built, and life-condition.ts adds it at end of life.
   if (design.reference.tempco) reference.tempcoPerK = design.reference.tempco;
 
   const ilimitWindow = windowBounds(design.current.window, design.current.target);
