@@ -1,6 +1,7 @@
 // The same supply with its resistors ordered in other tolerance grades: a copy of the SupplySpec with each named
 // resistor's tolerance (and TCR, where the grade brings one) replaced. Nominal values, distributions, the reference,
 // offsets and temperature stay as they are, so two graded copies differ only in the resistors' grades.
+import { defaultAllowances } from '../tolerance/life-allowances.js';
 import type { LegSpec, ResistorSpec, SupplySpec } from './models/supply.js';
 
 export interface GradableResistor {
@@ -71,6 +72,12 @@ export function gradedSpec(spec: SupplySpec, grades: Record<string, ResistorGrad
     if (!grade) continue;
     r.tolerance = grade.tolerance;
     if (kind === 'resistor' && grade.tcrPerK !== undefined) r.tcrPerK = grade.tcrPerK;
+    // Drift allowances that were the old grade's defaults become the new grade's (life-allowances.ts).
+    if (r.allowancesFromGrade) {
+      const allowances = defaultAllowances(grade.tolerance);
+      if (allowances) r.allowances = allowances;
+      else delete r.allowances;
+    }
   }
   for (const name of Object.keys(grades)) {
     if (!known.has(name)) throw new Error(`gradedSpec: the supply has no resistor named ${name}`);

@@ -4,6 +4,8 @@
 import { Option } from 'commander';
 import type { CommandLineAnalysis, ProgressFactory } from '../design/analysis-choice.js';
 import { InputError } from '../errors.js';
+import { LIFE_CONDITIONS, type LifeCondition } from '../tolerance/life-allowances.js';
+import { printableText } from '../user-text.js';
 import { integerOption } from './option-parsers.js';
 import { createProgress } from './progress.js';
 
@@ -55,11 +57,32 @@ export function workersFlag(): Option {
   return new Option('--workers <n>', "worker threads, capped at the cores; results do not depend on it (default: the file's, else one per 1e6 trials up to every core)").argParser(workersOption('--workers'));
 }
 
-/** The parsed --seed, --trials and --workers as commander gives them. */
+/** `--condition as-built|end-of-life`: what the figures describe (life-condition.ts). */
+export function conditionOption(name: string): (value: string) => LifeCondition {
+  return (value: string) => {
+    const text = value.trim().toLowerCase();
+    const found = LIFE_CONDITIONS.find((c) => c === text);
+    if (!found) throw new InputError(name, text === '' ? 'empty condition' : `no condition ${JSON.stringify(printableText(value))}`, `${LIFE_CONDITIONS.join(' or ')} (as built: tolerances only; end of life: plus the drift allowances)`);
+    return found;
+  };
+}
+
+export function conditionFlag(): Option {
+  return new Option('--condition <as-built|end-of-life>', "as-built: tolerances only; end-of-life: plus every drift allowance (load life, damp heat, soldering, reference drift) (default: the file's analysis.condition, else as-built)").argParser(conditionOption('--condition'));
+}
+
+/** `--lots <K>` (spread): the lot study with K lots (reel-lot model). */
+export function lotsFlag(): Option {
+  return new Option('--lots <K>', "also simulate K lots (2 to 1000) of the reel-lot model and report the worst lot's yield beside the overall (default: the file's lots, else none)").argParser(integerOption('--lots', 2, 1000));
+}
+
+/** The parsed --seed, --trials, --workers and --condition as commander gives them. */
 export interface AnalysisCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+  condition?: LifeCondition;
+  lots?: number;
 }
 
 /** What the command line asks of the analysis (only the options given; the design file and defaults fill the rest). */
@@ -68,6 +91,8 @@ export function commandLineAnalysis(options: AnalysisCliOptions): CommandLineAna
   if (options.trials !== undefined) cli.trials = options.trials;
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
+  if (options.condition !== undefined) cli.condition = options.condition;
+  if (options.lots !== undefined) cli.lots = options.lots;
   return cli;
 }
 

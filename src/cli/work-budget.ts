@@ -48,6 +48,11 @@ export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: n
       parallel += runs * work.spread.trials;
       parts.push(`${runs > 1 ? `${runs} × ` : ''}${work.spread.trials} spread trials`);
     }
+    const lots = work.spread.lots;
+    if (lots) {
+      parallel += lots.count * lots.trialsPerLot;
+      parts.push(`${lots.count} lots × ${lots.trialsPerLot} trials`);
+    }
   }
   if (work.grades) {
     const perGrade = work.grades.choice.trials;

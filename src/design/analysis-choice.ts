@@ -2,9 +2,12 @@
 // `analysis` section over the defaults), and one engine run with that choice, reporting progress to whatever sink
 // the caller passes in (the CLI draws it on a terminal; tests and library callers pass nothing).
 import { analyze } from '../analysis/analyze.js';
+import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
+import { DEFAULT_LIFE_CONDITION, lifeConditionOr, type LifeCondition } from '../tolerance/life-allowances.js';
+import { specForCondition } from './life-condition.js';
 import { DEFAULT_SEED, type ResolvedDesign } from './resolve.js';
 
 export interface AnalysisChoice {
@@ -15,6 +18,16 @@ export interface AnalysisChoice {
   notes?: string[];
   /** Report the engine's progress to the progress sink (the CLI draws it only on a terminal, after a second). */
   progress: boolean;
+  /** As built (no drift) or end of life (with the drift allowances): what the figures describe (absent: as built). */
+  condition?: LifeCondition;
+  /** The lot study (reel-lot model, src/analysis/lot-study.ts) the spread study adds, when asked for. */
+  lots?: LotChoice;
+}
+
+export interface LotChoice {
+  count: number;
+  share: number;
+  trialsPerLot: number;
 }
 
 /** What the command line asked for; anything left out comes from the design file, then the defaults. */
@@ -22,6 +35,9 @@ export interface CommandLineAnalysis {
   trials?: number | 'auto';
   seed?: number;
   workers?: number;
+  condition?: LifeCondition;
+  /** --lots K: run the lot study with K lots. */
+  lots?: number;
 }
 
 /** Where a long run reports how far it has got. */
@@ -46,7 +62,12 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
     trials: cli.trials ?? resolved.analysis.trials ?? defaultTrials,
     seed: cli.seed ?? resolved.analysis.seed ?? DEFAULT_SEED,
     progress: true,
+    condition: cli.condition ?? resolved.life?.condition ?? DEFAULT_LIFE_CONDITION,
   };
+  const lotCount = cli.lots ?? resolved.lots?.count;
+  if (lotCount !== undefined) {
+    choice.lots = { count: lotCount, share: resolved.lots?.share ?? DEFAULT_LOT_SHARE, trialsPerLot: resolved.lots?.trialsPerLot ?? DEFAULT_TRIALS_PER_LOT };
+  }
   const workers = cli.workers ?? resolved.analysis.workers;
   if (workers !== undefined) {
     const capped = cappedWorkerCount(workers, cli.workers !== undefined ? '--workers' : 'analysis.workers');
@@ -67,4 +88,21 @@ export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, 
   } finally {
     progress.finish();
   }
+}
+
+/** The condition a choice analyses (as built when it names none). */
+export function conditionOf(choice: AnalysisChoice): LifeCondition {
+  return lifeConditionOr(choice.condition);
+}
+
+/**
+ * The resolved design for the chosen condition: its spec (and low end) with the drift allowances the condition
+ * takes (life-condition.ts), and a note saying which condition the figures describe.
+ */
+export function resolvedForCondition(resolved: ResolvedDesign, condition: LifeCondition = DEFAULT_LIFE_CONDITION): ResolvedDesign {
+  const plan = resolved.life ?? { resistors: {} };
+  const main = specForCondition(resolved.spec, plan, condition);
+  const out: ResolvedDesign = { ...resolved, spec: main.spec, notes: [...resolved.notes, ...main.notes] };
+  if (resolved.lowEnd) out.lowEnd = specForCondition(resolved.lowEnd, plan, condition).spec;
+  return out;
 }

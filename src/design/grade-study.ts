@@ -9,7 +9,7 @@ import type { AnalysisResult } from '../analysis/result.js';
 import { jointYieldAsync } from '../analysis/joint-yield-async.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
-import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { analyzeAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { DEFAULT_GRADE_NAMES, GRADES, gradeSoldAt, type Grade, type GradeName } from './grades.js';
 import type { ResolvedDesign } from './resolve.js';
 import { formatRkmDigits } from '../units/index.js';
@@ -143,7 +143,9 @@ function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: bool
   return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
 }
 
-export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions, progressFor: ProgressFactory = silentProgress): Promise<GradesRun> {
+export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions, progressFor: ProgressFactory = silentProgress): Promise<GradesRun> {
+  // The condition (as built, or end of life with the drift allowances) first: every graded copy starts from it.
+  const resolved = resolvedForCondition(asResolved, choice.condition);
   const spec = resolved.spec;
   const parts = gradableResistors(spec);
   const costs = resolved.costs;

@@ -16,9 +16,11 @@ import { feedbackBias, resolveDivider } from './resolve-divider.js';
 import { resolveSense } from './resolve-sense.js';
 import { resolveNetworks } from './resolve-networks.js';
 import { DESIGNATORS, type Design } from './schema.js';
+import { lifePlanOf, type LifePlan } from './life-condition.js';
+import { withProductionSpread } from './production-spread.js';
 
 export interface ResolvedDesign {
-  /** The engine's input: at the top of the range for an adjustable output. */
+  /** The engine's input, as built (no drift allowances: resolvedForCondition adds them): at the top of the range for an adjustable output. */
   spec: SupplySpec;
   /** Adjustable output only: the same supply with the pot at the bottom of its travel (vout window [0, LO]). */
   lowEnd?: SupplySpec;
@@ -34,6 +36,10 @@ export interface ResolvedDesign {
   /** The grades the design file allows (resistors.grades), widest first; absent: the default four. */
   allowedGrades?: GradeName[];
   analysis: { trials?: number | 'auto'; seed?: number; workers?: number };
+  /** What the file says about drift (life-condition.ts): the analysis condition picks the spec from it (absent: nothing). */
+  life?: LifePlan;
+  /** The file's lot structure (lots), for the lot study. */
+  lots?: NonNullable<Design['lots']>;
   /** Limits no part choice can fix (e.g. a window narrower than the reference alone allows), stated in the output. */
   limits?: string[];
   /** What the analysed figures are checked against in the caution box (output-cautions.ts). */
@@ -71,7 +77,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (ib && design.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
-  if (design.reference.drift) reference.drift = design.reference.drift;
+  // reference.drift is a drift allowance: the spec is as built, and life-condition.ts adds it at end of life.
   if (design.reference.tempco) reference.tempcoPerK = design.reference.tempco;
 
   const ilimitWindow = windowBounds(design.current.window, design.current.target);
@@ -106,8 +112,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
     return spec;
   }
   // Without a window from the file only the limit each end must reach is the design's: HI at the top, LO at the bottom.
-  const spec = base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both');
-  const lowEnd = divider.lowLegs ? { ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo } : undefined;
+  // The file's production distributions (binned resistors, the reference's, offsets' and bias currents') on both ends.
+  const spec = withProductionSpread(base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both'), design);
+  const lowEnd = divider.lowLegs ? withProductionSpread({ ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo }, design) : undefined;
   // Resistor networks: members take the network's figures (resolve-networks.ts), in both ends of an adjustable output.
   const networks = resolveNetworks(design, spec);
   if (networks.networks.length > 0) {
@@ -158,7 +165,8 @@ export function resolveDesign(design: Design): ResolvedDesign {
 
   const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: design.voltage.window ? voutWindow : null };
   if (design.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = design.voltage.absoluteMax;
-  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits };
+  const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits, life: lifePlanOf(design, spec) };
+  if (design.lots) resolved.lots = design.lots;
   if (design.resistors.grades) resolved.allowedGrades = GRADE_NAMES.filter((g) => design.resistors.grades!.includes(g));
   if (lowEnd) resolved.lowEnd = lowEnd;
   if (limits.length > 0) {

@@ -27,6 +27,7 @@ import { dividerLeg } from './divider-leg.js';
 import { networkIssues, networksField } from './network-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
+import { boundDistribution, driftAllowances, lifeCondition, lots, sortedOut } from './life-fields.js';
 
 /** Adds what a field means in front of what it accepts (the value field's own description). */
 function describe<T extends z.ZodType>(schema: T, meaning: string): T {
@@ -36,7 +37,8 @@ function describe<T extends z.ZodType>(schema: T, meaning: string): T {
 
 export const TOPOLOGIES = ['direct', 'noninv', 'diff'] as const;
 export type Topology = (typeof TOPOLOGIES)[number];
-export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'normal-unbounded', 'triangular'] as const;
+export const DISTRIBUTIONS = ['uniform', 'normal', 'truncated-normal', 'normal-unbounded', 'triangular', 'binned'] as const;
+const BINNED_TEXT = 'binned: what is left of a normal production (band = 3σ) after the tighter grade named by sortedOut was sorted out of it (common practice)';
 export type DistributionName = (typeof DISTRIBUTIONS)[number];
 export const APPLICATIONS = ['charger', 'bench', 'led', 'other'] as const;
 export type Application = (typeof APPLICATIONS)[number];
@@ -97,6 +99,8 @@ const reference = z
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'initial tolerance of Vref (datasheet, over temperature if given so)'),
     drift: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'long-term drift allowance of Vref').optional(),
     tempco: describe(ppmPerK(), 'temperature coefficient bound of Vref, if the tolerance does not already cover temperature').optional(),
+    distribution: z.enum(DISTRIBUTIONS).meta({ description: `how Vref spreads inside its tolerance: ${DISTRIBUTIONS.join(', ')} (default uniform; normal: tolerance = 3σ, cut off at the band; ${BINNED_TEXT})` }).optional(),
+    sortedOut: sortedOut.optional(),
     notes: notes.optional(),
   })
   .meta({ description: 'the reference the regulator holds its feedback pin at' });
@@ -125,6 +129,7 @@ const pot = z
     value: describe(resistance(), 'potentiometer end-to-end resistance'),
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'pot tolerance (default 20 %)').optional(),
     leg: z.enum(POT_LEGS).meta({ description: 'leg the pot is in: top (default) or bottom' }).optional(),
+    drift: driftAllowances.optional(),
   })
   .meta({ description: 'a potentiometer for an adjustable output (target is then a range LO..HI)' });
 
@@ -139,6 +144,7 @@ const voltageSection = z
     search: dividerSearch.optional(),
     pot: pot.optional(),
     feedbackBias: describe(currentBand(), 'feedback-pin bias current, positive into the pin (default 0); the divider picker aims at its nominal').optional(),
+    feedbackBiasDistribution: boundDistribution('how the feedback-pin bias current spreads over its band').optional(),
     notes: notes.optional(),
   })
   .superRefine((v, ctx) => {
@@ -189,6 +195,7 @@ const shunt = z
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'shunt tolerance (default: the resistor grade)').optional(),
     tcr: describe(ppmPerK(), 'shunt TCR (default: the resistor grade\'s)').optional(),
     thermalResistance: describe(thermalResistance(), 'θ shunt to ambient, for self-heating θ·I²R (default 0)').optional(),
+    drift: driftAllowances.optional(),
     candidates: z
       .array(z.union([z.string(), z.number()]))
       .max(MAX_SHUNT_CANDIDATES)
@@ -202,6 +209,8 @@ const amplifier = z
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
     biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0)').optional(),
+    vosDistribution: boundDistribution('how the offset spreads over ±vos').optional(),
+    biasDistribution: boundDistribution('how the bias current spreads over its band').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })
@@ -214,6 +223,8 @@ const threshold = z
     reference: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'reference the threshold divider RT1/RT2 is fed from').optional(),
     top: autoOr(PARSERS.resistance, 'RT1, reference to threshold node').optional(),
     bottom: autoOr(PARSERS.resistance, 'RT2, threshold node to ground').optional(),
+    distribution: boundDistribution('how the fixed threshold spreads inside its tolerance').optional(),
+    drift: driftAllowances.optional(),
   })
   .superRefine((t, ctx) => {
     const issue = (path: string, message: string, accepted: string) =>
@@ -256,6 +267,7 @@ const currentSection = z
     shunt,
     amplifier: amplifier.optional(),
     compareOffset: describe(voltage({ min: 0, text: '0 V or more' }), 'offset of the stage comparing with the threshold, maximum magnitude (default 0)').optional(),
+    compareOffsetDistribution: boundDistribution('how the comparing offset spreads over ±compareOffset').optional(),
     threshold,
     gain: z.union([z.literal('auto'), gainValues]).meta({ description: '"auto" or the gain resistors' }).optional(),
     gainRange: rangeField(PARSERS.resistance, 'gain-resistor range for "auto", e.g. 1k..100k').optional(),
@@ -299,9 +311,11 @@ const gradeFields = {
   distribution: z
     .enum(DISTRIBUTIONS)
     .meta({
-      description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ, cut off at the band, since makers test parts to their band; truncated-normal: the same; normal-unbounded: not cut off, so Monte Carlo can pass the worst case, and the notes say so)`,
+      description: `production spread inside the tolerance band: ${DISTRIBUTIONS.join(', ')} (normal: tolerance = 3σ, cut off at the band, since makers test parts to their band; truncated-normal: the same; normal-unbounded: not cut off, so Monte Carlo can pass the worst case, and the notes say so; ${BINNED_TEXT})`,
     })
     .optional(),
+  sortedOut: sortedOut.optional(),
+  drift: driftAllowances.optional(),
 };
 
 const override = z.strictObject(gradeFields).meta({ description: 'grade of one part, by designator' });
@@ -346,6 +360,7 @@ const analysis = z
     trials: z.union([z.literal('auto'), positiveInteger('number of Monte Carlo trials, at most 1e10 (more could not finish in any sensible time)').max(1e10)]).meta({ description: 'Monte Carlo trials, or "auto" (adaptive, JCGM 101:2008 7.9)' }).optional(),
     seed: z.number().int().min(0).max(2 ** 32 - 1).meta({ description: 'random seed (default 1): the same seed gives the same numbers' }).optional(),
     workers: positiveInteger('worker threads, 1 to 256 (default: one per 1e6 trials, up to the number of cores)').max(256).optional(),
+    condition: lifeCondition.optional(),
   })
   .meta({ description: 'Monte Carlo options; command-line options override them' });
 
@@ -367,6 +382,7 @@ export const DesignSchema = z
     analysis: analysis.optional(),
     costs: costs.optional(),
     networks: networksField(gradeFields.distribution.unwrap()).optional(),
+    lots: lots.optional(),
   })
   .superRefine((d, ctx) => {
     const divider = d.voltage.divider;

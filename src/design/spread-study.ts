@@ -4,7 +4,8 @@
 import type { Model } from '../analysis/model.js';
 import { buildSupplyModel } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
-import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { lotStudy, type LotStudyResult } from '../analysis/lot-study.js';
+import { analyzeAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { outputCautions } from './output-cautions.js';
 import type { ResolvedDesign } from './resolve.js';
 
@@ -18,10 +19,14 @@ export interface SpreadRun {
   result: AnalysisResult;
   /** Adjustable output: the same analysis with the pot at the bottom of its travel. */
   lowEnd?: { model: Model; result: AnalysisResult };
+  /** The lot study (reel-lot model), when asked for: each lot's yield, the worst lot's and the overall. */
+  lots?: LotStudyResult;
 }
 
 /** Runs the analysis of a resolved design (and of its low end when the output is adjustable). */
-export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
+export async function runSpread(asResolved: ResolvedDesign, choice: AnalysisChoice, progressFor: ProgressFactory = silentProgress): Promise<SpreadRun> {
+  // The condition (as built, or end of life with the drift allowances) decides which parts the spec carries.
+  const resolved = resolvedForCondition(asResolved, choice.condition);
   const model = buildSupplyModel(resolved.spec);
   const result = await analyzeAsChosen(resolved.spec, choice, 'spread', progressFor);
   // The cautions that quote analysed figures go first in the caution box.
@@ -29,6 +34,15 @@ export async function runSpread(resolved: ResolvedDesign, choice: AnalysisChoice
   const run: SpreadRun = { resolved: { ...resolved, cautions }, choice, model, result };
   if (resolved.lowEnd) {
     run.lowEnd = { model: buildSupplyModel(resolved.lowEnd), result: await analyzeAsChosen(resolved.lowEnd, choice, 'spread, low end', progressFor) };
+  }
+  if (choice.lots) {
+    const progress = progressFor('lots');
+    try {
+      const { count, share, trialsPerLot } = choice.lots;
+      run.lots = await lotStudy(resolved.spec, { count, share, trialsPerLot, seed: choice.seed, ...(choice.workers !== undefined ? { workers: choice.workers } : {}), onLot: (done, all) => progress.update(done, all) });
+    } finally {
+      progress.finish();
+    }
   }
   return run;
 }

@@ -2,6 +2,7 @@
 // interval, worst case, yield, Cpk; the all-specs yield), the design as it stands, the cheapest grade mix and the
 // best single upgrade, with the notes on how they were obtained.
 import type { GradesRun } from '../design/grade-study.js';
+import { LIFE_CONDITION_LABEL, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { gradesSource } from '../design/grades.js';
 import { specOutputs } from './grades-cells.js';
 import { GRADING_NOTE, searchMethod } from './grades-notes.js';
@@ -10,6 +11,8 @@ export function gradesJson(run: GradesRun, version: string): unknown {
   const names = specOutputs(run);
   return {
     seed: run.rows[0]!.result.seed,
+    condition: lifeConditionOr(run.choice.condition),
+    conditionLabel: LIFE_CONDITION_LABEL[lifeConditionOr(run.choice.condition)],
     trials: run.rows.map((r) => r.result.trials),
     version,
     parts: run.parts.map((p) => ({ name: p.name, kind: p.kind, nominal: p.nominal, designedGrade: run.designed[p.name], offeredGrades: run.offered[p.name] ?? [] })),

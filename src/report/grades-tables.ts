@@ -1,6 +1,7 @@
 // The grade study as tables for the HTML review report (`design` passes them to the spread report): the grades side
 // by side (σ · yield · Cpk per output, the all-specs yield) and, when found, the cheapest grade mix.
 import type { GradesRun } from '../design/grade-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatYieldPct } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
@@ -23,7 +24,7 @@ export function gradesReportTables(run: GradesRun): ReportTable[] {
   const tables: ReportTable[] = [
     {
       id: 'grades',
-      title: 'Tolerance grades side by side (every resistor in one grade)',
+      title: `Tolerance grades side by side (every resistor in one grade), ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}`,
       head: ['grade (TCR)', 'relative cost', ...names, 'all specs yield', 'Monte Carlo trials (this grade)'],
       rows,
       notes: [`Cells per output: σ, yield, Cpk, from that row's own Monte Carlo run (trials in the last column). Costs: ${gradesSource(run.allowed)}.`, GRADING_NOTE, ...run.seriesNotes],

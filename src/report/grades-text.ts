@@ -1,6 +1,7 @@
 // The grade study as the terminal report: every resistor in each grade side by side, the design as it stands, the
 // cheapest grade mix that reaches the target (or why none does), the best single upgrade and how the search works.
 import type { GradesRun } from '../design/grade-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { gradesSource } from '../design/grades.js';
 import { MISSING, formatIndex, formatSpread, formatValue, formatYieldPct, outputDigits } from './format-value.js';
 import { costText, gradeLabel, specOutputs } from './grades-cells.js';
@@ -22,7 +23,7 @@ export function renderGradesText(run: GradesRun, options: GradesTextOptions): st
   const trials = counts.size === 1
     ? `${run.rows[0]!.result.trials.toLocaleString('en-US')} trials per grade`
     : `trials per grade ${run.rows.map((r) => `${r.grade.name} ${r.result.trials.toLocaleString('en-US')}`).join(', ')}`;
-  out.push(`${subject}: every resistor in each grade; Monte Carlo ${trials}, seed ${JSON.stringify(run.rows[0]!.result.seed)}; trimfree ${version}`);
+  out.push(`${subject}, ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}: every resistor in each grade; Monte Carlo ${trials}, seed ${JSON.stringify(run.rows[0]!.result.seed)}; trimfree ${version}`);
   out.push(`resistors graded: ${run.parts.map((p) => `${p.name} (as designed ${run.designed[p.name]})`).join(', ')}`);
   out.push('');
   const rows: string[][] = [];

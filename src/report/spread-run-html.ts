@@ -2,7 +2,9 @@
 // cautions and design notes, the pot's bottom end for an adjustable output, and any further tables (`design` adds
 // the grade comparison: src/report/grades-tables.ts).
 import type { SpreadRun } from '../design/spread-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
 import { bomRows } from './bom-table.js';
+import { lotReportTable } from './lot-table.js';
 import { renderHtmlReport, type ReportProvenance, type ReportTable } from './html-report.js';
 
 export interface SpreadRunHtmlOptions {
@@ -21,7 +23,7 @@ export interface SpreadRunHtmlOptions {
 export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOptions): string {
   const { subject, command, tables } = options;
   const input: Parameters<typeof renderHtmlReport>[0] = {
-    title: `trimfree spread report: ${subject}`,
+    title: `trimfree spread report: ${subject}, ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}`,
     subject,
     version: options.version,
     result: run.result,
@@ -31,7 +33,7 @@ export function renderSpreadRunHtml(run: SpreadRun, options: SpreadRunHtmlOption
     designNotes: run.resolved.notes,
   };
   if (command) input.command = command;
-  if (tables) input.tables = tables;
+  if (tables || run.lots) input.tables = [...(run.lots ? [lotReportTable(run.lots)] : []), ...(tables ?? [])];
   if (options.provenance) input.provenance = options.provenance;
   if (options.targetYieldPct !== undefined) input.targetYieldPct = options.targetYieldPct;
   if (run.lowEnd) input.lowEnd = { title: 'pot at the bottom of its travel', result: run.lowEnd.result };

@@ -1,6 +1,8 @@
 // A spread study as the terminal report: each analysis (and the pot's bottom end for an adjustable output), then
 // the limits no resistor grade can fix, the design notes and the cautions from the design's resolution.
 import type { SpreadRun } from '../design/spread-study.js';
+import { LIFE_CONDITION_SHORT, lifeConditionOr } from '../tolerance/life-allowances.js';
+import { renderLotText } from './lot-table.js';
 import { POT_OUTPUTS } from './pot-ends.js';
 import { renderSpreadText } from './spread-text.js';
 
@@ -15,7 +17,9 @@ export interface SpreadRunTextOptions {
 }
 
 export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOptions): string {
-  const { subject, version } = options;
+  const { version } = options;
+  // The heading says which condition the figures describe: as built, or end of life with the drift allowances.
+  const subject = `${options.subject}, ${LIFE_CONDITION_SHORT[lifeConditionOr(run.choice.condition)]}`;
   const partNames = run.model.parts.map((p) => p.name);
   const verdict = { ...(options.targetYieldPct !== undefined ? { targetYieldPct: options.targetYieldPct } : {}), colour: options.colour ?? false };
   if (!run.lowEnd) return withDesignNotes(renderSpreadText(run.result, { version, subject, partNames, ...verdict }), run);
@@ -32,6 +36,7 @@ export function renderSpreadRunText(run: SpreadRun, options: SpreadRunTextOption
 
 function withDesignNotes(body: string, run: SpreadRun): string {
   let text = body;
+  if (run.lots) text += renderLotText(run.lots);
   const limits = run.resolved.limits ?? [];
   const notes = run.resolved.notes.filter((n) => !limits.includes(n));
   if (limits.length > 0) text += `\nbeyond any resistor grade:\n${limits.map((l) => `  ! ${l}`).join('\n')}\n`;

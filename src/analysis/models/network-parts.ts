@@ -131,12 +131,11 @@ function figures(spec: NetworkSpec): { tolerance: number; ratio: number; tcrPerK
   return { tolerance: spec.tolerance, ratio: spec.ratio, tcrPerK, trackingPerK: spec.trackingPerK ?? 2 * tcrPerK };
 }
 
-/** The member at temperature for trials 0..n−1: R_nom·(1 + s)·(1 + m)·(1 + drift)·(1 + (a + t)·ΔT). */
-export function memberColumn(p: Float64Array[], m: MemberSlot, drift: number, dT: Float64Array, n: number, out: Float64Array): Float64Array {
+/** The member at temperature for trials 0..n−1: R_nom·(1 + s)·(1 + m)·(1 + drift)·(1 + (a + t)·ΔT); d is the relative drift column (null without drift). */
+export function memberColumn(p: Float64Array[], m: MemberSlot, d: Float64Array | null, dT: Float64Array, n: number, out: Float64Array): Float64Array {
   const nominal = m.nominal;
   const s = p[m.shared]!;
   const own = p[m.mismatch]!;
-  const d = drift === NONE ? null : p[drift]!;
   const a = m.sharedTcr === NONE ? null : p[m.sharedTcr]!;
   const t = m.tracking === NONE ? null : p[m.tracking]!;
   for (let j = 0; j < n; j++) {

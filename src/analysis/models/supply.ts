@@ -4,6 +4,7 @@
 //
 // How the parts enter (each uncertain quantity is its own Part, so worst case, RSS and the contributions name it):
 //   resistor value at temperature   R·(1 + drift)·(1 + α·(T − 25 °C))     α: the unit's TCR, unknown within ±TCR
+//     with named drift allowances   R·(1 + drift)·Π(1 + d_allowance)·(1 + α·(T − 25 °C))   (life-allowances.ts)
 //   reference                        Vref·(1 + drift)·(1 + tc·(T − 25 °C))
 //   amplifier offset                 Vos + (dVos/dT)·(T − 25 °C)
 //   shunt self-heating               R_hot = R25·(1 + α·(T + θ·P − 25 °C)), P = I²·R_hot at the limit (hotShunt)
@@ -18,6 +19,7 @@ import { REFERENCE_TEMPERATURE_C } from '../../circuits/temperature.js';
 import { InputError } from '../../errors.js';
 import type { DistributionSpec, Part } from '../../tolerance/part.js';
 import { partFromBound, partFromTolerance } from '../../tolerance/part.js';
+import type { AllowanceSpec } from '../../tolerance/life-allowances.js';
 import type { Model, ModelOutput } from '../model.js';
 import { ambientGrid } from '../ambient-grid.js';
 import { memberColumn, NetworkRegistry, type MemberSlot, type NetworkSpec } from './network-parts.js';
@@ -34,6 +36,10 @@ export interface ResistorSpec {
   drift?: number;
   /** Default uniform. */
   distribution?: DistributionSpec;
+  /** Named drift allowances (load life, damp heat, soldering), each its own part `${name} ${allowance}`. */
+  allowances?: AllowanceSpec[];
+  /** The allowances are its grade's defaults (src/tolerance/life-allowances.ts): a graded copy takes the new grade's. */
+  allowancesFromGrade?: boolean;
 }
 
 /** A potentiometer used as a variable resistor in a leg: `wiper` (0..1) of its track is in circuit. */
@@ -113,7 +119,7 @@ export interface AmplifierSpec {
 }
 
 export type ThresholdSpec =
-  | { kind: 'fixed'; nominal: number; tolerance: number; tempcoPerK?: number; distribution?: DistributionSpec }
+  | { kind: 'fixed'; nominal: number; tolerance: number; tempcoPerK?: number; distribution?: DistributionSpec; allowances?: AllowanceSpec[] }
   /** Threshold = source·bottom/(top + bottom); the source is the regulator's own reference or a separate one. */
   | { kind: 'divided'; source: 'regulator-reference' | ReferenceSpec; top: ResistorSpec; bottom: ResistorSpec };
 
@@ -168,6 +174,8 @@ interface ResistorSlot {
   drift: number;
   /** A network member: its value comes from the network's draws (value and tcr are NONE). */
   member?: MemberSlot;
+  /** Named drift allowances' parts (empty without any). */
+  life: number[];
 }
 
 interface LegSlots {
@@ -207,7 +215,7 @@ function addResistor(list: PartList, r: ResistorSpec, where: string, kind: 'resi
     if (kind !== 'resistor') throw new InputError(where, `${r.name} is a ${kind} and cannot be a network member`, 'fixed resistors of the divider, gain stage or threshold divider');
     const member = list.networks.member(r.name, r.nominal, where);
     const drift = r.drift ? list.add(partFromBound({ name: `${r.name} drift`, kind: 'drift', nominal: 0, plusMinus: r.drift })) : NONE;
-    return { value: NONE, tcr: NONE, drift, member };
+    return { value: NONE, tcr: NONE, drift, member, life: addAllowances(list, r.name, r.allowances, `${where}.allowances`) };
   }
   const input = { name: r.name, kind, nominal: r.nominal, tolerance: r.tolerance } as Parameters<typeof partFromTolerance>[0];
   if (r.distribution) input.distribution = r.distribution;
@@ -215,7 +223,21 @@ function addResistor(list: PartList, r: ResistorSpec, where: string, kind: 'resi
   const value = list.add(partFromTolerance(input));
   const tcr = r.tcrPerK ? list.add(partFromBound({ name: `${r.name} TCR`, kind: 'temperature coefficient', nominal: 0, plusMinus: r.tcrPerK })) : NONE;
   const drift = r.drift ? list.add(partFromBound({ name: `${r.name} drift`, kind: 'drift', nominal: 0, plusMinus: r.drift })) : NONE;
-  return { value, tcr, drift };
+  return { value, tcr, drift, life: addAllowances(list, r.name, r.allowances, `${where}.allowances`) };
+}
+
+/** Each named drift allowance with a band as its own part, `${name} ${allowance}`; their indices. */
+function addAllowances(list: PartList, name: string, allowances: AllowanceSpec[] | undefined, where: string): number[] {
+  const out: number[] = [];
+  (allowances ?? []).forEach((a, i) => {
+    checkFinite(a.band, `${where}[${i}].band`, 'a drift band fraction ≥ 0 (0.001 for ±0.1 %)');
+    if (a.band >= 1) throw new InputError(`${where}[${i}].band`, `${a.band} would let the value reach 0`, 'a drift band fraction below 1');
+    if (a.band === 0) return;
+    const input: Parameters<typeof partFromBound>[0] = { name: `${name} ${a.name}`, kind: 'drift', nominal: 0, plusMinus: a.band };
+    if (a.distribution) input.distribution = a.distribution;
+    out.push(list.add(partFromBound(input)));
+  });
+  return out;
 }
 
 function addLeg(list: PartList, leg: LegSpec, where: string): LegSlots {
@@ -320,9 +342,11 @@ function column(p: Float64Array[], index: number): Float64Array | null {
 
 /** value·(1 + drift)·(1 + coefficient·ΔT) per trial; the part's own column when neither factor exists. */
 function scaledColumn(p: Float64Array[], value: number, drift: number, coefficient: number, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
-  const v = p[value]!;
-  const d = column(p, drift);
-  const c = column(p, coefficient);
+  return scaledBy(p[value]!, column(p, drift), column(p, coefficient), dT, n, scratch);
+}
+
+/** The same with the drift and coefficient columns given (the drift column may combine several allowances). */
+function scaledBy(v: Float64Array, d: Float64Array | null, c: Float64Array | null, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
   if (d === null && c === null) return v;
   const out = scratch.take();
   if (d !== null && c !== null) for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + d[j]!) * (1 + c[j]! * dT[j]!);
@@ -332,8 +356,29 @@ function scaledColumn(p: Float64Array[], value: number, drift: number, coefficie
 }
 
 function resistorColumn(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
-  if (s.member !== undefined) return memberColumn(p, s.member, s.drift, dT, n, scratch.take());
-  return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
+  if (s.member !== undefined) return memberColumn(p, s.member, driftOf(p, s, n, scratch), dT, n, scratch.take());
+  if (s.life.length === 0) return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
+  return scaledBy(p[s.value]!, lifeColumn(p, s, n, scratch), column(p, s.tcr), dT, n, scratch);
+}
+
+/** The slot's relative drift per trial: (1 + drift)·Π(1 + allowance) − 1, or the drift column alone without allowances. */
+function driftOf(p: Float64Array[], s: ResistorSlot, n: number, scratch: ScratchColumns): Float64Array | null {
+  return s.life.length === 0 ? column(p, s.drift) : lifeColumn(p, s, n, scratch);
+}
+
+function lifeColumn(p: Float64Array[], s: ResistorSlot, n: number, scratch: ScratchColumns): Float64Array {
+  const out = scratch.take();
+  const d = column(p, s.drift);
+  if (d === null) out.fill(1, 0, n);
+  else for (let j = 0; j < n; j++) out[j] = 1 + d[j]!;
+  for (const index of s.life) multiplyOnePlus(out, p[index]!, n);
+  for (let j = 0; j < n; j++) out[j] = out[j]! - 1;
+  return out;
+}
+
+/** out[j] ·= 1 + a[j] (its own function: a plain loop). */
+function multiplyOnePlus(out: Float64Array, a: Float64Array, n: number): void {
+  for (let j = 0; j < n; j++) out[j] = out[j]! * (1 + a[j]!);
 }
 
 function referenceColumn(p: Float64Array[], s: ReferenceSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
@@ -571,6 +616,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   const th = sense.threshold;
   let thFixed = NONE;
   let thTempco = NONE;
+  let thLife: ResistorSlot | null = null;
   let thSource: ReferenceSlot | null = null;
   let thTop: ResistorSlot | null = null;
   let thBottom: ResistorSlot | null = null;
@@ -581,6 +627,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     if (th.distribution) input.distribution = th.distribution;
     thFixed = list.add(partFromTolerance(input));
     if (th.tempcoPerK) thTempco = list.add(partFromBound({ name: 'Vth tempco', kind: 'temperature coefficient', nominal: 0, plusMinus: th.tempcoPerK }));
+    const life = addAllowances(list, 'Vth', th.allowances, `${where}.threshold.allowances`);
+    if (life.length > 0) thLife = { value: thFixed, tcr: thTempco, drift: NONE, life };
   } else if (th.kind === 'divided') {
     thSource = th.source === 'regulator-reference' ? regulatorReference : addReference(list, th.source, 'Vref threshold', `${where}.threshold.source`);
     thTop = addResistor(list, th.top, `${where}.threshold.top`);
@@ -635,7 +683,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     evaluate(p, dT, vref, n, scratch, limitOut, lossOut, ampOut) {
       // Threshold: fixed (with its tempco), or divided from a reference: source·Rb/(Rt + Rb).
       let threshold: Float64Array;
-      if (thFixed !== NONE) threshold = scaledColumn(p, thFixed, NONE, thTempco, dT, n, scratch);
+      if (thLife !== null) threshold = resistorColumn(p, thLife, dT, n, scratch);
+      else if (thFixed !== NONE) threshold = scaledColumn(p, thFixed, NONE, thTempco, dT, n, scratch);
       else {
         const source = thSource === regulatorReference ? vref : referenceColumn(p, thSource!, dT, n, scratch);
         threshold = dividedColumn(source, resistorColumn(p, thTop!, dT, n, scratch), resistorColumn(p, thBottom!, dT, n, scratch), n, scratch.take());
@@ -652,7 +701,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         g2: g[2] ?? dT,
         g3: g[3] ?? dT,
         shunt: resistorColumn(p, shunt, dT, n, scratch),
-        shunt25: selfHeating ? scaledColumn(p, shunt.value, shunt.drift, NONE, dT, n, scratch) : dT,
+        shunt25: selfHeating ? scaledBy(p[shunt.value]!, driftOf(p, shunt, n, scratch), null, dT, n, scratch) : dT,
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
       senseBlock(kind, commonMode, columns, theta, n, limitOut, lossOut, ampOut);
