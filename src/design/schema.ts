@@ -60,9 +60,13 @@ export function legPartDesignators(leg: string): [string, string] {
 }
 
 /** The designators of the resistors a design places (the pot RV takes its tolerance from voltage.pot). A two-part
- * divider leg places its leg's _A and _B parts; its leg designator (RTOP) stays valid for overrides of both. */
-export function placedDesignators(topology: Topology, thresholdDivider: boolean, twoPartLegs: string[] = []): string[] {
-  const names: string[] = [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom, DESIGNATORS.shunt];
+ * divider leg places its leg's _A and _B parts; its leg designator (RTOP) stays valid for overrides of both.
+ * A single-loop design places only its loop's parts: no divider without `voltage` (topology null), no sense parts
+ * without `current` (`hasDivider` false). */
+export function placedDesignators(topology: Topology | null, thresholdDivider: boolean, twoPartLegs: string[] = [], hasDivider = true): string[] {
+  const names: string[] = [];
+  if (hasDivider) names.push(DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom);
+  if (topology !== null) names.push(DESIGNATORS.shunt);
   for (const leg of twoPartLegs) names.push(...legPartDesignators(leg));
   if (topology === 'noninv') names.push(DESIGNATORS.feedback, DESIGNATORS.ground);
   if (topology === 'diff') names.push(...DESIGNATORS.diff);
@@ -98,7 +102,7 @@ const reference = z
     tempco: describe(ppmPerK(), 'temperature coefficient bound of Vref, if the tolerance does not already cover temperature').optional(),
     notes: notes.optional(),
   })
-  .meta({ description: 'the reference the regulator holds its feedback pin at' });
+  .meta({ description: 'the reference the regulator holds its feedback pin at (required with a voltage section; a current-only design leaves it out)' });
 
 // ---- output voltage -----------------------------------------------------------------------------------------------
 const dividerValues = z.strictObject({
@@ -163,7 +167,7 @@ const voltageSection = z
       ctx.issues.push({ code: 'custom', path: ['search', 'parts'], input: 3, message: 'two-resistor legs are not offered with a pot', params: { accepted: '2 (the default) with a pot' } });
     }
   })
-  .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin' });
+  .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin (leave it out for a current-only design, e.g. an LED driver)' });
 
 function checkTargetInside(window: WindowInput, target: number, ctx: z.core.$RefinementCtx<unknown>, unit: string): void {
   const [lo, hi] = windowBounds(window, target);
@@ -287,7 +291,7 @@ const currentSection = z
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
     }
   })
-  .meta({ description: 'the constant-current set-point: shunt, amplifier, threshold' });
+  .meta({ description: 'the constant-current set-point: shunt, amplifier, threshold (leave it out for a voltage-only design, e.g. a fixed-voltage regulator)' });
 
 // ---- resistor grades ----------------------------------------------------------------------------------------------
 const gradeFields = {
@@ -358,21 +362,30 @@ export const DesignSchema = z
     $schema: z.string().meta({ description: 'path or URL of the JSON Schema (for editors)' }).optional(),
     notes: notes.optional(),
     application: z.enum(APPLICATIONS).meta({ description: 'what the supply is for (selects the cautions shown): charger, bench, led, other' }).optional(),
-    reference,
-    voltage: voltageSection,
-    current: currentSection,
+    reference: reference.optional(),
+    voltage: voltageSection.optional(),
+    current: currentSection.optional(),
     resistors,
     temperature: temperature.optional(),
     analysis: analysis.optional(),
     costs: costs.optional(),
   })
   .superRefine((d, ctx) => {
-    const divider = d.voltage.divider;
-    const twoPartLegs = divider === 'auto' ? (d.voltage.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
+    // Single-loop designs: a voltage loop alone (a fixed-voltage regulator), a current loop alone (an LED driver), or both.
+    if (d.voltage === undefined && d.current === undefined) {
+      ctx.issues.push({ code: 'custom', path: ['voltage'], input: undefined, message: 'missing required field: the design has neither a voltage nor a current section', params: { accepted: 'a voltage section (output divider), a current section (current limit), or both' } });
+      return;
+    }
+    if (d.voltage !== undefined && d.reference === undefined) {
+      ctx.issues.push({ code: 'custom', path: ['reference'], input: undefined, message: 'missing required field: the voltage section needs the reference the divider sets the output from', params: { accepted: 'reference: { voltage: "1.25 V", tolerance: "1%" }' } });
+      return;
+    }
+    const divider = d.voltage?.divider;
+    const twoPartLegs = divider === undefined ? [] : divider === 'auto' ? (d.voltage!.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
       ...(divider.top.parts.length === 2 ? [DESIGNATORS.dividerTop] : []),
       ...(divider.bottom.parts.length === 2 ? [DESIGNATORS.dividerBottom] : []),
     ];
-    const placed = placedDesignators(d.current.topology, d.current.threshold.reference !== undefined, twoPartLegs);
+    const placed = placedDesignators(d.current?.topology ?? null, d.current?.threshold.reference !== undefined && d.current !== undefined, twoPartLegs, d.voltage !== undefined);
     for (const name of Object.keys(d.resistors.overrides ?? {})) {
       if (!placed.includes(name)) {
         ctx.issues.push({
@@ -385,9 +398,22 @@ export const DesignSchema = z
       }
     }
   })
-  .meta({ title: 'trimfree design file', description: 'a CV/CC DC-DC supply: reference, output divider, current sense, resistor grades' });
+  .meta({ title: 'trimfree design file', description: 'a CV/CC DC-DC supply: reference, output divider, current sense, resistor grades; a single-loop design gives only voltage (with reference) or only current' });
 
 /** The design file after validation, in SI units. */
 export type Design = z.output<typeof DesignSchema>;
 /** The design file as written. */
 export type DesignInput = z.input<typeof DesignSchema>;
+/** A design with a voltage loop (its `voltage` section and the `reference` it needs). */
+export type VoltageDesign = Design & { voltage: NonNullable<Design['voltage']>; reference: NonNullable<Design['reference']> };
+/** A design with a current loop (its `current` section). */
+export type CurrentDesign = Design & { current: NonNullable<Design['current']> };
+/** The design's current section, for helpers that read one. */
+export type CurrentSection = NonNullable<Design['current']>;
+
+export function hasVoltageLoop(design: Design): design is VoltageDesign {
+  return design.voltage !== undefined && design.reference !== undefined;
+}
+export function hasCurrentLoop(design: Design): design is CurrentDesign {
+  return design.current !== undefined;
+}

@@ -138,8 +138,10 @@ export type SenseSpec =
     });
 
 export interface SupplySpec {
-  reference: ReferenceSpec;
-  divider: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
+  /** The regulator's feedback reference; needed with a divider (and by a threshold divided from it). */
+  reference?: ReferenceSpec;
+  /** The output divider; absent for a current-only design (no voltage loop: no vout, no dividerCurrent). */
+  divider?: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
   temperature: TemperatureSpec;
   sense?: SenseSpec;
   /**
@@ -490,29 +492,36 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     unit: '°C',
   });
 
-  const vref = addReference(list, spec.reference, 'Vref', 'supply.reference');
-  const top = addLeg(list, spec.divider.top, 'supply.divider.top');
-  const bottom = addLeg(list, spec.divider.bottom, 'supply.divider.bottom');
-  const ifb = addBound(list, 'Ifb', 'bias current', spec.divider.feedbackBias, 'supply.divider.feedbackBias');
+  if (!spec.divider && !spec.sense) {
+    throw new InputError('supply', 'neither a divider nor a sense path', 'a divider (voltage loop), a sense path (current loop) or both');
+  }
+  if (spec.divider && !spec.reference) throw new InputError('supply.reference', 'a divider needs the reference it sets the output from', 'a reference { nominal, tolerance }');
+  const vref = spec.reference ? addReference(list, spec.reference, 'Vref', 'supply.reference') : null;
+  const divider = spec.divider ? dividerSlots(list, spec.divider) : null;
   notes.push('Resistor TCRs, reference tempco and offset drift are unknown within their bounds for a given unit: drawn uniformly (common practice).');
 
   const sense = spec.sense ? addSense(spec.sense, spec, list, vref, notes) : null;
-  const count = sense ? 5 : 2;
+  // Outputs in OUTPUT_NAMES order, each loop's only when the design has that loop (single-loop designs).
+  const names = OUTPUT_NAMES.filter((name) => (name === 'vout' || name === 'dividerCurrent' ? divider !== null : sense !== null));
+  const count = names.length;
+  const senseAt = divider ? 2 : 0;
 
   const scratch = new ScratchColumns();
-  /** Every output for trials 0..n−1: outs in OUTPUT_NAMES order (first two only without a sense path). */
+  /** Every output for trials 0..n−1: outs in `names` order (the voltage loop's two, then the current loop's three). */
   function evaluateAll(p: Float64Array[], outs: Float64Array[], n: number): void {
     scratch.begin(n);
     const tp = p[temperature]!;
     const dT = temperatureRise(tp, n, scratch.take());
-    const v = referenceColumn(p, vref, dT, n, scratch);
-    const rTop = legColumn(p, top, dT, n, scratch);
-    const rBottom = legColumn(p, bottom, dT, n, scratch);
-    dividerBlock(v, rTop, rBottom, column(p, ifb), n, outs[0]!, outs[1]!);
-    if (sense) sense.evaluate(p, dT, v, n, scratch, outs[2]!, outs[3]!, outs[4]!);
+    const v = vref ? referenceColumn(p, vref, dT, n, scratch) : dT;
+    if (divider) {
+      const rTop = legColumn(p, divider.top, dT, n, scratch);
+      const rBottom = legColumn(p, divider.bottom, dT, n, scratch);
+      dividerBlock(v, rTop, rBottom, column(p, divider.ifb), n, outs[0]!, outs[1]!);
+    }
+    if (sense) sense.evaluate(p, dT, v, n, scratch, outs[senseAt]!, outs[senseAt + 1]!, outs[senseAt + 2]!);
   }
 
-  const outputs: ModelOutput[] = OUTPUT_NAMES.slice(0, count).map((name, o) => {
+  const outputs: ModelOutput[] = names.map((name, o) => {
     const output: ModelOutput = {
       name,
       unit: OUTPUT_UNITS[name],
@@ -533,12 +542,20 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   return { parts: list.parts, outputs, notes, evaluateAll, ambient: { part: temperature, gridC: ambientGrid(t.minC, t.maxC, t.unitPoints) } };
 }
 
+/** The divider's legs and feedback bias as parts. */
+function dividerSlots(list: PartList, divider: NonNullable<SupplySpec['divider']>): { top: LegSlots; bottom: LegSlots; ifb: number } {
+  const top = addLeg(list, divider.top, 'supply.divider.top');
+  const bottom = addLeg(list, divider.bottom, 'supply.divider.bottom');
+  const ifb = addBound(list, 'Ifb', 'bias current', divider.feedbackBias, 'supply.divider.feedbackBias');
+  return { top, bottom, ifb };
+}
+
 /** A limit for a note, in SI units to four significant digits (notation belongs to src/units, which the engine does not import). */
 function plain(value: number, unit: string): string {
   return `${Number(value.toPrecision(4))} ${unit}`;
 }
 
-function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot, notes: string[]): SenseEvaluator {
+function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot | null, notes: string[]): SenseEvaluator {
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
   const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
@@ -562,6 +579,9 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     thFixed = list.add(partFromTolerance(input));
     if (th.tempcoPerK) thTempco = list.add(partFromBound({ name: 'Vth tempco', kind: 'temperature coefficient', nominal: 0, plusMinus: th.tempcoPerK }));
   } else if (th.kind === 'divided') {
+    if (th.source === 'regulator-reference' && regulatorReference === null) {
+      throw new InputError(`${where}.threshold.source`, 'the threshold is divided from the regulator reference, but the supply has none', 'a reference of its own { nominal, tolerance }, or a supply reference');
+    }
     thSource = th.source === 'regulator-reference' ? regulatorReference : addReference(list, th.source, 'Vref threshold', `${where}.threshold.source`);
     thTop = addResistor(list, th.top, `${where}.threshold.top`);
     thBottom = addResistor(list, th.bottom, `${where}.threshold.bottom`);
