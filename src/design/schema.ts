@@ -327,7 +327,7 @@ const temperature = z
   .strictObject({
     min: describe(celsius(), 'lowest ambient, °C').optional(),
     max: describe(celsius(), 'highest ambient, °C').optional(),
-    fixed: describe(celsius(), 'the one ambient the supply runs at, °C, instead of min and max (every figure at that ambient)').optional(),
+    fixed: describe(celsius(), 'the one ambient the supply runs at, °C, any value such as 40 °C, instead of min and max (every figure at that ambient, TCRs and tempcos acting through its distance from 25 °C; pilot predicts there when the CSV has no ambient column)').optional(),
   })
   .superRefine((t, ctx) => {
     const accepted = '{ min, max } for a range, or { fixed } for one ambient';

@@ -472,7 +472,11 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   }
   const tNominal = Math.min(Math.max(REFERENCE_TEMPERATURE_C, t.minC), t.maxC);
   let tDistribution: DistributionSpec = { kind: 'uniform' };
-  if (t.monteCarlo === 'uniform') {
+  if (t.minC === t.maxC) {
+    // One ambient (a design's temperature.fixed, or no range: 25 °C): every analysis holds it there.
+    tDistribution = { kind: 'fixed', value: t.minC };
+    notes.push(`The ambient is held at ${t.minC} °C for every analysis; TCRs and tempcos act through the ${t.minC - REFERENCE_TEMPERATURE_C} K from ${REFERENCE_TEMPERATURE_C} °C.`);
+  } else if (t.monteCarlo === 'uniform') {
     notes.push(`Monte Carlo draws the ambient temperature uniformly over ${t.minC}..${t.maxC} °C; worst case takes both ends.`);
   } else {
     const fixed = t.monteCarlo?.fixedC;
