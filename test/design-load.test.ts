@@ -151,6 +151,12 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['structured leg, unknown key', (d) => (d.voltage.divider.bottom = { serie: ['1k', '2k'] }), 'voltage.divider.bottom.serie', /did you mean 'series'/],
   ['two-resistor leg with a pot', (d) => { d.voltage.target = '3..12 V'; d.voltage.pot = { value: '10k' }; delete d.voltage.window; d.voltage.divider.top = '1k + 2k'; }, 'voltage.divider.top', /two-resistor legs are not offered with a pot/],
   ['search.parts not 2 or 3', (d) => { d.voltage.divider = 'auto'; d.voltage.search = { parts: 4 }; }, 'voltage.search.parts', /accepted: .*2 \(default, one per leg\) or 3/],
+  // Amplifier input errors (issue 11, section 5): offset current and the amplifier's own CMRR.
+  ['offset current misspelt', (d) => (d.current.amplifier.ofsetCurrent = '5 nA'), 'current.amplifier.ofsetCurrent', /did you mean 'offsetCurrent'/],
+  ['offset current negative', (d) => (d.current.amplifier.offsetCurrent = '-5 nA'), 'current.amplifier.offsetCurrent', /out of range.*; accepted: a current.*0 A or more/],
+  ['cmrr on a low-side topology', (d) => (d.current.amplifier.cmrr = '80 dB'), 'current.amplifier.cmrr', /CMRR applies to the diff topology only.*; accepted: topology "diff", or no amplifier\.cmrr/],
+  ['cmrr bad notation', (d) => (d.current.amplifier.cmrr = '80 dBV'), 'current.amplifier.cmrr', /unexpected character 'V' at position 6 in '80 dBV'; accepted: a ratio in decibels such as 90 dB/],
+  ['cmrr zero', (d) => (d.current.amplifier.cmrr = 0), 'current.amplifier.cmrr', /out of range.*; accepted: a ratio in decibels.*above 0 dB, at most 200 dB/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 

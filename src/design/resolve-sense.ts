@@ -182,6 +182,8 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
   if (a.vosDrift) amplifier.offsetDriftPerK = Math.abs(a.vosDrift);
   const ib = a.biasCurrent;
   if (ib && (ib.nominal !== 0 || ib.hi > ib.lo)) amplifier.biasCurrent = { nominal: ib.nominal, plusMinus: currentBandHalfWidth(ib) };
+  if (a.offsetCurrent) amplifier.offsetCurrentMax = a.offsetCurrent;
+  if (a.cmrr !== undefined && c.topology === 'diff') amplifier.cmrrDb = a.cmrr;
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
   return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
 }

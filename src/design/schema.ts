@@ -24,6 +24,7 @@ import {
 } from './fields.js';
 import { GRADE_NAMES } from './grades.js';
 import { dividerLeg } from './divider-leg.js';
+import { decibels } from './decibel-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 
@@ -204,7 +205,9 @@ const amplifier = z
   .strictObject({
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
-    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0)').optional(),
+    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0): the mean of the two inputs\' currents when offsetCurrent is given').optional(),
+    offsetCurrent: describe(current({ min: 0, text: '0 A or more' }), 'input offset current Ios, the difference of the two inputs\' currents, maximum magnitude (default 0)').optional(),
+    cmrr: describe(decibels(), 'the amplifier\'s own common-mode rejection, datasheet minimum in dB (diff only: its inputs sit at the common-mode voltage, and its offset moves by ±V+/CMRR; default: not modelled)').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })
@@ -286,6 +289,9 @@ const currentSection = z
     const thresholdAuto = c.threshold.top === 'auto';
     if (c.gain !== undefined && c.gain !== 'auto' && (c.shunt.value === 'auto' || thresholdAuto)) {
       issue(['gain'], `gain resistors are picked together with an "auto" ${c.shunt.value === 'auto' ? 'shunt' : 'threshold divider'}`, '"auto", or give the shunt and the threshold too');
+    }
+    if (c.amplifier?.cmrr !== undefined && c.topology !== 'diff') {
+      issue(['amplifier', 'cmrr'], `the amplifier's CMRR applies to the diff topology only (the ${c.topology} stage's inputs sit near ground)`, 'topology "diff", or no amplifier.cmrr');
     }
     if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');

@@ -101,8 +101,15 @@ export interface AmplifierSpec {
   offsetDistribution?: DistributionSpec;
   /** Offset drift bound, V/K. */
   offsetDriftPerK?: number;
-  /** Input bias current, A. */
+  /** Input bias current, A: the mean of the two inputs' currents. */
   biasCurrent?: BoundSpec;
+  /** Input offset current Ios = Ib+ − Ib−, maximum magnitude, A (uniform over ±; default 0). */
+  offsetCurrentMax?: number;
+  /**
+   * The amplifier's own common-mode rejection, dB (datasheet minimum): diff only, where its inputs sit at the
+   * common-mode voltage; its input offset moves by ±V+/CMRR, the sign unknown for a unit (uniform).
+   */
+  cmrrDb?: number;
   /** Supply rail, V: ampOutput gets the spec window [0, railV − headroomV], the swing the output can reach. */
   railV?: number;
   /** How far below the rail the output can swing, V (default 0). */
@@ -373,6 +380,10 @@ interface SenseColumns {
   compare: Float64Array | null;
   offset: Float64Array | null;
   bias: Float64Array | null;
+  /** The amplifier's offset current Ios, or null. */
+  ios: Float64Array | null;
+  /** The amplifier's common-mode error e (±1/CMRR), or null. */
+  cmrr: Float64Array | null;
   g0: Float64Array;
   g1: Float64Array;
   g2: Float64Array;
@@ -413,7 +424,7 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
  * made fresh for each trial so that, once inlined, it lives in registers (escape analysis) rather than memory.
  */
 function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
-  const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
+  const { threshold, compare, offset, bias, ios, cmrr, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
   const noninv = kind === NONINV;
   const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
@@ -430,6 +441,8 @@ function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: nu
       threshold: threshold[j]!,
       amplifierOffset: offset === null ? 0 : offset[j]!,
       biasCurrent: offset === null || bias === null ? 0 : bias[j]!,
+      offsetCurrent: ios === null ? 0 : ios[j]!,
+      cmrrError: cmrr === null ? 0 : cmrr[j]!,
       compareOffset: compare === null ? 0 : compare[j]!,
     };
     let current = limitOf(kind, q);
@@ -599,6 +612,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   let ampOffset = NONE;
   let ampDrift = NONE;
   let ampBias = NONE;
+  let ampIos = NONE;
+  let ampCmrr = NONE;
   let railV: number | undefined;
   let headroomV: number | undefined;
   const gain: ResistorSlot[] = [];
@@ -612,6 +627,14 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     ampOffset = list.add(partFromBound(offsetInput));
     if (amp.offsetDriftPerK) ampDrift = list.add(partFromBound({ name: 'Vos amp drift', kind: 'temperature coefficient', nominal: 0, plusMinus: amp.offsetDriftPerK, unit: 'V/K' }));
     ampBias = addBound(list, 'Ib amp', 'bias current', amp.biasCurrent, `${where}.amplifier.biasCurrent`);
+    checkFinite(amp.offsetCurrentMax, `${where}.amplifier.offsetCurrentMax`, 'an offset current maximum ≥ 0 A');
+    if (amp.offsetCurrentMax) ampIos = list.add(partFromBound({ name: 'Ios amp', kind: 'bias current', nominal: 0, plusMinus: amp.offsetCurrentMax, unit: 'A' }));
+    if (amp.cmrrDb !== undefined) {
+      if (!Number.isFinite(amp.cmrrDb) || amp.cmrrDb <= 0) throw new InputError(`${where}.amplifier.cmrrDb`, `${amp.cmrrDb} dB is not a rejection`, 'a CMRR above 0 dB (datasheet minimum, e.g. 80)');
+      if (sense.topology !== 'diff') throw new InputError(`${where}.amplifier.cmrrDb`, `the ${sense.topology} stage sees no common-mode voltage`, 'cmrrDb with the diff topology only');
+      // 20·log10 of the voltage ratio (IEC 60027-3:2002, from memory): |e| = 10^(−CMRR/20).
+      ampCmrr = list.add(partFromBound({ name: 'CMRR amp', kind: 'offset', nominal: 0, plusMinus: 10 ** (-amp.cmrrDb / 20), unit: 'V/V' }));
+    }
     railV = amp.railV;
     headroomV = amp.headroomV;
     if (sense.topology === 'noninv') {
@@ -651,6 +674,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         compare: column(p, compareOffset),
         offset,
         bias: column(p, ampBias),
+        ios: column(p, ampIos),
+        cmrr: column(p, ampCmrr),
         g0: g[0] ?? dT,
         g1: g[1] ?? dT,
         g2: g[2] ?? dT,
