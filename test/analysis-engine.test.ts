@@ -124,11 +124,11 @@ describe('supply model: the fast loop against a per-trial reference from the cir
 
   it('bad values name the field: a wiper outside 0..1, two resistors without arrangement, reversed temperatures', () => {
     const bad = structuredClone(DIFF_SUPPLY);
-    bad.divider.bottom.potentiometer!.wiper = 1.5;
+    bad.divider!.bottom.potentiometer!.wiper = 1.5;
     expect(() => buildSupplyModel(bad)).toThrow(InputError);
     expect(() => buildSupplyModel(bad)).toThrow(/wiper|track/);
     const two = structuredClone(DIFF_SUPPLY);
-    delete two.divider.top.arrangement;
+    delete two.divider!.top.arrangement;
     expect(() => buildSupplyModel(two)).toThrowError(expect.objectContaining({ where: 'supply.divider.top.arrangement' }));
     const reversed = structuredClone(DIFF_SUPPLY);
     reversed.temperature = { minC: 50, maxC: 0, monteCarlo: 'uniform' };
@@ -250,7 +250,7 @@ describe('analyze: cautions and loud failures', () => {
   });
   it('a resistor tolerance of 100 % is refused with the field path', () => {
     const bad = structuredClone(DIFF_SUPPLY);
-    bad.divider.bottom.resistors[0].tolerance = 1;
+    bad.divider!.bottom.resistors[0].tolerance = 1;
     expect(() => buildSupplyModel(bad)).toThrowError(expect.objectContaining({ where: 'supply.divider.bottom.resistors[0].tolerance' }));
   });
   it('a model that yields NaN fails with ImpossibleError instead of reporting NaN', async () => {

@@ -66,7 +66,7 @@ describe('a design file\'s "normal" is cut off at the band; "normal-unbounded" i
   const kinds = (distribution: string) => {
     const d = baseDesign();
     d.resistors.distribution = distribution;
-    return resolveDesign(validateDesign(d)).spec.divider.top.resistors[0].distribution;
+    return resolveDesign(validateDesign(d)).spec.divider!.top.resistors[0].distribution;
   };
   it.each([
     ['normal', { kind: 'truncated-normal', k: 3 }],

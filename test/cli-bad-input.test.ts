@@ -130,7 +130,7 @@ const ROWS: Row[] = [
   { args: ['grades', LED, '--target-yield', '99.9', ...T, '--search-trials', '1000'], code: 2, where: '--target-yield:', says: /no resistor grade mix reaches 99\.9 %.*even every resistor at 0\.1% gives .*; to fix: lower --target-yield/ },
   { args: ['design', CHARGER, '--target-yield', '40%'], code: 2, where: '--target-yield:', says: /40% is out of range/ },
   { args: ['design', CHARGER, '--report', 'README.md'], code: 2, where: '--report:', says: /README\.md already exists.*--force/ },
-  { alone: true, args: ['init', '--kind', 'boost'], code: 2, where: "option '--kind <kind>' argument 'boost' is invalid", says: /charger, bench, led; see 'trimfree init --help'/ },
+  { alone: true, args: ['init', '--kind', 'boost'], code: 2, where: "option '--kind <kind>' argument 'boost' is invalid", says: /charger, bench, led, voltage-only, current-only; see 'trimfree init --help'/ },
   { args: ['init', '--out', 'README.md'], code: 2, where: '--out:', says: /README\.md already exists.*--force/ },
   { args: ['schema', '--out', 'package.json'], code: 2, where: '--out:', says: /package\.json already exists.*--force/ },
   { args: ['init', '--out', '/nonexistent-dir/a.json'], code: 2, where: '--out:', says: /the folder \/nonexistent-dir does not exist/ },

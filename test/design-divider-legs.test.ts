@@ -32,7 +32,7 @@ describe('a design with a three-part divider', () => {
     const r = resolve(design('27K', '820R + 3K9'));
     // Rbottom = 820 + 3900 = 4720 Ω; Vout = 1.25·(1 + 27000/4720) = 8.40042… V.
     expect(r.nominal['vout']).toBeCloseTo(vout(27000, 4720), 12);
-    expect(r.spec.divider.bottom).toMatchObject({ arrangement: 'series', resistors: [{ name: 'RBOT_A', nominal: 820 }, { name: 'RBOT_B', nominal: 3900 }] });
+    expect(r.spec.divider!.bottom).toMatchObject({ arrangement: 'series', resistors: [{ name: 'RBOT_A', nominal: 820 }, { name: 'RBOT_B', nominal: 3900 }] });
     // The leg current 1.25/4720 A flows through each part: P = I²·R.
     const i = VREF / 4720;
     const bom = Object.fromEntries(r.bom.map((l) => [l.designator, l]));
@@ -58,11 +58,11 @@ describe('a design with a three-part divider', () => {
   it('the printed notations and the structured form give the same leg', () => {
     const forms = ['6R8 + 2K2', '6R8+2K2', '6.80 Ω + 2.20 kΩ', { series: ['6R8', 2200] }];
     for (const bottom of forms) {
-      const leg = validateDesign(design('10K', bottom)).voltage.divider;
+      const leg = validateDesign(design('10K', bottom)).voltage!.divider;
       expect(leg === 'auto' ? null : leg.bottom).toEqual({ parts: [6.8, 2200], arrangement: 'series', ohms: 2206.8 });
     }
     for (const top of ['10k ∥ 47k', '10K∥47K', '10k || 47k', { parallel: ['10k', '47k'] }]) {
-      const leg = validateDesign(design(top, '1K')).voltage.divider;
+      const leg = validateDesign(design(top, '1K')).voltage!.divider;
       expect(leg === 'auto' ? null : leg.top.ohms).toBeCloseTo(parallel(10e3, 47e3), 9);
     }
   });

@@ -57,10 +57,11 @@ const examplesDir = join(PROJECT_ROOT, 'examples');
 const examples = readdirSync(examplesDir).filter((f) => f.endsWith('.json'));
 
 describe('the design JSON Schema', () => {
-  it('is draft 2020-12, strict at the top level, requiring the four sections', () => {
+  it('is draft 2020-12, strict at the top level, requiring resistors and a voltage loop (with reference), a current loop or both', () => {
     expect(schema['$schema']).toBe('https://json-schema.org/draft/2020-12/schema');
     expect(schema['additionalProperties']).toBe(false);
-    expect(schema['required']).toEqual(['reference', 'voltage', 'current', 'resistors']);
+    expect(schema['required']).toEqual(['resistors']);
+    expect(schema['anyOf']).toEqual([{ required: ['reference', 'voltage'] }, { required: ['current'] }]);
   });
 
   it('describes the input side: value fields take text or numbers', () => {
@@ -82,7 +83,11 @@ describe('the design JSON Schema', () => {
     const data = JSON.parse(starterText('charger'));
     expect(check(schema, { ...data, refrence: {} })).toContain('$.refrence: not allowed');
     const { current: _dropped, ...noCurrent } = data;
-    expect(check(schema, noCurrent)).toContain('$.current: required');
+    expect(check(schema, noCurrent)).toEqual([]); // a voltage-only design
+    const { voltage: _v, ...neither } = noCurrent;
+    expect(check(schema, neither)).toContain('$: matches no anyOf branch');
+    const { reference: _r, ...voltageNoReference } = noCurrent;
+    expect(check(schema, voltageNoReference)).toContain('$: matches no anyOf branch');
     expect(check(schema, { ...data, reference: { ...data.reference, voltage: true } }).join()).toMatch(/reference\.voltage: type boolean/);
     expect(check(schema, { ...data, current: { ...data.current, topology: 'bridge' } }).join()).toMatch(/topology: not in enum/);
   });

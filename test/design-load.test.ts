@@ -32,19 +32,19 @@ describe('design values in SI units', () => {
     d.current.amplifier.vosDrift = '5 µV/K';
     d.current.shunt.thermalResistance = '60 °C/W';
     const design = validateDesign(d);
-    expect(design.voltage.divider).toEqual({ top: { parts: [4700], ohms: 4700 }, bottom: { parts: [1000], ohms: 1000 } });
-    expect(design.reference.voltage).toBe(1.25);
-    expect(design.reference.tolerance).toBeCloseTo(0.01, 15);
+    expect(design.voltage!.divider).toEqual({ top: { parts: [4700], ohms: 4700 }, bottom: { parts: [1000], ohms: 1000 } });
+    expect(design.reference!.voltage).toBe(1.25);
+    expect(design.reference!.tolerance).toBeCloseTo(0.01, 15);
     expect(design.resistors.tolerance).toBeCloseTo(0.005, 15); // a bare number is percent
     expect(design.resistors.tcr).toBeCloseTo(1e-4, 15); // a bare number is ppm/K
     expect(design.resistors.series).toBe('E96');
     // A bare current is a typical value, taken as exactly that (src/units/current-band.ts).
-    expect(design.current.amplifier!.biasCurrent).toEqual({ nominal: 50e-9, lo: 50e-9, hi: 50e-9, form: 'typical' });
-    expect(design.current.amplifier!.vosDrift).toBeCloseTo(5e-6, 18);
-    expect(design.current.shunt.thermalResistance).toBe(60);
-    expect(design.current.shunt.value).toBeCloseTo(0.1, 15);
-    expect(design.voltage.target).toEqual([5, 5]);
-    expect(design.voltage.window).toEqual({ kind: 'relative', minus: 0.02, plus: 0.02 });
+    expect(design.current!.amplifier!.biasCurrent).toEqual({ nominal: 50e-9, lo: 50e-9, hi: 50e-9, form: 'typical' });
+    expect(design.current!.amplifier!.vosDrift).toBeCloseTo(5e-6, 18);
+    expect(design.current!.shunt.thermalResistance).toBe(60);
+    expect(design.current!.shunt.value).toBeCloseTo(0.1, 15);
+    expect(design.voltage!.target).toEqual([5, 5]);
+    expect(design.voltage!.window).toEqual({ kind: 'relative', minus: 0.02, plus: 0.02 });
     expect(design.temperature).toEqual({ min: 0, max: 50 });
   });
 
@@ -62,7 +62,7 @@ describe('design values in SI units', () => {
       d.voltage.feedbackBias = text;
       d.current.amplifier.biasCurrent = text;
       const design = validateDesign(d);
-      for (const band of [design.voltage.feedbackBias!, design.current.amplifier!.biasCurrent!]) {
+      for (const band of [design.voltage!.feedbackBias!, design.current!.amplifier!.biasCurrent!]) {
         expect(band.form).toBe(expected.form);
         expect(band.nominal).toBeCloseTo(expected.nominal, 24);
         expect(band.lo).toBeCloseTo(expected.lo, 24);
@@ -79,8 +79,8 @@ describe('design values in SI units', () => {
     expect(r.notes).toContain('Feedback-pin bias current Ifb (voltage.feedbackBias): max 50.0 nA: uniform over 0..50.0 nA, nominal 25.0 nA.');
     expect(r.notes).toContain('Amplifier bias current Ib (current.amplifier.biasCurrent): 20.0 nA (a typical value, taken as exact).');
     // max 50 nA is 25 nA ± 25 nA; a typical 20 nA has no spread.
-    expect(r.spec.divider.feedbackBias!.nominal).toBeCloseTo(25e-9, 24);
-    expect(r.spec.divider.feedbackBias!.plusMinus).toBeCloseTo(25e-9, 24);
+    expect(r.spec.divider!.feedbackBias!.nominal).toBeCloseTo(25e-9, 24);
+    expect(r.spec.divider!.feedbackBias!.plusMinus).toBeCloseTo(25e-9, 24);
     const amp = r.spec.sense!.topology === 'noninv' ? r.spec.sense!.amplifier : undefined;
     expect(amp!.biasCurrent).toEqual({ nominal: 20e-9, plusMinus: 0 });
   });
@@ -92,10 +92,10 @@ describe('design values in SI units', () => {
     d.current.shunt.value = 'auto';
     d.current.gain = 'auto';
     const design = validateDesign(d);
-    expect(design.voltage.window).toEqual({ kind: 'absolute', lo: 4.9, hi: 5.1 });
-    expect(design.current.window).toEqual({ kind: 'relative', minus: 0.05, plus: 0.1 });
-    expect(design.current.shunt.value).toBe('auto');
-    expect(design.current.gain).toBe('auto');
+    expect(design.voltage!.window).toEqual({ kind: 'absolute', lo: 4.9, hi: 5.1 });
+    expect(design.current!.window).toEqual({ kind: 'relative', minus: 0.05, plus: 0.1 });
+    expect(design.current!.shunt.value).toBe('auto');
+    expect(design.current!.gain).toBe('auto');
   });
 });
 
@@ -111,7 +111,12 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['bad notation', (d) => (d.current.amplifier.vos = '2mX'), 'current.amplifier.vos', /unexpected character 'X' at position 3 in '2mX'; accepted: .*800mV/],
   ['bad resistance code', (d) => (d.voltage.divider.top = '4K7K'), 'voltage.divider.top', /4K7K.*accepted: .*4K7/],
   ['missing required field', (d) => delete d.reference.voltage, 'reference.voltage', /missing required field; accepted: .*voltage/],
-  ['missing section', (d) => delete d.current, 'current', /missing required field/],
+  ['missing section', (d) => delete d.resistors, 'resistors', /missing required field/],
+  // Single-loop designs (issue 11, section 5): either section may go, not both; a voltage section needs its reference.
+  ['neither a voltage nor a current section', (d) => { delete d.voltage; delete d.current; }, 'voltage', /missing required field: the design has neither a voltage nor a current section; accepted: a voltage section \(output divider\), a current section \(current limit\), or both/],
+  ['voltage section without its reference', (d) => delete d.reference, 'reference', /missing required field: the voltage section needs the reference.*; accepted: reference: \{ voltage/],
+  ['current-only design overriding a divider part', (d) => { delete d.voltage; delete d.reference; d.resistors.overrides = { RTOP: { grade: '0.1%' } }; }, 'resistors.overrides.RTOP', /no part 'RTOP'.*RS, RF, RG/],
+  ['voltage-only design overriding the shunt', (d) => { delete d.current; d.resistors.overrides = { RS: { grade: '0.1%' } }; }, 'resistors.overrides.RS', /no part 'RS'.*accepted: a designator of this design: RTOP, RBOT$/],
   ['window inverted', (d) => (d.voltage.window = '5.1..4.9'), 'voltage.window', /inverted/],
   ['window as a list, inverted', (d) => (d.voltage.window = [5.1, 4.9]), 'voltage.window', /inverted/],
   ['target outside the window', (d) => (d.voltage.window = '5.5..6'), 'voltage.window', /target 5 V lies outside the window/],
@@ -146,6 +151,12 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['structured leg, unknown key', (d) => (d.voltage.divider.bottom = { serie: ['1k', '2k'] }), 'voltage.divider.bottom.serie', /did you mean 'series'/],
   ['two-resistor leg with a pot', (d) => { d.voltage.target = '3..12 V'; d.voltage.pot = { value: '10k' }; delete d.voltage.window; d.voltage.divider.top = '1k + 2k'; }, 'voltage.divider.top', /two-resistor legs are not offered with a pot/],
   ['search.parts not 2 or 3', (d) => { d.voltage.divider = 'auto'; d.voltage.search = { parts: 4 }; }, 'voltage.search.parts', /accepted: .*2 \(default, one per leg\) or 3/],
+  // Amplifier input errors (issue 11, section 5): offset current and the amplifier's own CMRR.
+  ['offset current misspelt', (d) => (d.current.amplifier.ofsetCurrent = '5 nA'), 'current.amplifier.ofsetCurrent', /did you mean 'offsetCurrent'/],
+  ['offset current negative', (d) => (d.current.amplifier.offsetCurrent = '-5 nA'), 'current.amplifier.offsetCurrent', /out of range.*; accepted: a current.*0 A or more/],
+  ['cmrr on a low-side topology', (d) => (d.current.amplifier.cmrr = '80 dB'), 'current.amplifier.cmrr', /CMRR applies to the diff topology only.*; accepted: topology "diff", or no amplifier\.cmrr/],
+  ['cmrr bad notation', (d) => (d.current.amplifier.cmrr = '80 dBV'), 'current.amplifier.cmrr', /unexpected character 'V' at position 6 in '80 dBV'; accepted: a ratio in decibels such as 90 dB/],
+  ['cmrr zero', (d) => (d.current.amplifier.cmrr = 0), 'current.amplifier.cmrr', /out of range.*; accepted: a ratio in decibels.*above 0 dB, at most 200 dB/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
   // Resistor networks (src/design/network-field.ts).
   ['network field typo', (d) => (d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratoi: '0.05%' } }), 'networks.RN1.ratoi', /did you mean 'ratio'/],
@@ -219,7 +230,7 @@ describe('files and JSON', () => {
   it('a byte-order mark is accepted', () => {
     const path = join(dir, 'bom.json');
     writeFileSync(path, `\uFEFF${JSON.stringify(baseDesign())}`);
-    expect(loadDesignFile(path).reference.voltage).toBe(1.25);
+    expect(loadDesignFile(path).reference!.voltage).toBe(1.25);
   });
   it('ImpossibleError is not used for malformed input', () => {
     expect(errorOf((d) => (d.reference.voltage = 'x'))).not.toBeInstanceOf(ImpossibleError);

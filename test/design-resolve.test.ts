@@ -155,7 +155,7 @@ describe('grades and overrides', () => {
     expect(line(r, 'RBOT').tcrPerK).toBeCloseTo(100e-6, 15); // the default 1 % grade's
     expect(line(r, 'RS').tcrPerK).toBeCloseTo(50e-6, 15);
     expect(line(r, 'RF').tolerance).toBeCloseTo(0.01, 15);
-    const top = r.spec.divider.top.resistors[0];
+    const top = r.spec.divider!.top.resistors[0];
     expect(top.name).toBe('RTOP');
     expect(top.tolerance).toBeCloseTo(0.001, 15);
   });

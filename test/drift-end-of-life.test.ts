@@ -98,8 +98,8 @@ describe('end of life against the closed form of a divider', () => {
   it('a graded copy takes the new grade\'s defaults (grades compares grades at end of life fairly)', () => {
     const eol = resolvedForCondition(design(), 'end-of-life').spec;
     const graded = gradedSpec(eol, { RTOP: { tolerance: 0.001, tcrPerK: 25e-6 } });
-    expect(graded.divider.top.resistors[0].allowances).toEqual(defaultAllowances(0.001));
-    expect(eol.divider.top.resistors[0].allowances).toEqual(defaultAllowances(0.01));
+    expect(graded.divider!.top.resistors[0].allowances).toEqual(defaultAllowances(0.001));
+    expect(eol.divider!.top.resistors[0].allowances).toEqual(defaultAllowances(0.01));
   });
 
   it('a fixed threshold takes its own allowances: the direct limit Vth/Rs moves by their product', () => {

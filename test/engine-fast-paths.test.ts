@@ -121,7 +121,7 @@ function referenceAt(v: (name: string) => number | undefined, name: string, dT: 
   return r;
 }
 
-function legAt(v: (name: string) => number | undefined, leg: SupplySpec['divider']['top'], dT: number): number {
+function legAt(v: (name: string) => number | undefined, leg: NonNullable<SupplySpec['divider']>['top'], dT: number): number {
   let r = resistorAt(v, leg.resistors[0].name, dT);
   if (leg.resistors[1]) {
     const b = resistorAt(v, leg.resistors[1].name, dT);
@@ -135,8 +135,8 @@ function legAt(v: (name: string) => number | undefined, leg: SupplySpec['divider
 function referenceTrial(spec: SupplySpec, v: (name: string) => number | undefined): number[] {
   const dT = v('T ambient')! - 25;
   const vref = referenceAt(v, 'Vref', dT);
-  const rBottom = legAt(v, spec.divider.bottom, dT);
-  const out = [dividerVout(vref, legAt(v, spec.divider.top, dT), rBottom, v('Ifb') ?? 0), vref / rBottom];
+  const rBottom = legAt(v, spec.divider!.bottom, dT);
+  const out = [dividerVout(vref, legAt(v, spec.divider!.top, dT), rBottom, v('Ifb') ?? 0), vref / rBottom];
   const sense = spec.sense;
   if (!sense) return out;
   const th = sense.threshold;

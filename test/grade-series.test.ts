@@ -128,8 +128,8 @@ describe('grade restriction by series in the study', { timeout: 120_000 }, () =>
   it('the search over a custom grade list (10 %, 2 %, 0.25 %) matches brute force over every sold assignment', async () => {
     // RTOP 30K9 is an E96 value (not E48: IEC 60063 E48 has 3.01 and 3.16): of the list only 0.25 % is sold at it. RBOT 10K and RS 0R1 take any grade.
     const custom: SupplySpec = structuredClone(spec);
-    custom.divider.top.resistors[0]!.nominal = 30900;
-    custom.divider.bottom.resistors[0]!.nominal = 10000;
+    custom.divider!.top.resistors[0]!.nominal = 30900;
+    custom.divider!.bottom.resistors[0]!.nominal = 10000;
     custom.windows = { vout: [5.0, 5.22], ilimit: [0.93, 1.07] }; // Vout = 1.25 × 4.09 = 5.1125 V (closed form)
     const list: GradeName[] = ['10%', '2%', '0.25%'];
     const searchTrials = 6000;

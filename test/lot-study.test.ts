@@ -40,7 +40,7 @@ describe('reel-lot model', () => {
     const reels = reelsOf(s);
     expect(reels).toEqual([{ name: 'RTOP+RBOT', members: ['RTOP', 'RBOT'], tolerance: 0.01 }]);
     const lot = lotSpec(s, reels, [0.004], SHARE);
-    for (const leg of [lot.divider.top, lot.divider.bottom]) {
+    for (const leg of [lot.divider!.top, lot.divider!.bottom]) {
       const r = leg.resistors[0];
       expect(r.nominal).toBeCloseTo(10e3 * 1.004, 9);
       // The band about the lot's centre is ±(1 − share)·t of the original nominal: ±50 Ω.

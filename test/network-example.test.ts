@@ -18,10 +18,10 @@ function onlyGainResistors(spec: SupplySpec): SupplySpec {
   const s = structuredClone(spec);
   const sense = s.sense!;
   if (sense.topology !== 'diff') throw new Error('the LED example is a diff topology');
-  s.reference.tolerance = 0;
-  delete s.reference.tempcoPerK;
-  for (const leg of [s.divider.top, s.divider.bottom]) for (const r of leg.resistors) r.tolerance = 0;
-  delete s.divider.feedbackBias;
+  s.reference!.tolerance = 0;
+  delete s.reference!.tempcoPerK;
+  for (const leg of [s.divider!.top, s.divider!.bottom]) for (const r of leg.resistors) r.tolerance = 0;
+  delete s.divider!.feedbackBias;
   sense.shunt.tolerance = 0;
   delete sense.shunt.tcrPerK;
   if (sense.threshold.kind !== 'divided' || sense.threshold.source === 'regulator-reference') throw new Error('the LED example divides its threshold from its own reference');

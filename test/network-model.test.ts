@@ -82,8 +82,8 @@ function diffSupply(network: Omit<NetworkSpec, 'members' | 'name'> | null, resis
       amplifier: { offsetMax: 0 },
     },
   };
-  spec.divider.top.resistors[0]!.tolerance = 0;
-  spec.divider.bottom.resistors[0]!.tolerance = 0;
+  spec.divider!.top.resistors[0]!.tolerance = 0;
+  spec.divider!.bottom.resistors[0]!.tolerance = 0;
   if (network) spec.networks = [{ name: 'RN1', members: ['R1', 'R2', 'R3', 'R4'], ...network }];
   return spec;
 }

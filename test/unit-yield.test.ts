@@ -92,7 +92,7 @@ describe('per-unit yield against quadrature', () => {
 
   it('the grade search’s joint counter counts the same units as the engine’s all-specs yield (a divider with feedback-pin bias, a full and a short chunk)', async () => {
     const spec: SupplySpec = { ...plainDivider(-40, 90), windows: { vout: [5 * 0.996, 5 * 1.004] } };
-    spec.divider.feedbackBias = { nominal: 0, plusMinus: 50e-9 };
+    spec.divider!.feedbackBias = { nominal: 0, plusMinus: 50e-9 };
     const model = buildSupplyModel(spec);
     const trials = 70_000; // a full chunk and a short one
     const mc = await monteCarlo(model, { trials, seed: 'joint', workers: 1 });

@@ -27,8 +27,10 @@ export function supplyResistors(spec: SupplySpec): Array<{ path: string; kind: '
   const leg = (l: LegSpec, path: string): void => {
     l.resistors.forEach((r, i) => out.push({ path: `${path}.resistors[${i}]`, kind: 'resistor', r }));
   };
-  leg(spec.divider.top, 'supply.divider.top');
-  leg(spec.divider.bottom, 'supply.divider.bottom');
+  if (spec.divider) {
+    leg(spec.divider.top, 'supply.divider.top');
+    leg(spec.divider.bottom, 'supply.divider.bottom');
+  }
   const sense = spec.sense;
   if (sense) {
     out.push({ path: 'supply.sense.shunt', kind: 'shunt', r: sense.shunt });

@@ -16,8 +16,10 @@ export function specResistors(spec: SupplySpec): SpecResistor[] {
     l.resistors.forEach((r, i) => out.push({ r, kind: 'resistor', path: `${path}.resistors[${i}]` }));
     if (l.potentiometer) out.push({ r: l.potentiometer, kind: 'potentiometer', path: `${path}.potentiometer` });
   };
-  leg(spec.divider.top, 'supply.divider.top');
-  leg(spec.divider.bottom, 'supply.divider.bottom');
+  if (spec.divider) {
+    leg(spec.divider.top, 'supply.divider.top');
+    leg(spec.divider.bottom, 'supply.divider.bottom');
+  }
   const sense = spec.sense;
   if (sense) {
     out.push({ r: sense.shunt, kind: 'shunt', path: 'supply.sense.shunt' });

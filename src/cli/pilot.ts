@@ -86,8 +86,8 @@ export function pilotCommand(): Command {
     .addHelpText(
       'after',
       `
-The prediction is the design's model with the ambient held at the mean of the CSV's ambient column (25 °C without
-one). Tests at α = 0.05: one-sample t test of the mean, chi-square test of σ allowing for the predicted kurtosis,
+The prediction is the design's model with the ambient held at the mean of the CSV's ambient column (without
+one: the design's temperature.fixed, else 25 °C). Tests at α = 0.05: one-sample t test of the mean, chi-square test of σ allowing for the predicted kurtosis,
 Anderson–Darling against the Monte Carlo distribution, Grubbs' test for one outlier. Capability: Cpk with Bissell's
 interval, a 99 % / 95 % normal tolerance interval (Howe's k, NIST/SEMATECH e-Handbook 7.2.6.3) and the yield the
 units support. Where the mean is off-centre, the single divider or gain resistor swap that best re-centres it.

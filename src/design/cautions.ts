@@ -1,18 +1,20 @@
 // The usual cautions a design's output carries, by application and by what the numbers show. They point the
 // designer to the datasheets, local codes and licensed practice; trimfree computes spreads, it certifies nothing.
+import { DEFAULT_SHUNT_DERATING } from '../circuits/shunt-power.js';
 import { formatEngineering, formatPercent } from '../units/index.js';
 import type { Application } from './schema.js';
 
 export interface CautionFacts {
   application: Application | undefined;
-  /** Highest nominal output, V. */
-  voutMax: number;
+  /** Highest nominal output, V (null for a current-only design: the output voltage is the load's, not set here). */
+  voutMax: number | null;
   /** Shunt loss at the nominal limit, W; its rating and derating, and θ if given. */
   shuntLossW?: number;
   /** Highest shunt loss of the worst-case analysis (every band end, both ends of the temperature range), W. */
   shuntLossWorstW?: number;
   shuntRatingW?: number;
-  derating: number;
+  /** Largest fraction of the shunt rating to use (with a shunt). */
+  derating?: number;
   thermalResistanceKPerW?: number;
   temperatureMaxC: number;
 }
@@ -33,7 +35,7 @@ export function cautionsFor(facts: CautionFacts): string[] {
   if (facts.application === 'led') {
     out.push("LEDs: keep the worst-case maximum current below the LED datasheet's maximum forward current at the hottest ambient, after its thermal derating.");
   }
-  if (facts.voutMax > TOUCH_SAFE_DC_V) {
+  if (facts.voutMax !== null && facts.voutMax > TOUCH_SAFE_DC_V) {
     out.push(`The output reaches ${formatEngineering(facts.voutMax, 'V')}, above about ${TOUCH_SAFE_DC_V} V DC: treat it as hazardous to touch (guarding, insulation, creepage) per the safety standard that applies.`);
   }
   if (facts.shuntLossW !== undefined) {
@@ -45,7 +47,7 @@ export function cautionsFor(facts: CautionFacts): string[] {
         : `Shunt: up to ${formatEngineering(loss, 'W')} at the current limit (worst case over tolerances and temperature; ${formatEngineering(facts.shuntLossW, 'W')} nominal)`;
     if (facts.shuntRatingW !== undefined) {
       const share = loss / facts.shuntRatingW;
-      line += ` is ${formatPercent(share, 0)} of its ${formatEngineering(facts.shuntRatingW, 'W')} rating (common practice: at most ${formatPercent(facts.derating, 0)} at the hottest ambient)`;
+      line += ` is ${formatPercent(share, 0)} of its ${formatEngineering(facts.shuntRatingW, 'W')} rating (common practice: at most ${formatPercent(facts.derating ?? DEFAULT_SHUNT_DERATING, 0)} at the hottest ambient)`;
     } else {
       line += ' (no rating given: check the datasheet)';
     }

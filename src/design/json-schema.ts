@@ -10,5 +10,6 @@ export const DESIGN_SCHEMA_ID = 'https://trimfree.invalid/design.schema.json';
 /** JSON Schema (draft 2020-12) of the design file as written. */
 export function designJsonSchema(): Record<string, unknown> {
   const schema = z.toJSONSchema(DesignSchema, { io: 'input', target: 'draft-2020-12', unrepresentable: 'any' }) as Record<string, unknown>;
-  return { ...schema, $id: DESIGN_SCHEMA_ID };
+  // The loader's one cross-section rule editors can check too: a voltage loop (with its reference), a current loop, or both.
+  return { ...schema, $id: DESIGN_SCHEMA_ID, anyOf: [{ required: ['reference', 'voltage'] }, { required: ['current'] }] };
 }

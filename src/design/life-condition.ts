@@ -45,16 +45,16 @@ export function allowancesOf(block: DriftAllowancesInput): AllowanceSpec[] {
 export function lifePlanOf(design: Design, spec: SupplySpec): LifePlan {
   const plan: LifePlan = { resistors: {} };
   if (design.analysis?.condition !== undefined) plan.condition = design.analysis.condition;
-  if (design.reference.drift) plan.referenceDrift = design.reference.drift;
+  if (design.reference?.drift) plan.referenceDrift = design.reference.drift;
   const overrides = design.resistors.overrides ?? {};
   if (design.resistors.drift) plan.allResistors = allowancesOf(design.resistors.drift);
-  if (design.current.threshold.drift) plan.threshold = allowancesOf(design.current.threshold.drift);
+  if (design.current?.threshold.drift) plan.threshold = allowancesOf(design.current.threshold.drift);
   for (const { r, kind } of specResistors(spec)) {
     const leg = legOf(r.name);
     const block =
       overrides[r.name]?.drift ??
       (leg !== undefined ? overrides[leg]?.drift : undefined) ??
-      (kind === 'shunt' ? design.current.shunt.drift : kind === 'potentiometer' ? design.voltage.pot?.drift : undefined);
+      (kind === 'shunt' ? design.current?.shunt.drift : kind === 'potentiometer' ? design.voltage?.pot?.drift : undefined);
     if (block) plan.resistors[r.name] = allowancesOf(block);
   }
   return plan;
@@ -70,7 +70,7 @@ export interface ConditionedSpec {
 export function specForCondition(spec: SupplySpec, plan: LifePlan, condition: LifeCondition): ConditionedSpec {
   const out = structuredClone(spec);
   const notes: string[] = [];
-  const references = [out.reference, ...(out.sense?.threshold.kind === 'divided' && out.sense.threshold.source !== 'regulator-reference' ? [out.sense.threshold.source] : [])];
+  const references = [...(out.reference ? [out.reference] : []), ...(out.sense?.threshold.kind === 'divided' && out.sense.threshold.source !== 'regulator-reference' ? [out.sense.threshold.source] : [])];
   const resistors = specResistors(out);
   if (condition === 'as-built') {
     const dropped: string[] = [];
@@ -91,7 +91,7 @@ export function specForCondition(spec: SupplySpec, plan: LifePlan, condition: Li
     return { spec: out, notes };
   }
 
-  if (plan.referenceDrift) out.reference.drift = plan.referenceDrift;
+  if (plan.referenceDrift && out.reference) out.reference.drift = plan.referenceDrift;
   const fromGrade: string[] = [];
   const none: string[] = [];
   for (const { r, kind } of resistors) {

@@ -53,15 +53,15 @@ export function withProductionSpread(spec: SupplySpec, design: Design): SupplySp
   }
 
   const ref = design.reference;
-  if (ref.distribution !== undefined || ref.sortedOut !== undefined) {
+  if (ref && out.reference && (ref.distribution !== undefined || ref.sortedOut !== undefined)) {
     out.reference.distribution = toleranceDistributionSpec(ref.distribution ?? 'uniform', ref.sortedOut, ref.tolerance, 'reference.distribution', 'reference.sortedOut');
   }
-  const bias = boundDistributionSpec(design.voltage.feedbackBiasDistribution);
-  if (bias && out.divider.feedbackBias) out.divider.feedbackBias.distribution = bias;
+  const bias = boundDistributionSpec(design.voltage?.feedbackBiasDistribution);
+  if (bias && out.divider?.feedbackBias) out.divider.feedbackBias.distribution = bias;
 
   const sense = out.sense;
   const c = design.current;
-  if (sense) {
+  if (sense && c) {
     const threshold = boundDistributionSpec(c.threshold.distribution);
     if (threshold) {
       if (sense.threshold.kind !== 'fixed') throw new InputError('current.threshold.distribution', 'the threshold is divided from a reference', 'no distribution for a divided threshold (its resistors and reference carry their own)');

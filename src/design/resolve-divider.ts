@@ -7,7 +7,7 @@ import { currentBandHalfWidth, formatEngineering, formatRkm } from '../units/ind
 import { dividerCurrents, resistorPower, type BomPart } from './bom.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
-import { DESIGNATORS, legPartDesignators, type Design } from './schema.js';
+import { DESIGNATORS, legPartDesignators, type VoltageDesign } from './schema.js';
 import { legNotation, type DividerLegValue } from './divider-leg.js';
 
 /** Default pot tolerance: 20 % is the usual track tolerance of trimmer pots (common practice). */
@@ -37,12 +37,12 @@ export function resistorSpec(name: string, nominal: number, grade: PartGrade): R
 }
 
 /** The feedback-pin bias current the picker aims at (its nominal) and the engine's band (src/units/current-band.ts). */
-export function feedbackBias(design: Design): { nominal: number; plusMinus: number } {
+export function feedbackBias(design: VoltageDesign): { nominal: number; plusMinus: number } {
   const band = design.voltage.feedbackBias;
   return band ? { nominal: band.nominal, plusMinus: currentBandHalfWidth(band) } : { nominal: 0, plusMinus: 0 };
 }
 
-export function resolveDivider(design: Design): ResolvedDivider {
+export function resolveDivider(design: VoltageDesign): ResolvedDivider {
   const v = design.voltage;
   const vref = design.reference.voltage;
   const [lo, hi] = v.target;

@@ -13,7 +13,7 @@ import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm, pars
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
 import { resistorSpec } from './resolve-divider.js';
-import { DESIGNATORS, type Design } from './schema.js';
+import { DESIGNATORS, type CurrentDesign, type CurrentSection } from './schema.js';
 
 /** Gain and threshold-divider resistor window when the file gives none (the `sense` command's default too). */
 export const DEFAULT_GAIN_RANGE: [number, number] = [1e3, 1e6];
@@ -31,12 +31,12 @@ export interface ResolvedSense {
   notes: string[];
 }
 
-function needsPicker(c: Design['current']): boolean {
+function needsPicker(c: CurrentSection): boolean {
   return c.shunt.value === 'auto' || c.gain === 'auto' || c.threshold.top === 'auto';
 }
 
 /** The threshold voltage the design aims at (fixed, or the divider's output or target). */
-function thresholdVolts(c: Design['current']): number | undefined {
+function thresholdVolts(c: CurrentSection): number | undefined {
   const t = c.threshold;
   if (t.reference !== undefined && typeof t.top === 'number' && typeof t.bottom === 'number') {
     return thresholdFromReference(t.reference, t.top, t.bottom);
@@ -44,13 +44,13 @@ function thresholdVolts(c: Design['current']): number | undefined {
   return t.voltage;
 }
 
-function shuntCandidates(c: Design['current']): number[] {
+function shuntCandidates(c: CurrentSection): number[] {
   if (c.shunt.value !== 'auto') return [c.shunt.value];
   if (!c.shunt.candidates) return loadShunts().values;
   return c.shunt.candidates.map((v, i) => parseResistance(String(v), `current.shunt.candidates[${i}]`));
 }
 
-export function resolveSense(design: Design): ResolvedSense {
+export function resolveSense(design: CurrentDesign): ResolvedSense {
   const c = design.current;
   const notes: string[] = [];
   const names = [DESIGNATORS.shunt, ...gainDesignators(c.topology), ...(c.threshold.reference !== undefined ? [DESIGNATORS.thresholdTop, DESIGNATORS.thresholdBottom] : [])];
@@ -129,7 +129,7 @@ export function resolveSense(design: Design): ResolvedSense {
 }
 
 /** The network holding every gain resistor of the topology (diff R1–R4), if the file declares one. */
-function gainNetwork(design: Design): { name: string; tolerance: number; ratio: number } | undefined {
+function gainNetwork(design: CurrentDesign): { name: string; tolerance: number; ratio: number } | undefined {
   const gain = gainDesignators(design.current.topology);
   if (gain.length === 0) return undefined;
   for (const [name, n] of Object.entries(design.networks ?? {})) {
@@ -143,7 +143,7 @@ function networkGrade(network: { tolerance: number }): { tolerance: number; seri
   return { tolerance: network.tolerance, series: gradeForTolerance(network.tolerance)?.series ?? 'E192' };
 }
 
-export function gainDesignators(topology: Design['current']['topology']): string[] {
+export function gainDesignators(topology: CurrentSection['topology']): string[] {
   if (topology === 'noninv') return [DESIGNATORS.feedback, DESIGNATORS.ground];
   if (topology === 'diff') return [...DESIGNATORS.diff];
   return [];
@@ -170,7 +170,7 @@ function everyCandidateFlagged(candidates: readonly SenseCandidate[], limit: Ret
   );
 }
 
-function senseSpec(design: Design, parts: Record<string, number>, grades: Record<string, PartGrade>, lossLimit: ReturnType<typeof shuntLossLimit> | undefined): SenseSpec {
+function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades: Record<string, PartGrade>, lossLimit: ReturnType<typeof shuntLossLimit> | undefined): SenseSpec {
   const c = design.current;
   const r = (name: string): ResistorSpec => resistorSpec(name, parts[name]!, grades[name]!);
   const shuntGrade = grades[DESIGNATORS.shunt]!;
@@ -200,6 +200,8 @@ function senseSpec(design: Design, parts: Record<string, number>, grades: Record
   if (a.vosDrift) amplifier.offsetDriftPerK = Math.abs(a.vosDrift);
   const ib = a.biasCurrent;
   if (ib && (ib.nominal !== 0 || ib.hi > ib.lo)) amplifier.biasCurrent = { nominal: ib.nominal, plusMinus: currentBandHalfWidth(ib) };
+  if (a.offsetCurrent) amplifier.offsetCurrentMax = a.offsetCurrent;
+  if (a.cmrr !== undefined && c.topology === 'diff') amplifier.cmrrDb = a.cmrr;
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
   return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
 }

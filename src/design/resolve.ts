@@ -15,7 +15,7 @@ import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
 import { resolveSense } from './resolve-sense.js';
 import { resolveNetworks } from './resolve-networks.js';
-import { DESIGNATORS, type Design } from './schema.js';
+import { DESIGNATORS, hasCurrentLoop, hasVoltageLoop, type CurrentDesign, type Design, type VoltageDesign } from './schema.js';
 import { lifePlanOf, type LifePlan } from './life-condition.js';
 import { withProductionSpread } from './production-spread.js';
 
@@ -51,70 +51,83 @@ export const DEFAULT_SEED = 1;
 
 export function resolveDesign(design: Design): ResolvedDesign {
   const notes: string[] = [];
-  const vref = design.reference.voltage;
-  const [lo, hi] = design.voltage.target;
+  // A single-loop design has one of the two sections (schema.ts requires at least one): no dummy section is made up.
+  const vDesign = hasVoltageLoop(design) ? design : null;
+  const cDesign = hasCurrentLoop(design) ? design : null;
+  const [lo, hi] = vDesign ? vDesign.voltage.target : [0, 0];
   const adjustable = lo !== hi;
-  if (!(lo > vref)) {
+  if (vDesign && !(lo > vDesign.reference.voltage)) {
+    const vref = vDesign.reference.voltage;
     throw new ImpossibleError(
       'voltage.target',
       `${formatEngineering(lo, 'V', 4)} is at or below the reference ${formatEngineering(vref, 'V', 4)}: a feedback divider cannot set an output below Vref`,
       'ask for an output above Vref, or use a regulator with a lower reference',
     );
   }
+  if (!vDesign) notes.push('Current-only design (no voltage section): no output divider, so vout and dividerCurrent are not analysed.');
+  if (!cDesign) notes.push('Voltage-only design (no current section): no current limit, so ilimit, shuntLoss and ampOutput are not analysed.');
 
-  const divider = resolveDivider(design);
-  notes.push(...divider.notes);
-  const sense = resolveSense(design);
-  notes.push(...sense.notes);
+  const divider = vDesign ? resolveDivider(vDesign) : null;
+  if (divider) notes.push(...divider.notes);
+  const sense = cDesign ? resolveSense(cDesign) : null;
+  if (sense) notes.push(...sense.notes);
 
   const temperature = operatingRange(design.temperature);
   if (!design.temperature) notes.push('No temperature range given: analysed at 25 °C only, so TCRs and drifts with temperature play no part.');
   else if (design.temperature.fixed !== undefined) notes.push(`One ambient given: every figure is at ${design.temperature.fixed} °C, where TCRs and tempcos act through the ${design.temperature.fixed - 25} K from 25 °C (give min and max to check units over a range).`);
-  const bias = feedbackBias(design);
+  const bias = vDesign ? feedbackBias(vDesign) : { nominal: 0, plusMinus: 0 };
   // What the bias-current notation was taken to mean (src/units/current-band.ts), said back to the designer.
-  if (design.voltage.feedbackBias) notes.push(`Feedback-pin bias current Ifb (voltage.feedbackBias): ${describeCurrentBand(design.voltage.feedbackBias)}.`);
-  const ib = design.current.amplifier?.biasCurrent;
-  if (ib && design.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
+  if (vDesign?.voltage.feedbackBias) notes.push(`Feedback-pin bias current Ifb (voltage.feedbackBias): ${describeCurrentBand(vDesign.voltage.feedbackBias)}.`);
+  const ib = cDesign?.current.amplifier?.biasCurrent;
+  if (ib && cDesign!.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
-  const reference: SupplySpec['reference'] = { name: 'Vref', nominal: vref, tolerance: design.reference.tolerance };
-  // reference.drift is a drift allowance: the spec is as built, and life-condition.ts adds it at end of life.
-  if (design.reference.tempco) reference.tempcoPerK = design.reference.tempco;
+  let reference: SupplySpec['reference'] | undefined;
+  if (vDesign) {
+    const r = vDesign.reference;
+    reference = { name: 'Vref', nominal: r.voltage, tolerance: r.tolerance };
+    // reference.drift is a drift allowance: the spec is as built, and life-condition.ts adds it at end of life.
+    if (r.tempco) reference.tempcoPerK = r.tempco;
+  }
 
-  const ilimitWindow = windowBounds(design.current.window, design.current.target);
+  const ilimitWindow = cDesign ? windowBounds(cDesign.current.window, cDesign.current.target) : undefined;
   // An adjustable output is judged at both ends of the pot's travel: every unit must reach HI at the top and LO at
   // the bottom. Without a window from the file, each end's window runs out to that end's worst case, so the yield
   // counts exactly the units that fail to cover the range (Cp and Cpk then mean little: the notes say so).
-  let voutWindow: [number, number] = adjustable ? [hi, hi] : windowBounds(design.voltage.window!, lo);
+  let voutWindow: [number, number] | undefined = vDesign ? (adjustable ? [hi, hi] : windowBounds(vDesign.voltage.window!, lo)) : undefined;
   let lowWindow: [number, number] = [lo, lo];
-  if (adjustable) {
-    const reach = (legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>): { min: number; max: number } => {
+  if (vDesign && divider && adjustable) {
+    const reach = (legs: Pick<NonNullable<SupplySpec['divider']>, 'top' | 'bottom'>): { min: number; max: number } => {
       const result = worstCase(buildSupplyModel(base(legs, [0, 1]))).find((w) => w.name === 'vout')!;
       return { min: result.min, max: result.max };
     };
     const top = reach(divider.legs);
     const bottom = reach(divider.lowLegs!);
-    voutWindow = design.voltage.window ? windowBounds(design.voltage.window, hi) : [hi, Math.max(top.max, hi) * (1 + 1e-9)];
+    voutWindow = vDesign.voltage.window ? windowBounds(vDesign.voltage.window, hi) : [hi, Math.max(top.max, hi) * (1 + 1e-9)];
     lowWindow = [Math.min(bottom.min, lo) * (1 - 1e-9), lo];
     notes.push(
-      `Adjustable output: vout is analysed at the top of the pot's travel against ${formatEngineering(voutWindow[0], 'V', 4)}..${formatEngineering(voutWindow[1], 'V', 4)}${design.voltage.window ? '' : ' (up to its worst case: the file gives no upper limit)'} and at the bottom against ${formatEngineering(lowWindow[0], 'V', 4)}..${formatEngineering(lowWindow[1], 'V', 4)}; the yield is the share of units covering ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)}; where only one limit is the design's, Cpk is the one-sided Cpl or Cpu and no Cp is given.`,
+      `Adjustable output: vout is analysed at the top of the pot's travel against ${formatEngineering(voutWindow[0], 'V', 4)}..${formatEngineering(voutWindow[1], 'V', 4)}${vDesign.voltage.window ? '' : ' (up to its worst case: the file gives no upper limit)'} and at the bottom against ${formatEngineering(lowWindow[0], 'V', 4)}..${formatEngineering(lowWindow[1], 'V', 4)}; the yield is the share of units covering ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)}; where only one limit is the design's, Cpk is the one-sided Cpl or Cpu and no Cp is given.`,
     );
   }
 
-  function base(legs: Pick<SupplySpec['divider'], 'top' | 'bottom'>, window: [number, number], voutSides: 'both' | 'low' | 'high' = 'both'): SupplySpec {
+  function base(legs: Pick<NonNullable<SupplySpec['divider']>, 'top' | 'bottom'> | null, window: [number, number] | undefined, voutSides: 'both' | 'low' | 'high' = 'both'): SupplySpec {
+    const windows: NonNullable<SupplySpec['windows']> = {};
+    if (window) windows.vout = window;
+    if (ilimitWindow) windows.ilimit = ilimitWindow;
+    if (voutSides !== 'both') windows.voutSides = voutSides;
     const spec: SupplySpec = {
-      reference,
-      divider: { ...legs, ...(bias.nominal !== 0 || bias.plusMinus > 0 ? { feedbackBias: bias } : {}) },
       temperature: { minC: temperature.min, maxC: temperature.max, monteCarlo: 'uniform' },
-      sense: sense.sense,
-      windows: { vout: window, ilimit: ilimitWindow, ...(voutSides === 'both' ? {} : { voutSides }) },
-      voutTarget: adjustable ? hi : lo,
+      windows,
     };
+    if (reference) spec.reference = reference;
+    if (legs) spec.divider = { ...legs, ...(bias.nominal !== 0 || bias.plusMinus > 0 ? { feedbackBias: bias } : {}) };
+    if (sense) spec.sense = sense.sense;
+    if (vDesign) spec.voutTarget = adjustable ? hi : lo;
     return spec;
   }
   // Without a window from the file only the limit each end must reach is the design's: HI at the top, LO at the bottom.
   // The file's production distributions (binned resistors, the reference's, offsets' and bias currents') on both ends.
-  const spec = withProductionSpread(base(divider.legs, voutWindow, adjustable && !design.voltage.window ? 'low' : 'both'), design);
-  const lowEnd = divider.lowLegs ? withProductionSpread({ ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo }, design) : undefined;
+  const spec = withProductionSpread(base(divider ? divider.legs : null, voutWindow, adjustable && !vDesign?.voltage.window ? 'low' : 'both'), design);
+  const lowEnd = divider?.lowLegs ? withProductionSpread({ ...base(divider.lowLegs, lowWindow, 'high'), voutTarget: lo }, design) : undefined;
   // Resistor networks: members take the network's figures (resolve-networks.ts), in both ends of an adjustable output.
   const networks = resolveNetworks(design, spec);
   if (networks.networks.length > 0) {
@@ -124,13 +137,15 @@ export function resolveDesign(design: Design): ResolvedDesign {
   }
 
   const nominal = nominalOutputs(buildSupplyModel(spec));
-  checkOperatingPoint(design, nominal, sense.derating);
-  checkShuntSignal(design, nominal, sense.parts[DESIGNATORS.shunt]!);
-  checkSelfHeating(design, nominal, sense.grades[DESIGNATORS.shunt]!.tcrPerK);
   const limits: string[] = [];
-  checkWindowAgainstReference(design, voutWindow, adjustable ? hi : lo, limits);
+  if (cDesign && sense) {
+    checkOperatingPoint(cDesign, nominal, sense.derating);
+    checkShuntSignal(cDesign, nominal, sense.parts[DESIGNATORS.shunt]!);
+    checkSelfHeating(cDesign, nominal, sense.grades[DESIGNATORS.shunt]!.tcrPerK);
+  }
+  if (vDesign) checkWindowAgainstReference(vDesign, voutWindow!, adjustable ? hi : lo, limits);
 
-  const bomParts: BomPart[] = [...divider.bomParts, ...senseBomParts(design, sense.parts, sense.grades, nominal)];
+  const bomParts: BomPart[] = [...(divider?.bomParts ?? []), ...(cDesign && sense ? senseBomParts(cDesign, sense.parts, sense.grades, nominal) : [])];
   for (const part of bomParts) {
     const network = spec.networks?.find((n) => n.name === networks.memberOf[part.designator]);
     if (!network) continue;
@@ -143,28 +158,30 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (notFinite) {
     throw new ImpossibleError('design', `the ${notFinite[0]} of this design is not a finite number`, 'check the values for extremes (a resistance near zero, a threshold at an offset)');
   }
-  for (const grade of [...divider.grades, ...Object.values(sense.grades)]) {
+  for (const grade of [...(divider?.grades ?? []), ...Object.values(sense?.grades ?? {})]) {
     if (grade.tcrAssumed && !notes.includes(grade.tcrAssumed)) notes.push(grade.tcrAssumed);
   }
 
   // The shunt-heat caution takes the worst-case loss (every band end, both ends of the temperature range).
-  const shuntLossWorstW = worstShuntLoss(spec);
-  const shuntFacts = {
-    shuntLossW: nominal['shuntLoss']!,
-    shuntLossWorstW,
-    derating: sense.derating,
-    ...(design.current.shunt.rating !== undefined ? { shuntRatingW: design.current.shunt.rating } : {}),
-    ...(design.current.shunt.thermalResistance !== undefined ? { thermalResistanceKPerW: design.current.shunt.thermalResistance } : {}),
-  };
-  const cautions = cautionsFor({ application: design.application, voutMax: Math.max(hi, nominal['vout']!), temperatureMaxC: temperature.max, ...shuntFacts });
+  const shuntFacts = cDesign && sense
+    ? {
+        shuntLossW: nominal['shuntLoss']!,
+        shuntLossWorstW: worstShuntLoss(spec),
+        derating: sense.derating,
+        ...(cDesign.current.shunt.rating !== undefined ? { shuntRatingW: cDesign.current.shunt.rating } : {}),
+        ...(cDesign.current.shunt.thermalResistance !== undefined ? { thermalResistanceKPerW: cDesign.current.shunt.thermalResistance } : {}),
+      }
+    : {};
+  const voutMax = vDesign ? Math.max(hi, nominal['vout']!) : null;
+  const cautions = cautionsFor({ application: design.application, voutMax, temperatureMaxC: temperature.max, ...shuntFacts });
 
   const analysis: ResolvedDesign['analysis'] = {};
   if (design.analysis?.trials !== undefined) analysis.trials = design.analysis.trials;
   if (design.analysis?.seed !== undefined) analysis.seed = design.analysis.seed;
   if (design.analysis?.workers !== undefined) analysis.workers = design.analysis.workers;
 
-  const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: design.voltage.window ? voutWindow : null };
-  if (design.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = design.voltage.absoluteMax;
+  const cautionLimits: OutputCautionLimits = { application: design.application, voutWindow: vDesign?.voltage.window ? voutWindow! : null };
+  if (vDesign?.voltage.absoluteMax !== undefined) cautionLimits.voutAbsoluteMax = vDesign.voltage.absoluteMax;
   const resolved: ResolvedDesign = { spec, bom, notes, cautions, nominal, costs: gradeCosts(design.costs ?? {}), analysis, cautionLimits, life: lifePlanOf(design, spec) };
   if (design.lots) resolved.lots = design.lots;
   if (design.resistors.grades) resolved.allowedGrades = GRADE_NAMES.filter((g) => design.resistors.grades!.includes(g));
@@ -181,8 +198,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
  * they are held exact here: the same extreme, from far fewer vertices (2^14 rather than 2^19 for the charger example).
  */
 function worstShuntLoss(spec: SupplySpec): number {
-  const exact = (name: string): SupplySpec['divider']['top'] => ({ resistors: [{ name, nominal: 1, tolerance: 0 }] });
-  const senseOnly: SupplySpec = { ...spec, divider: { top: exact(DESIGNATORS.dividerTop), bottom: exact(DESIGNATORS.dividerBottom) } };
+  const { divider: _divider, ...senseOnly } = spec;
   return worstCase(buildSupplyModel(senseOnly)).find((w) => w.name === 'shuntLoss')!.max;
 }
 
@@ -194,7 +210,7 @@ const MAX_SELF_HEATING_SHIFT = 0.1;
 
 /** A shunt whose own heat shifts its value past the self-heating model's range: refused with the fields to change,
  * rather than left to fail in the Monte Carlo run with a message naming no field. */
-function checkSelfHeating(design: Design, nominal: Record<string, number>, tcrPerK: number): void {
+function checkSelfHeating(design: CurrentDesign, nominal: Record<string, number>, tcrPerK: number): void {
   const theta = design.current.shunt.thermalResistance ?? 0;
   const loss = nominal['shuntLoss']!;
   const shift = tcrPerK * theta * loss;
@@ -215,7 +231,7 @@ function operatingRange(t: Design['temperature']): { min: number; max: number } 
   return { min: t.min!, max: t.max! };
 }
 
-function checkOperatingPoint(design: Design, nominal: Record<string, number>, derating: number): void {
+function checkOperatingPoint(design: CurrentDesign, nominal: Record<string, number>, derating: number): void {
   const c = design.current;
   const loss = nominal['shuntLoss']!;
   if (c.shunt.rating !== undefined && loss > derating * c.shunt.rating) {
@@ -247,7 +263,7 @@ function checkOperatingPoint(design: Design, nominal: Record<string, number>, de
  * limit, whatever the other parts. The pickers refuse below 10× (common practice); a design with its own values is
  * analysed down to 1× and refused below it.
  */
-function checkShuntSignal(design: Design, nominal: Record<string, number>, shuntOhms: number): void {
+function checkShuntSignal(design: CurrentDesign, nominal: Record<string, number>, shuntOhms: number): void {
   const c = design.current;
   const signal = nominal['ilimit']! * shuntOhms;
   const gain = c.topology === 'direct' ? 1 : nominal['ampOutput']! / signal;
@@ -262,7 +278,7 @@ function checkShuntSignal(design: Design, nominal: Record<string, number>, shunt
 }
 
 /** The spec window against the reference's own tolerance: a window narrower than it cannot hold every unit. */
-function checkWindowAgainstReference(design: Design, window: [number, number], target: number, limits: string[]): void {
+function checkWindowAgainstReference(design: VoltageDesign, window: [number, number], target: number, limits: string[]): void {
   const half = Math.min(target - window[0], window[1] - target) / target;
   const refBand = design.reference.tolerance + (design.reference.drift ?? 0);
   if (half > 0 && half < refBand) {
@@ -272,7 +288,7 @@ function checkWindowAgainstReference(design: Design, window: [number, number], t
   }
 }
 
-function senseBomParts(design: Design, parts: Record<string, number>, grades: ReturnType<typeof resolveSense>['grades'], nominal: Record<string, number>): BomPart[] {
+function senseBomParts(design: CurrentDesign, parts: Record<string, number>, grades: ReturnType<typeof resolveSense>['grades'], nominal: Record<string, number>): BomPart[] {
   const c = design.current;
   const limit = nominal['ilimit']!;
   const ampOutput = nominal['ampOutput']!;

@@ -25,6 +25,7 @@ import {
 import { GRADE_NAMES } from './grades.js';
 import { dividerLeg } from './divider-leg.js';
 import { networkIssues, networksField } from './network-field.js';
+import { decibels } from './decibel-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 import { boundDistribution, driftAllowances, lifeCondition, lots, sortedOut } from './life-fields.js';
@@ -63,9 +64,13 @@ export function legPartDesignators(leg: string): [string, string] {
 }
 
 /** The designators of the resistors a design places (the pot RV takes its tolerance from voltage.pot). A two-part
- * divider leg places its leg's _A and _B parts; its leg designator (RTOP) stays valid for overrides of both. */
-export function placedDesignators(topology: Topology, thresholdDivider: boolean, twoPartLegs: string[] = []): string[] {
-  const names: string[] = [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom, DESIGNATORS.shunt];
+ * divider leg places its leg's _A and _B parts; its leg designator (RTOP) stays valid for overrides of both.
+ * A single-loop design places only its loop's parts: no divider without `voltage` (topology null), no sense parts
+ * without `current` (`hasDivider` false). */
+export function placedDesignators(topology: Topology | null, thresholdDivider: boolean, twoPartLegs: string[] = [], hasDivider = true): string[] {
+  const names: string[] = [];
+  if (hasDivider) names.push(DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom);
+  if (topology !== null) names.push(DESIGNATORS.shunt);
   for (const leg of twoPartLegs) names.push(...legPartDesignators(leg));
   if (topology === 'noninv') names.push(DESIGNATORS.feedback, DESIGNATORS.ground);
   if (topology === 'diff') names.push(...DESIGNATORS.diff);
@@ -103,7 +108,7 @@ const reference = z
     sortedOut: sortedOut.optional(),
     notes: notes.optional(),
   })
-  .meta({ description: 'the reference the regulator holds its feedback pin at' });
+  .meta({ description: 'the reference the regulator holds its feedback pin at (required with a voltage section; a current-only design leaves it out)' });
 
 // ---- output voltage -----------------------------------------------------------------------------------------------
 const dividerValues = z.strictObject({
@@ -170,7 +175,7 @@ const voltageSection = z
       ctx.issues.push({ code: 'custom', path: ['search', 'parts'], input: 3, message: 'two-resistor legs are not offered with a pot', params: { accepted: '2 (the default) with a pot' } });
     }
   })
-  .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin' });
+  .meta({ description: 'the constant-voltage set-point: feedback divider from the output to the feedback pin (leave it out for a current-only design, e.g. an LED driver)' });
 
 function checkTargetInside(window: WindowInput, target: number, ctx: z.core.$RefinementCtx<unknown>, unit: string): void {
   const [lo, hi] = windowBounds(window, target);
@@ -208,9 +213,11 @@ const amplifier = z
   .strictObject({
     vos: describe(voltage({ min: 0, text: '0 V or more' }), 'input offset voltage, maximum magnitude'),
     vosDrift: describe(voltagePerK(), 'offset drift, maximum magnitude (default 0)').optional(),
-    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0)').optional(),
+    biasCurrent: describe(currentBand(), 'input bias current, positive into the inputs (default 0): the mean of the two inputs\' currents when offsetCurrent is given').optional(),
     vosDistribution: boundDistribution('how the offset spreads over ±vos').optional(),
     biasDistribution: boundDistribution('how the bias current spreads over its band').optional(),
+    offsetCurrent: describe(current({ min: 0, text: '0 A or more' }), 'input offset current Ios, the difference of the two inputs\' currents, maximum magnitude (default 0)').optional(),
+    cmrr: describe(decibels(), 'the amplifier\'s own common-mode rejection, datasheet minimum in dB (diff only: its inputs sit at the common-mode voltage, and its offset moves by ±V+/CMRR; default: not modelled)').optional(),
     rail: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'amplifier supply rail (highest output swing before headroom)'),
     headroom: describe(voltage({ min: 0, text: '0 V or more' }), 'output headroom below the rail (default 0.2 V)').optional(),
   })
@@ -296,11 +303,14 @@ const currentSection = z
     if (c.gain !== undefined && c.gain !== 'auto' && (c.shunt.value === 'auto' || thresholdAuto)) {
       issue(['gain'], `gain resistors are picked together with an "auto" ${c.shunt.value === 'auto' ? 'shunt' : 'threshold divider'}`, '"auto", or give the shunt and the threshold too');
     }
+    if (c.amplifier?.cmrr !== undefined && c.topology !== 'diff') {
+      issue(['amplifier', 'cmrr'], `the amplifier's CMRR applies to the diff topology only (the ${c.topology} stage's inputs sit near ground)`, 'topology "diff", or no amplifier.cmrr');
+    }
     if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
     }
   })
-  .meta({ description: 'the constant-current set-point: shunt, amplifier, threshold' });
+  .meta({ description: 'the constant-current set-point: shunt, amplifier, threshold (leave it out for a voltage-only design, e.g. a fixed-voltage regulator)' });
 
 // ---- resistor grades ----------------------------------------------------------------------------------------------
 const gradeFields = {
@@ -338,7 +348,7 @@ const temperature = z
   .strictObject({
     min: describe(celsius(), 'lowest ambient, °C').optional(),
     max: describe(celsius(), 'highest ambient, °C').optional(),
-    fixed: describe(celsius(), 'the one ambient the supply runs at, °C, instead of min and max (every figure at that ambient)').optional(),
+    fixed: describe(celsius(), 'the one ambient the supply runs at, °C, any value such as 40 °C, instead of min and max (every figure at that ambient, TCRs and tempcos acting through its distance from 25 °C; pilot predicts there when the CSV has no ambient column)').optional(),
   })
   .superRefine((t, ctx) => {
     const accepted = '{ min, max } for a range, or { fixed } for one ambient';
@@ -374,9 +384,9 @@ export const DesignSchema = z
     $schema: z.string().meta({ description: 'path or URL of the JSON Schema (for editors)' }).optional(),
     notes: notes.optional(),
     application: z.enum(APPLICATIONS).meta({ description: 'what the supply is for (selects the cautions shown): charger, bench, led, other' }).optional(),
-    reference,
-    voltage: voltageSection,
-    current: currentSection,
+    reference: reference.optional(),
+    voltage: voltageSection.optional(),
+    current: currentSection.optional(),
     resistors,
     temperature: temperature.optional(),
     analysis: analysis.optional(),
@@ -385,12 +395,21 @@ export const DesignSchema = z
     lots: lots.optional(),
   })
   .superRefine((d, ctx) => {
-    const divider = d.voltage.divider;
-    const twoPartLegs = divider === 'auto' ? (d.voltage.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
+    // Single-loop designs: a voltage loop alone (a fixed-voltage regulator), a current loop alone (an LED driver), or both.
+    if (d.voltage === undefined && d.current === undefined) {
+      ctx.issues.push({ code: 'custom', path: ['voltage'], input: undefined, message: 'missing required field: the design has neither a voltage nor a current section', params: { accepted: 'a voltage section (output divider), a current section (current limit), or both' } });
+      return;
+    }
+    if (d.voltage !== undefined && d.reference === undefined) {
+      ctx.issues.push({ code: 'custom', path: ['reference'], input: undefined, message: 'missing required field: the voltage section needs the reference the divider sets the output from', params: { accepted: 'reference: { voltage: "1.25 V", tolerance: "1%" }' } });
+      return;
+    }
+    const divider = d.voltage?.divider;
+    const twoPartLegs = divider === undefined ? [] : divider === 'auto' ? (d.voltage!.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
       ...(divider.top.parts.length === 2 ? [DESIGNATORS.dividerTop] : []),
       ...(divider.bottom.parts.length === 2 ? [DESIGNATORS.dividerBottom] : []),
     ];
-    const placed = placedDesignators(d.current.topology, d.current.threshold.reference !== undefined, twoPartLegs);
+    const placed = placedDesignators(d.current?.topology ?? null, d.current?.threshold.reference !== undefined && d.current !== undefined, twoPartLegs, d.voltage !== undefined);
     for (const name of Object.keys(d.resistors.overrides ?? {})) {
       if (!placed.includes(name)) {
         ctx.issues.push({
@@ -414,9 +433,22 @@ export const DesignSchema = z
       }
     }
   })
-  .meta({ title: 'trimfree design file', description: 'a CV/CC DC-DC supply: reference, output divider, current sense, resistor grades' });
+  .meta({ title: 'trimfree design file', description: 'a CV/CC DC-DC supply: reference, output divider, current sense, resistor grades; a single-loop design gives only voltage (with reference) or only current' });
 
 /** The design file after validation, in SI units. */
 export type Design = z.output<typeof DesignSchema>;
 /** The design file as written. */
 export type DesignInput = z.input<typeof DesignSchema>;
+/** A design with a voltage loop (its `voltage` section and the `reference` it needs). */
+export type VoltageDesign = Design & { voltage: NonNullable<Design['voltage']>; reference: NonNullable<Design['reference']> };
+/** A design with a current loop (its `current` section). */
+export type CurrentDesign = Design & { current: NonNullable<Design['current']> };
+/** The design's current section, for helpers that read one. */
+export type CurrentSection = NonNullable<Design['current']>;
+
+export function hasVoltageLoop(design: Design): design is VoltageDesign {
+  return design.voltage !== undefined && design.reference !== undefined;
+}
+export function hasCurrentLoop(design: Design): design is CurrentDesign {
+  return design.current !== undefined;
+}

@@ -3,7 +3,7 @@
 // of our own, typical of the parts' class: replace them with your datasheets' numbers.
 import type { DesignInput } from './schema.js';
 
-export const STARTER_KINDS = ['charger', 'bench', 'led'] as const;
+export const STARTER_KINDS = ['charger', 'bench', 'led', 'voltage-only', 'current-only'] as const;
 export type StarterKind = (typeof STARTER_KINDS)[number];
 
 const COMMON_NOTES = [
@@ -71,12 +71,48 @@ const TEMPLATES: Record<StarterKind, DesignInput> = {
       topology: 'diff',
       commonMode: '19 V',
       shunt: { value: 'auto', rating: '0.5 W', tcr: '50ppm', thermalResistance: '80 K/W' },
-      amplifier: { vos: '2 mV', biasCurrent: '±50 nA', rail: '24 V', headroom: '0.5 V' },
+      amplifier: { vos: '2 mV', biasCurrent: '±50 nA', offsetCurrent: '10 nA', cmrr: '80 dB', rail: '24 V', headroom: '0.5 V' },
       threshold: { voltage: '1.0 V', tolerance: '1%' },
       gain: 'auto',
-      notes: 'The shunt sits between the supply and the LED string; commonMode is the string\'s anode voltage.',
+      notes: [
+        'The shunt sits between the supply and the LED string; commonMode is the string\'s anode voltage.',
+        'amplifier: biasCurrent is the mean of the two input currents and offsetCurrent (Ios) their difference; cmrr is the amplifier\'s own datasheet minimum, which matters here because its inputs sit near the common-mode voltage.',
+      ],
     },
     resistors: { grade: '1%', overrides: { R1: { grade: '0.1%' }, R2: { grade: '0.1%' }, R3: { grade: '0.1%' }, R4: { grade: '0.1%' } } },
+    temperature: { min: '-20 °C', max: '60 °C' },
+    analysis: { trials: 'auto', seed: 1 },
+  },
+  'voltage-only': {
+    notes: [
+      ...COMMON_NOTES,
+      'Voltage-only design: a fixed-voltage regulator with no current loop of its own (its overcurrent protection is inside the regulator). There is no current section: leave it out rather than inventing one.',
+    ],
+    application: 'other',
+    reference: { voltage: '0.6 V', tolerance: '1%' },
+    voltage: { target: '3.3 V', window: '±3%', divider: 'auto', feedbackBias: 'max 50 nA', notes: 'A 3.3 V rail from a buck regulator with a 0.6 V feedback reference.' },
+    resistors: { grade: '1%' },
+    temperature: { min: '-20 °C', max: '70 °C' },
+    analysis: { trials: 'auto', seed: 1 },
+  },
+  'current-only': {
+    notes: [
+      ...COMMON_NOTES,
+      'Current-only design: a constant-current LED driver with no voltage loop (the string sets the output voltage). There is no voltage section and no reference: the threshold carries its own tolerance.',
+      'CAUTION: without a voltage loop nothing clamps the output if the string opens; check the driver\'s open-load protection in its datasheet.',
+    ],
+    application: 'led',
+    current: {
+      target: '350 mA',
+      window: '±5%',
+      topology: 'noninv',
+      shunt: { value: 'auto', rating: '0.25 W', tcr: '100ppm' },
+      amplifier: { vos: '1 mV', biasCurrent: '±50 nA', rail: '5 V', headroom: '0.2 V' },
+      threshold: { voltage: '0.5 V', tolerance: '1%' },
+      gain: 'auto',
+      notes: 'Low-side shunt under the LED string into a non-inverting amplifier compared with a fixed 0.5 V threshold.',
+    },
+    resistors: { grade: '1%' },
     temperature: { min: '-20 °C', max: '60 °C' },
     analysis: { trials: 'auto', seed: 1 },
   },

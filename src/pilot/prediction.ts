@@ -1,5 +1,5 @@
 // What the design's model predicts for a pilot build: the resolved supply with the ambient held at the measured
-// ambient (or 25 °C), run through the engine's public entry points (`analyze` for mean, σ, yield and the
+// ambient (else the design's one ambient, else 25 °C), run through the engine's public entry points (`analyze` for mean, σ, yield and the
 // sensitivities; `firstTrials` for the trials themselves, the predicted distribution that the shape test and the
 // projected yields read). The trials are the engine's own: same seed, same chunks.
 import { firstTrials } from '../analysis/trial-values.js';
@@ -26,8 +26,11 @@ export interface OutputPrediction {
 
 export interface PilotPrediction {
   ambientC: number;
-  /** 'measured': the mean of the CSV's ambient column; 'default': 25 °C, the CSV has none. */
-  ambientSource: 'measured' | 'default';
+  /**
+   * 'measured': the mean of the CSV's ambient column; 'design': the CSV has none and the design holds one ambient
+   * (temperature.fixed); 'default': 25 °C, neither says.
+   */
+  ambientSource: 'measured' | 'design' | 'default';
   spec: SupplySpec;
   model: Model;
   result: AnalysisResult;
@@ -61,6 +64,11 @@ export async function predictPilot(spec: SupplySpec, measuredAmbientC: number[] 
         ? `Prediction at the measured ambient, ${ambientC.toFixed(1)} °C.`
         : `Units were measured at ${lo.toFixed(1)}–${hi.toFixed(1)} °C; the prediction holds the ambient at their mean, ${ambientC.toFixed(1)} °C.`,
     );
+  } else if (spec.temperature.minC === spec.temperature.maxC) {
+    // The design holds its ambient at one value (temperature.fixed): units without a measured ambient run there.
+    ambientC = spec.temperature.minC;
+    ambientSource = 'design';
+    notes.push(`The CSV gives no ambient column: the prediction holds the ambient at the design's one ambient, ${ambientC} °C.`);
   } else {
     notes.push('The CSV gives no ambient column: the prediction holds the ambient at 25 °C.');
   }

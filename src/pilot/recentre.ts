@@ -54,8 +54,8 @@ export function swappableResistors(spec: SupplySpec, seriesOf: (designator: stri
       },
     });
   };
-  spec.divider.top.resistors.forEach((r, i) => add(r, (s) => s.divider.top.resistors[i]!));
-  spec.divider.bottom.resistors.forEach((r, i) => add(r, (s) => s.divider.bottom.resistors[i]!));
+  spec.divider?.top.resistors.forEach((r, i) => add(r, (s) => s.divider!.top.resistors[i]!));
+  spec.divider?.bottom.resistors.forEach((r, i) => add(r, (s) => s.divider!.bottom.resistors[i]!));
   const sense = spec.sense;
   if (sense?.topology === 'noninv') {
     add(sense.rf, (s) => (s.sense as typeof sense).rf);

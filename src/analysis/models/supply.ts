@@ -110,8 +110,15 @@ export interface AmplifierSpec {
   offsetDistribution?: DistributionSpec;
   /** Offset drift bound, V/K. */
   offsetDriftPerK?: number;
-  /** Input bias current, A. */
+  /** Input bias current, A: the mean of the two inputs' currents. */
   biasCurrent?: BoundSpec;
+  /** Input offset current Ios = Ib+ − Ib−, maximum magnitude, A (uniform over ±; default 0). */
+  offsetCurrentMax?: number;
+  /**
+   * The amplifier's own common-mode rejection, dB (datasheet minimum): diff only, where its inputs sit at the
+   * common-mode voltage; its input offset moves by ±V+/CMRR, the sign unknown for a unit (uniform).
+   */
+  cmrrDb?: number;
   /** Supply rail, V: ampOutput gets the spec window [0, railV − headroomV], the swing the output can reach. */
   railV?: number;
   /** How far below the rail the output can swing, V (default 0). */
@@ -147,8 +154,10 @@ export type SenseSpec =
     });
 
 export interface SupplySpec {
-  reference: ReferenceSpec;
-  divider: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
+  /** The regulator's feedback reference; needed with a divider (and by a threshold divided from it). */
+  reference?: ReferenceSpec;
+  /** The output divider; absent for a current-only design (no voltage loop: no vout, no dividerCurrent). */
+  divider?: { top: LegSpec; bottom: LegSpec; feedbackBias?: BoundSpec };
   temperature: TemperatureSpec;
   sense?: SenseSpec;
   /**
@@ -431,6 +440,10 @@ interface SenseColumns {
   compare: Float64Array | null;
   offset: Float64Array | null;
   bias: Float64Array | null;
+  /** The amplifier's offset current Ios, or null. */
+  ios: Float64Array | null;
+  /** The amplifier's common-mode error e (±1/CMRR), or null. */
+  cmrr: Float64Array | null;
   g0: Float64Array;
   g1: Float64Array;
   g2: Float64Array;
@@ -471,7 +484,7 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
  * made fresh for each trial so that, once inlined, it lives in registers (escape analysis) rather than memory.
  */
 function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
-  const { threshold, compare, offset, bias, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
+  const { threshold, compare, offset, bias, ios, cmrr, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
   const noninv = kind === NONINV;
   const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
@@ -488,6 +501,8 @@ function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: nu
       threshold: threshold[j]!,
       amplifierOffset: offset === null ? 0 : offset[j]!,
       biasCurrent: offset === null || bias === null ? 0 : bias[j]!,
+      offsetCurrent: ios === null ? 0 : ios[j]!,
+      cmrrError: cmrr === null ? 0 : cmrr[j]!,
       compareOffset: compare === null ? 0 : compare[j]!,
     };
     let current = limitOf(kind, q);
@@ -531,7 +546,11 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   }
   const tNominal = Math.min(Math.max(REFERENCE_TEMPERATURE_C, t.minC), t.maxC);
   let tDistribution: DistributionSpec = { kind: 'uniform' };
-  if (t.monteCarlo === 'uniform') {
+  if (t.minC === t.maxC) {
+    // One ambient (a design's temperature.fixed, or no range: 25 °C): every analysis holds it there.
+    tDistribution = { kind: 'fixed', value: t.minC };
+    notes.push(`The ambient is held at ${t.minC} °C for every analysis; TCRs and tempcos act through the ${t.minC - REFERENCE_TEMPERATURE_C} K from ${REFERENCE_TEMPERATURE_C} °C.`);
+  } else if (t.monteCarlo === 'uniform') {
     notes.push(`Monte Carlo draws the ambient temperature uniformly over ${t.minC}..${t.maxC} °C; worst case takes both ends.`);
   } else {
     const fixed = t.monteCarlo?.fixedC;
@@ -551,10 +570,12 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     unit: '°C',
   });
 
-  const vref = addReference(list, spec.reference, 'Vref', 'supply.reference');
-  const top = addLeg(list, spec.divider.top, 'supply.divider.top');
-  const bottom = addLeg(list, spec.divider.bottom, 'supply.divider.bottom');
-  const ifb = addBound(list, 'Ifb', 'bias current', spec.divider.feedbackBias, 'supply.divider.feedbackBias');
+  if (!spec.divider && !spec.sense) {
+    throw new InputError('supply', 'neither a divider nor a sense path', 'a divider (voltage loop), a sense path (current loop) or both');
+  }
+  if (spec.divider && !spec.reference) throw new InputError('supply.reference', 'a divider needs the reference it sets the output from', 'a reference { nominal, tolerance }');
+  const vref = spec.reference ? addReference(list, spec.reference, 'Vref', 'supply.reference') : null;
+  const divider = spec.divider ? dividerSlots(list, spec.divider) : null;
   notes.push('Resistor TCRs, reference tempco and offset drift are unknown within their bounds for a given unit: drawn uniformly (common practice).');
 
   const sense = spec.sense ? addSense(spec.sense, spec, list, vref, notes) : null;
@@ -562,22 +583,27 @@ export function buildSupplyModel(spec: SupplySpec): Model {
     list.networks.finish();
     notes.push(...list.networks.notes());
   }
-  const count = sense ? 5 : 2;
+  // Outputs in OUTPUT_NAMES order, each loop's only when the design has that loop (single-loop designs).
+  const names = OUTPUT_NAMES.filter((name) => (name === 'vout' || name === 'dividerCurrent' ? divider !== null : sense !== null));
+  const count = names.length;
+  const senseAt = divider ? 2 : 0;
 
   const scratch = new ScratchColumns();
-  /** Every output for trials 0..n−1: outs in OUTPUT_NAMES order (first two only without a sense path). */
+  /** Every output for trials 0..n−1: outs in `names` order (the voltage loop's two, then the current loop's three). */
   function evaluateAll(p: Float64Array[], outs: Float64Array[], n: number): void {
     scratch.begin(n);
     const tp = p[temperature]!;
     const dT = temperatureRise(tp, n, scratch.take());
-    const v = referenceColumn(p, vref, dT, n, scratch);
-    const rTop = legColumn(p, top, dT, n, scratch);
-    const rBottom = legColumn(p, bottom, dT, n, scratch);
-    dividerBlock(v, rTop, rBottom, column(p, ifb), n, outs[0]!, outs[1]!);
-    if (sense) sense.evaluate(p, dT, v, n, scratch, outs[2]!, outs[3]!, outs[4]!);
+    const v = vref ? referenceColumn(p, vref, dT, n, scratch) : dT;
+    if (divider) {
+      const rTop = legColumn(p, divider.top, dT, n, scratch);
+      const rBottom = legColumn(p, divider.bottom, dT, n, scratch);
+      dividerBlock(v, rTop, rBottom, column(p, divider.ifb), n, outs[0]!, outs[1]!);
+    }
+    if (sense) sense.evaluate(p, dT, v, n, scratch, outs[senseAt]!, outs[senseAt + 1]!, outs[senseAt + 2]!);
   }
 
-  const outputs: ModelOutput[] = OUTPUT_NAMES.slice(0, count).map((name, o) => {
+  const outputs: ModelOutput[] = names.map((name, o) => {
     const output: ModelOutput = {
       name,
       unit: OUTPUT_UNITS[name],
@@ -598,12 +624,20 @@ export function buildSupplyModel(spec: SupplySpec): Model {
   return { parts: list.parts, outputs, notes, evaluateAll, ambient: { part: temperature, gridC: ambientGrid(t.minC, t.maxC, t.unitPoints) } };
 }
 
+/** The divider's legs and feedback bias as parts. */
+function dividerSlots(list: PartList, divider: NonNullable<SupplySpec['divider']>): { top: LegSlots; bottom: LegSlots; ifb: number } {
+  const top = addLeg(list, divider.top, 'supply.divider.top');
+  const bottom = addLeg(list, divider.bottom, 'supply.divider.bottom');
+  const ifb = addBound(list, 'Ifb', 'bias current', divider.feedbackBias, 'supply.divider.feedbackBias');
+  return { top, bottom, ifb };
+}
+
 /** A limit for a note, in SI units to four significant digits (notation belongs to src/units, which the engine does not import). */
 function plain(value: number, unit: string): string {
   return `${Number(value.toPrecision(4))} ${unit}`;
 }
 
-function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot, notes: string[]): SenseEvaluator {
+function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorReference: ReferenceSlot | null, notes: string[]): SenseEvaluator {
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
   const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
@@ -630,6 +664,9 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     const life = addAllowances(list, 'Vth', th.allowances, `${where}.threshold.allowances`);
     if (life.length > 0) thLife = { value: thFixed, tcr: thTempco, drift: NONE, life };
   } else if (th.kind === 'divided') {
+    if (th.source === 'regulator-reference' && regulatorReference === null) {
+      throw new InputError(`${where}.threshold.source`, 'the threshold is divided from the regulator reference, but the supply has none', 'a reference of its own { nominal, tolerance }, or a supply reference');
+    }
     thSource = th.source === 'regulator-reference' ? regulatorReference : addReference(list, th.source, 'Vref threshold', `${where}.threshold.source`);
     thTop = addResistor(list, th.top, `${where}.threshold.top`);
     thBottom = addResistor(list, th.bottom, `${where}.threshold.bottom`);
@@ -643,6 +680,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   let ampOffset = NONE;
   let ampDrift = NONE;
   let ampBias = NONE;
+  let ampIos = NONE;
+  let ampCmrr = NONE;
   let railV: number | undefined;
   let headroomV: number | undefined;
   const gain: ResistorSlot[] = [];
@@ -656,6 +695,14 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
     ampOffset = list.add(partFromBound(offsetInput));
     if (amp.offsetDriftPerK) ampDrift = list.add(partFromBound({ name: 'Vos amp drift', kind: 'temperature coefficient', nominal: 0, plusMinus: amp.offsetDriftPerK, unit: 'V/K' }));
     ampBias = addBound(list, 'Ib amp', 'bias current', amp.biasCurrent, `${where}.amplifier.biasCurrent`);
+    checkFinite(amp.offsetCurrentMax, `${where}.amplifier.offsetCurrentMax`, 'an offset current maximum ≥ 0 A');
+    if (amp.offsetCurrentMax) ampIos = list.add(partFromBound({ name: 'Ios amp', kind: 'bias current', nominal: 0, plusMinus: amp.offsetCurrentMax, unit: 'A' }));
+    if (amp.cmrrDb !== undefined) {
+      if (!Number.isFinite(amp.cmrrDb) || amp.cmrrDb <= 0) throw new InputError(`${where}.amplifier.cmrrDb`, `${amp.cmrrDb} dB is not a rejection`, 'a CMRR above 0 dB (datasheet minimum, e.g. 80)');
+      if (sense.topology !== 'diff') throw new InputError(`${where}.amplifier.cmrrDb`, `the ${sense.topology} stage sees no common-mode voltage`, 'cmrrDb with the diff topology only');
+      // 20·log10 of the voltage ratio (IEC 60027-3:2002, from memory): |e| = 10^(−CMRR/20).
+      ampCmrr = list.add(partFromBound({ name: 'CMRR amp', kind: 'offset', nominal: 0, plusMinus: 10 ** (-amp.cmrrDb / 20), unit: 'V/V' }));
+    }
     railV = amp.railV;
     headroomV = amp.headroomV;
     if (sense.topology === 'noninv') {
@@ -696,6 +743,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         compare: column(p, compareOffset),
         offset,
         bias: column(p, ampBias),
+        ios: column(p, ampIos),
+        cmrr: column(p, ampCmrr),
         g0: g[0] ?? dT,
         g1: g[1] ?? dT,
         g2: g[2] ?? dT,

@@ -10,6 +10,14 @@
 //   + (1 + R2/R1)·(Vos − Ib·(R3∥R4)) + Ib·R2
 // With R2/R1 = R4/R3 = G the common-mode term vanishes and Vo = G·I·Rs; any mismatch turns Vcm into error,
 // which for high-side sensing (Vcm = the supply rail) is often the largest term.
+//
+// Unequal input currents: Ib is the mean of the two, Ios = Ib+ − Ib− their difference (the datasheet's offset
+// current), so Ib+ = Ib + Ios/2 flows out of the + node through R3∥R4 and Ib− = Ib − Ios/2 through R2.
+// The amplifier's own CMRR: its input offset moves by V+/CMRR with the common-mode voltage V+ at its inputs (the
+// definition of CMRR as differential over common-mode gain, referred to the input; any op-amp text, from memory).
+// With e = ±1/CMRR (the sign is unknown for a given unit) and V+ = k·Vp − Ib+·(R3∥R4), k = R4/(R3+R4), the output is
+//   Vo = a·(1 + e)·Vp − (R2/R1)·Vn + (1 + R2/R1)·(Vos − (1 + e)·Ib+·(R3∥R4)) + Ib−·R2,   a = k·(1 + R2/R1)
+// exactly (still linear in the load current, so the limit is found in closed form). e = Ios = 0 gives the form above.
 
 export interface DiffSense {
   shunt: number;
@@ -21,8 +29,12 @@ export interface DiffSense {
   commonMode: number;
   threshold: number;
   amplifierOffset: number;
-  /** Bias current into each amplifier input, A. */
+  /** Bias current into each amplifier input (the mean of the two), A. */
   biasCurrent: number;
+  /** Offset current Ios = Ib+ − Ib−, A (default 0). */
+  offsetCurrent?: number;
+  /** The amplifier's common-mode error e: its input offset moves by e·V+ (|e| = 1/CMRR as a ratio; default 0). */
+  cmrrError?: number;
   compareOffset: number;
 }
 
@@ -36,21 +48,23 @@ function plusGain(p: DiffSense): number {
   return (p.r4 / (p.r3 + p.r4)) * (1 + p.r2 / p.r1);
 }
 
-/** Output contribution of offset and bias currents, independent of the load current. */
+/** Output contribution of offset and input currents, independent of the load current. */
 function offsetTerm(p: DiffSense): number {
   const sourceAtPlus = (p.r3 * p.r4) / (p.r3 + p.r4);
-  return (1 + p.r2 / p.r1) * (p.amplifierOffset - p.biasCurrent * sourceAtPlus) + p.biasCurrent * p.r2;
+  const half = (p.offsetCurrent ?? 0) / 2;
+  const cm = 1 + (p.cmrrError ?? 0);
+  return (1 + p.r2 / p.r1) * (p.amplifierOffset - cm * (p.biasCurrent + half) * sourceAtPlus) + (p.biasCurrent - half) * p.r2;
 }
 
 /** Amplifier output for a load current (exact four-resistor transfer). */
 export function diffOutput(p: DiffSense, current: number): number {
   const vp = p.commonMode + current * p.shunt;
-  return plusGain(p) * vp - (p.r2 / p.r1) * p.commonMode + offsetTerm(p);
+  return plusGain(p) * (1 + (p.cmrrError ?? 0)) * vp - (p.r2 / p.r1) * p.commonMode + offsetTerm(p);
 }
 
 /** Load current at which the loop trips: solves diffOutput(I) + Vos_cmp = Vth for I. */
 export function diffLimit(p: DiffSense): number {
-  const a = plusGain(p);
+  const a = plusGain(p) * (1 + (p.cmrrError ?? 0));
   const commonModeOut = (a - p.r2 / p.r1) * p.commonMode;
   return (p.threshold - p.compareOffset - commonModeOut - offsetTerm(p)) / (a * p.shunt);
 }

@@ -7,6 +7,8 @@
 // into the inverting input, which must come through RF from the output. The bias current of the non-inverting
 // input flows through the shunt (milliohms) and is neglected.
 // Trip: Vo + Vos_cmp = Vth, so I_limit = ((Vth − Vos_cmp − Ib·RF)/G − Vos)/Rs.
+// With unequal input currents, Ib is their mean and Ios = Ib+ − Ib− their difference (the datasheet's offset
+// current): the inverting input draws Ib− = Ib − Ios/2, which takes the place of Ib above.
 
 export interface NoninvSense {
   shunt: number;
@@ -17,9 +19,16 @@ export interface NoninvSense {
   threshold: number;
   /** Amplifier input offset voltage, V. */
   amplifierOffset: number;
-  /** Amplifier input bias current into the inverting input, A. */
+  /** Amplifier input bias current, the mean of the two inputs', A. */
   biasCurrent: number;
+  /** Offset current Ios = Ib+ − Ib−, A (default 0): the inverting input draws Ib − Ios/2. */
+  offsetCurrent?: number;
   compareOffset: number;
+}
+
+/** The current the inverting input draws through RF: Ib − Ios/2. */
+function invertingCurrent(p: NoninvSense): number {
+  return p.biasCurrent - (p.offsetCurrent ?? 0) / 2;
 }
 
 export function noninvGain(feedback: number, ground: number): number {
@@ -28,11 +37,11 @@ export function noninvGain(feedback: number, ground: number): number {
 
 /** Amplifier output for a load current. */
 export function noninvOutput(p: NoninvSense, current: number): number {
-  return noninvGain(p.feedback, p.ground) * (current * p.shunt + p.amplifierOffset) + p.biasCurrent * p.feedback;
+  return noninvGain(p.feedback, p.ground) * (current * p.shunt + p.amplifierOffset) + invertingCurrent(p) * p.feedback;
 }
 
 /** Load current at which the loop trips. */
 export function noninvLimit(p: NoninvSense): number {
   const gain = noninvGain(p.feedback, p.ground);
-  return ((p.threshold - p.compareOffset - p.biasCurrent * p.feedback) / gain - p.amplifierOffset) / p.shunt;
+  return ((p.threshold - p.compareOffset - invertingCurrent(p) * p.feedback) / gain - p.amplifierOffset) / p.shunt;
 }
