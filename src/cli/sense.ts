@@ -231,7 +231,7 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[], network: SenseRequest[
       worstCaseSpreadPct: c.worstCaseSpreadPct,
     })),
     pareto: pick.pareto.map((c) => ({ parts: c.parts, shuntLossW: c.shuntLossW, worstCaseSpreadPct: c.worstCaseSpreadPct })),
-    gainNetwork: network ?? null,
+    ...(network ? { gainNetwork: network } : {}),
     considered: pick.considered,
     rejected: pick.rejected,
     cautions: [SHUNT_CAUTION.replace(/\n/g, ' ')],
@@ -298,7 +298,7 @@ export function senseCommand(): Command {
     .addOption(new Option('--ib <A>', 'amplifier input bias current: 20n (typical, exactly that), ±20n or 10n±10n (a band), 0..20n (a range), max 20n (anywhere in 0..20 nA)').argParser(currentBandOption('--ib')).default({ nominal: 0, lo: 0, hi: 0, form: 'typical' }, '0 A'))
     .addOption(new Option('--common-mode <V>', 'load-side shunt voltage for high-side sensing (diff only)').argParser(voltageOption('--common-mode')).default(0, '0 V, low side'))
     .addOption(new Option('--top <n>', 'candidates listed').argParser(integerOption('--top', 1, 1000)).default(10))
-    .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto')
+    .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto, gainNetwork with --ratio-tol')
     .addHelpText(
       'after',
       `

@@ -81,8 +81,15 @@ export function purchaseBom(bom: BomLine[], result: AnalysisResult, chips: ChipS
     const power = current * voltage;
     // The pot is a trimmer or panel part, not a chip resistor: the table does not apply to it.
     const isPot = line.designator === DESIGNATORS.pot;
-    const chip = isPot ? undefined : smallestChip(chips, power, voltage);
-    const chipSizeNote = chip ? null : isPot ? "a potentiometer, not a chip resistor: choose one by its own rating" : 'none in the table covers it';
+    // A network member sits in the network's own package: its per-element rating applies, not a chip size.
+    const chip = isPot || line.network !== undefined ? undefined : smallestChip(chips, power, voltage);
+    const chipSizeNote = chip
+      ? null
+      : isPot
+        ? "a potentiometer, not a chip resistor: choose one by its own rating"
+        : line.network !== undefined
+          ? `a member of the network ${line.network}: check the network's per-element power and voltage rating against these figures`
+          : 'none in the table covers it';
     return {
       designator: line.designator,
       members: [...(line.members ?? [])],

@@ -129,6 +129,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
     if (!network) continue;
     part.tolerance = network.tolerance;
     part.tcrPerK = network.tcrPerK ?? part.tcrPerK;
+    part.network = network.name;
     part.role = `${part.role}; in network ${network.name} (${network.members.join(', ')}), ratio ±${formatPercent(network.ratio)}`;
   }
   const bom = bomParts.map(bomLine);
