@@ -176,6 +176,12 @@ export function resolveDesign(design: Design): ResolvedDesign {
 function worstShuntLoss(spec: SupplySpec): number {
   const exact = (name: string): SupplySpec['divider']['top'] => ({ resistors: [{ name, nominal: 1, tolerance: 0 }] });
   const senseOnly: SupplySpec = { ...spec, divider: { top: exact(DESIGNATORS.dividerTop), bottom: exact(DESIGNATORS.dividerBottom) } };
+  // A network keeps its sense-path members; one left alone is its own band (its ResistorSpec carries the network's
+  // tolerance and TCR, resolve-networks.ts), which is exactly the set of values a single member can take.
+  const dividerNames = new Set([...spec.divider.top.resistors, ...spec.divider.bottom.resistors].map((r) => r.name));
+  const networks = (spec.networks ?? []).map((n) => ({ ...n, members: n.members.filter((m) => !dividerNames.has(m)) })).filter((n) => n.members.length >= 2);
+  if (networks.length > 0) senseOnly.networks = networks;
+  else delete senseOnly.networks;
   return worstCase(buildSupplyModel(senseOnly)).find((w) => w.name === 'shuntLoss')!.max;
 }
 
