@@ -28,8 +28,8 @@ export interface BomLine {
   ratingW?: number;
   /** The operating point the power is taken at. */
   powerAt: string;
-  /** A resistor network's designators, the line standing for the whole package (the design file has no networks
-   * yet: when it gains them, resolve fills this and every BOM output lists the members on the network's line). */
+  /** A resistor network's designators, for a line standing for the whole package. Not filled yet: a network's
+   * members keep a line each (their values and powers differ), each naming its network in `network`. */
   members?: string[];
   /** The network (design file `networks`) this resistor is a member of: bought as part of that package. */
   network?: string;

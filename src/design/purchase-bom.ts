@@ -14,9 +14,9 @@
 // (ampOutput); the threshold divider its reference, which the model holds constant (no scaling). The current's
 // and the resistance's maxima cannot both happen in one unit, so the bound is conservative. TCR is left out.
 //
-// A resistor network (several resistors in one package, sharing a lot) will appear as one line with its members;
-// the design file has no networks yet, so every line has `members` empty. Hook: a BOM line that gains `members`
-// passes them through here unchanged.
+// A resistor network (design file `networks`) keeps one line per member, each naming its network and its ratio in
+// the role; such a line gets no chip size (the network's per-element rating applies). `members` stays empty until a
+// line stands for a whole package; a BOM line that gains `members` passes them through here unchanged.
 import type { AnalysisResult } from '../analysis/result.js';
 import { toleranceLetter } from '../units/index.js';
 import type { BomLine } from './bom.js';
