@@ -5,7 +5,10 @@ import { describe, expect, it } from 'vitest';
 import { nominalOutputs } from '../src/analysis/model.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
 import { worstCase } from '../src/analysis/worst-case.js';
-import { loadDesignFile } from '../src/design/load.js';
+import { readFileSync } from 'node:fs';
+import { InputError } from '../src/errors.js';
+import { loadDesignFile, validateDesign } from '../src/design/load.js';
+import { baseDesign } from './design-fixture.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { runSpread } from '../src/design/spread-study.js';
 import { networkBands } from '../src/tolerance/network-bands.js';
@@ -91,5 +94,54 @@ describe('LED driver: R1..R4 as a 0.05 % ratio network', () => {
     expect(ia.worstCase.max - ia.worstCase.min).toBeLessThan(0.5 * (ib.worstCase.max - ib.worstCase.min));
     expect(ib.yield!.pct).toBeLessThan(95);
     expect(ia.yield!.pct).toBeGreaterThan(99.9);
+  });
+});
+
+describe('networks in the design file, resolved', () => {
+  it('an "auto" gain with R1..R4 in a network: the picker ranks by the network\'s quick worst case', () => {
+    const raw = JSON.parse(readFileSync('examples/led-driver-highside.json', 'utf8'));
+    delete raw.resistors.overrides;
+    raw.networks = { RN1: { members: ['R1', 'R2', 'R3', 'R4'], tolerance: '0.1%', ratio: '0.05%', tcr: '25ppm', tracking: '5ppm' } };
+    const withNetwork = resolveDesign(validateDesign(raw));
+    const note = (r: typeof before) => r.notes.find((n) => n.startsWith('Current sense picked'))!;
+    // The loose file's quick worst case and the network's, both from the picker's note (A).
+    const quick = (text: string): number[] => [...text.matchAll(/quick worst case ([\d.]+) mA\.\.([\d.]+) mA/g)][0]!.slice(1, 3).map(Number);
+    const [looseLo, looseHi] = quick(note(before));
+    const [netLo, netHi] = quick(note(withNetwork));
+    expect(netHi! - netLo!).toBeLessThan(0.6 * (looseHi! - looseLo!));
+    // The members carry the network's figures into the engine and the BOM.
+    expect(withNetwork.spec.networks?.[0]?.members).toEqual(['R1', 'R2', 'R3', 'R4']);
+    expect(withNetwork.bom.filter((l) => l.network === 'RN1').map((l) => l.designator)).toEqual(['R1', 'R2', 'R3', 'R4']);
+  });
+
+  it('a member that an "auto" three-part divider turned into a two-resistor leg is refused at resolve, naming the field', () => {
+    // With search.parts 3 the leg structure is known only once the picker has run: 5.03 V from 1.25 V comes out as
+    // RTOP_A + RTOP_B over one RBOT, 5 V as one resistor a leg (30k/10k exactly).
+    const design = (target: string, members: string[]) => {
+      const d = baseDesign();
+      d.voltage.divider = 'auto';
+      d.voltage.search = { parts: 3, bottom: '1k..10k' };
+      d.voltage.target = target;
+      d.networks = { RN1: { members, tolerance: '0.1%', ratio: '0.05%' } };
+      return validateDesign(d);
+    };
+    expect(() => resolveDesign(design('5.03 V', ['RTOP', 'RBOT']))).toThrow(InputError);
+    try {
+      resolveDesign(design('5.03 V', ['RTOP', 'RBOT']));
+    } catch (e) {
+      expect((e as InputError).where).toBe('networks.RN1.members[0]');
+      expect((e as InputError).accepted).toMatch(/RTOP_A, RTOP_B, RBOT/);
+    }
+    expect(resolveDesign(design('5.03 V', ['RTOP_A', 'RTOP_B', 'RBOT'])).spec.networks?.[0]?.members).toEqual(['RTOP_A', 'RTOP_B', 'RBOT']);
+    expect(() => resolveDesign(design('5 V', ['RTOP_A', 'RBOT']))).toThrow(/no single resistor RTOP_A/);
+  });
+
+  it('no TCR on the network: the grade\'s, said in the notes; no tracking: independent TCRs, said too', () => {
+    const d = baseDesign();
+    d.networks = { RN1: { members: ['RF', 'RG'], tolerance: '0.1%', ratio: '0.05%' } };
+    const r = resolveDesign(validateDesign(d));
+    expect(r.spec.networks).toEqual([{ name: 'RN1', members: ['RF', 'RG'], tolerance: 0.001, ratio: 0.0005, tcrPerK: 100e-6, trackingPerK: 200e-6 }]);
+    expect(r.notes.join('\n')).toMatch(/RN1: no TCR given, ±100 ppm\/K taken from the resistor grade/);
+    expect(r.notes.join('\n')).toMatch(/RN1: no TCR tracking given, so the members' TCRs are taken as independent/);
   });
 });

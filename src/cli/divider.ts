@@ -41,6 +41,7 @@ interface DividerOptions {
   max: number;
   biasRatio: number;
   tolerance?: number;
+  ratioTol?: number;
   vrefTol: number;
   maxError?: number;
   top: number;
@@ -100,7 +101,9 @@ function printFixed(result: FixedDividerResult, ifb: CurrentBand): void {
   process.stdout.write(
     `${settingsLine(result, ifb)}\n${table.toString()}\n` +
       `error: Vout vs ${volts(s.vout.lo)} with Ifb included; Ifb part: Ifb·Rtop as a share of the target; ` +
-      `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n` +
+      (s.ratioTolerance === undefined
+        ? `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n`
+        : `worst case: the resistors as one network, ±${formatPercent(s.tolerance, 2)} absolute and ±${formatPercent(s.ratioTolerance, 3)} ratio between any two: every corner of its shared term × each part's own term (src/tolerance/network-bands.ts), and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n`) +
       NOTES,
   );
 }
@@ -172,6 +175,7 @@ async function run(options: DividerOptions): Promise<void> {
     maxOhms: options.max,
     biasRatio: options.biasRatio,
     tolerance: options.tolerance,
+    ratioTolerance: options.ratioTol,
     vrefTolerance: options.vrefTol,
     maxError: options.maxError,
     count: options.top,
@@ -200,6 +204,7 @@ export function dividerCommand(): Command {
     .addOption(new Option('--max <ohms>', 'largest resistor').argParser(resistanceOption('--max')).default(d.maxOhms, '1M'))
     .addOption(new Option('--bias-ratio <n>', 'divider current at least n × |Ifb| (0: off)').argParser(integerOption('--bias-ratio', 0, 1e6)).default(d.biasRatio))
     .addOption(new Option('--tolerance <pct>', 'resistor tolerance (default: the series\' usual, E96 1 %)').argParser(toleranceOption('--tolerance')))
+    .addOption(new Option('--ratio-tol <pct>', 'the divider\'s resistors as one network with this ratio (matching) tolerance, --tolerance its absolute one; worst case then takes the network\'s shared × own corners (default: separate resistors)').argParser(toleranceOption('--ratio-tol')))
     .addOption(new Option('--vref-tol <pct>', 'reference tolerance').argParser(toleranceOption('--vref-tol')).default(d.vrefTolerance, '1%'))
     .addOption(new Option('--max-error <pct>', 'largest output error accepted (default: the resistor tolerance)').argParser(percentOption('--max-error')))
     .addOption(new Option('--top <n>', 'candidates shown').argParser(integerOption('--top', 1, 200)).default(d.count))
@@ -221,6 +226,7 @@ Examples:
   $ trimfree divider --vref 0.8 --vout 5 --ifb 50n --series E24,E96 --parts 3
   $ trimfree divider --vref 1.25 --vout 12 --bottom 3k3..3k3 --series E24,E96 --max-error 2%
   $ trimfree divider --vref 1.25 --vout 14.4 --stock my-resistors.txt --json
+  $ trimfree divider --vref 1.25 --vout 8.4 --tolerance 0.1% --ratio-tol 0.05%
   $ trimfree divider --vref 1.25 --vout 3.3..24 --pot 100k --pot-leg top`,
     )
     .configureOutput({ outputError: () => undefined }) // src/cli/main.ts prints the one-line error

@@ -39,6 +39,7 @@ interface SenseOptions {
   series: SeriesName;
   window: Range;
   tolerance: number;
+  ratioTol?: number;
   rail: number;
   headroom: number;
   vos: number;
@@ -107,6 +108,15 @@ function buildRequest(options: SenseOptions): SenseRequest {
     commonMode: options.commonMode,
   };
   if (options.maxLoss !== undefined) request.maxLossW = options.maxLoss;
+  if (options.ratioTol !== undefined) {
+    if (options.topology !== 'diff') {
+      throw new InputError('--ratio-tol', `a gain network is offered for the diff topology's R1–R4, not ${options.topology}`, '--topology diff with --ratio-tol, or no --ratio-tol');
+    }
+    if (!(options.ratioTol <= options.tolerance)) {
+      throw new InputError('--ratio-tol', `${formatPercent(options.ratioTol)} is wider than the ${formatPercent(options.tolerance)} absolute --tolerance`, `a ratio tolerance at most --tolerance (${formatPercent(options.tolerance)})`);
+    }
+    request.gainNetwork = { name: 'RN1', tolerance: options.tolerance, ratio: options.ratioTol };
+  }
   return request;
 }
 
@@ -181,20 +191,28 @@ function describeRequest(request: SenseRequest, options: SenseOptions): string {
   return [
     `current limit ${formatEngineering(request.limit, 'A')}, ${request.topology} topology, ${side}, ${threshold}`,
     `resistors ${options.series} ${ohms(options.window.lo)}–${ohms(options.window.hi)} ±${formatPercent(request.resistorTolerance)}; ` +
+      (request.gainNetwork ? `R1–R4 one network RN1, ±${formatPercent(request.gainNetwork.ratio, 3)} ratio between any two; ` : '') +
       `shunts ±${formatPercent(request.shuntTolerance)} rated ${formatEngineering(request.shuntRatingW, 'W')} used to ${formatPercent(request.derating, 0)}` +
       (request.maxLossW === undefined ? '' : `, loss budget ${formatEngineering(request.maxLossW, 'W')}`),
     amp,
   ].join('\n');
 }
 
-function highSideNote(commonMode: number): string {
+function highSideNote(commonMode: number, network: SenseRequest['gainNetwork']): string {
+  if (network) {
+    return (
+      `high side: resistor mismatch turns the ${formatEngineering(commonMode, 'V')} common mode into limit error. R1–R4 as one network: its shared\n` +
+      `term cancels in every ratio and each member keeps its own ±ρ/(2 + ρ) (ρ the ratio tolerance), so the worst-case CMRR\n` +
+      `is about (1 + G)/(4·ρ/(2 + ρ)) ≈ (1 + G)/(2ρ) (first order; test/network-model.test.ts derives it).\n`
+    );
+  }
   return (
     `high side: resistor mismatch turns the ${formatEngineering(commonMode, 'V')} common mode into limit error (worst-case CMRR of four\n` +
-    `resistors of tolerance t is about (1 + G)/(4t), from memory); a tighter --tolerance or a matched network narrows it.\n`
+    `resistors of tolerance t is about (1 + G)/(4t), from memory); a tighter --tolerance or a matched network (--ratio-tol) narrows it.\n`
   );
 }
 
-function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
+function jsonOf(pick: SensePick, shown: SenseCandidate[], network: SenseRequest['gainNetwork']): unknown {
   return {
     target: pick.target,
     candidates: shown.map((c) => ({
@@ -213,6 +231,7 @@ function jsonOf(pick: SensePick, shown: SenseCandidate[]): unknown {
       worstCaseSpreadPct: c.worstCaseSpreadPct,
     })),
     pareto: pick.pareto.map((c) => ({ parts: c.parts, shuntLossW: c.shuntLossW, worstCaseSpreadPct: c.worstCaseSpreadPct })),
+    ...(network ? { gainNetwork: network } : {}),
     considered: pick.considered,
     rejected: pick.rejected,
     cautions: [SHUNT_CAUTION.replace(/\n/g, ' ')],
@@ -232,7 +251,7 @@ function run(options: SenseOptions): void {
   const pick = pickSense(request);
   const shown = pick.candidates.slice(0, options.top);
   if (options.json) {
-    process.stdout.write(`${JSON.stringify(jsonOf(pick, shown), null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify(jsonOf(pick, shown, request.gainNetwork), null, 2)}\n`);
     return;
   }
   const divider = request.threshold.kind === 'divider';
@@ -244,11 +263,11 @@ function run(options: SenseOptions): void {
       `error: nominal limit against the target; V shunt, loss, amp out: at the nominal limit; I max: the current at the shunt's\n` +
       `loss limit (its derated rating, or --max-loss when lower);\n` +
       `offsets: largest limit change from Vos, Ib and the comparing offset; worst case: every tolerance and offset at its\n` +
-      `extremes (vertex enumeration, exact for these monotonic transfers); spread: larger distance from the target to\n` +
+      `extremes (vertex enumeration, exact for these monotonic transfers${request.gainNetwork ? '; R1–R4 by the corners of the network\'s shared term ×\neach member\'s own term, so every unit holds both bands' : ''}); spread: larger distance from the target to\n` +
       `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
       (shown.some(exceedsLossLimit) ? `!: the worst-case highest limit exceeds I max (the loss there is listed in --json as worstCaseLossW); 'trimfree design' never picks such a candidate.\n` : '') +
       (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
-      (request.commonMode !== 0 ? highSideNote(request.commonMode) : '') +
+      (request.commonMode !== 0 ? highSideNote(request.commonMode, request.gainNetwork) : '') +
       `\nPareto front: no other candidate is both cooler and tighter\n${paretoTable(pick)}\n\n${SHUNT_CAUTION}\n`,
   );
 }
@@ -271,6 +290,7 @@ export function senseCommand(): Command {
     .addOption(new Option('--series <name>', `E-series of the gain and divider resistors: ${SERIES_NAMES.join(', ')}`).argParser(seriesOption('--series')).default('E96'))
     .addOption(new Option('--window <lo..hi>', 'range of the gain and divider resistors').argParser(rangeOption(parseResistance, '--window')).default({ lo: 1e3, hi: 1e6 }, '1k..1M'))
     .addOption(new Option('--tolerance <pct>', 'tolerance of the gain and divider resistors').argParser(toleranceOption('--tolerance')).default(0.01, '1 %'))
+    .addOption(new Option('--ratio-tol <pct>', 'diff: R1–R4 as one network with this ratio (matching) tolerance, --tolerance its absolute one; worst case takes its shared × own corners (default: four separate resistors)').argParser(toleranceOption('--ratio-tol')))
     .addOption(new Option('--rail <V>', 'amplifier supply rail').argParser(voltageOption('--rail')).default(5, '5 V'))
     .addOption(new Option('--headroom <V>', 'how close to the rail the amplifier output swings').argParser(voltageOption('--headroom')).default(0.2, '0.2 V'))
     .addOption(new Option('--vos <V>', 'largest amplifier input offset').argParser(voltageOption('--vos')).default(1e-3, '1 mV'))
@@ -278,7 +298,7 @@ export function senseCommand(): Command {
     .addOption(new Option('--ib <A>', 'amplifier input bias current: 20n (typical, exactly that), ±20n or 10n±10n (a band), 0..20n (a range), max 20n (anywhere in 0..20 nA)').argParser(currentBandOption('--ib')).default({ nominal: 0, lo: 0, hi: 0, form: 'typical' }, '0 A'))
     .addOption(new Option('--common-mode <V>', 'load-side shunt voltage for high-side sensing (diff only)').argParser(voltageOption('--common-mode')).default(0, '0 V, low side'))
     .addOption(new Option('--top <n>', 'candidates listed').argParser(integerOption('--top', 1, 1000)).default(10))
-    .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto')
+    .option('--json', 'print JSON: candidates (parts in ohms, limit, errorPct, shuntLossW, worstCase), pareto, gainNetwork with --ratio-tol')
     .addHelpText(
       'after',
       `
@@ -291,6 +311,7 @@ Examples:
   $ trimfree sense --limit 3A --threshold 1V
   $ trimfree sense --limit 3A --threshold 1V --max-loss 0.25W --vos 50uV --tolerance 0.1%
   $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V
+  $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V --tolerance 0.1% --ratio-tol 0.05%
   $ trimfree sense --limit 2A --topology direct --threshold-from 1.25V --vos-cmp 1mV
   $ trimfree sense --limit 3A --threshold 1V --shunts 20m,R033,50m --json`,
     )

@@ -28,9 +28,11 @@ export interface BomLine {
   ratingW?: number;
   /** The operating point the power is taken at. */
   powerAt: string;
-  /** A resistor network's designators, the line standing for the whole package (the design file has no networks
-   * yet: when it gains them, resolve fills this and every BOM output lists the members on the network's line). */
+  /** A resistor network's designators, for a line standing for the whole package. Not filled yet: a network's
+   * members keep a line each (their values and powers differ), each naming its network in `network`. */
   members?: string[];
+  /** The network (design file `networks`) this resistor is a member of: bought as part of that package. */
+  network?: string;
 }
 
 export interface BomPart {
@@ -43,6 +45,7 @@ export interface BomPart {
   powerAt: string;
   ratingW?: number | undefined;
   shunt?: boolean;
+  network?: string;
 }
 
 export function bomLine(part: BomPart): BomLine {
@@ -58,6 +61,7 @@ export function bomLine(part: BomPart): BomLine {
     powerAt: part.powerAt,
   };
   if (part.ratingW !== undefined) line.ratingW = part.ratingW;
+  if (part.network !== undefined) line.network = part.network;
   return line;
 }
 

@@ -14,9 +14,9 @@
 // (ampOutput); the threshold divider its reference, which the model holds constant (no scaling). The current's
 // and the resistance's maxima cannot both happen in one unit, so the bound is conservative. TCR is left out.
 //
-// A resistor network (several resistors in one package, sharing a lot) will appear as one line with its members;
-// the design file has no networks yet, so every line has `members` empty. Hook: a BOM line that gains `members`
-// passes them through here unchanged.
+// A resistor network (design file `networks`) keeps one line per member, each naming its network and its ratio in
+// the role; such a line gets no chip size (the network's per-element rating applies). `members` stays empty until a
+// line stands for a whole package; a BOM line that gains `members` passes them through here unchanged.
 import type { AnalysisResult } from '../analysis/result.js';
 import { toleranceLetter } from '../units/index.js';
 import type { BomLine } from './bom.js';
@@ -81,8 +81,15 @@ export function purchaseBom(bom: BomLine[], result: AnalysisResult, chips: ChipS
     const power = current * voltage;
     // The pot is a trimmer or panel part, not a chip resistor: the table does not apply to it.
     const isPot = line.designator === DESIGNATORS.pot;
-    const chip = isPot ? undefined : smallestChip(chips, power, voltage);
-    const chipSizeNote = chip ? null : isPot ? "a potentiometer, not a chip resistor: choose one by its own rating" : 'none in the table covers it';
+    // A network member sits in the network's own package: its per-element rating applies, not a chip size.
+    const chip = isPot || line.network !== undefined ? undefined : smallestChip(chips, power, voltage);
+    const chipSizeNote = chip
+      ? null
+      : isPot
+        ? "a potentiometer, not a chip resistor: choose one by its own rating"
+        : line.network !== undefined
+          ? `a member of the network ${line.network}: check the network's per-element power and voltage rating against these figures`
+          : 'none in the table covers it';
     return {
       designator: line.designator,
       members: [...(line.members ?? [])],

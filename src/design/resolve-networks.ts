@@ -9,6 +9,8 @@ import { InputError } from '../errors.js';
 import { distributionSpec, partGrade } from './part-grade.js';
 import type { Design } from './schema.js';
 
+const pct = (x: number): string => `${Number((x * 100).toPrecision(6))} %`;
+
 export interface ResolvedNetworks {
   networks: NetworkSpec[];
   /** Member designator → its network's designator. */
@@ -47,6 +49,7 @@ export function resolveNetworks(design: Design, spec: SupplySpec): ResolvedNetwo
       if (network.distribution) r.distribution = network.distribution;
       else delete r.distribution;
     }
+    notes.push(`${name} (${n.members.join(', ')}): bought as one network, ±${pct(n.tolerance)} absolute and ±${pct(n.ratio)} ratio between any two members; \`grades\` leaves its members at these figures.`);
     networks.push(network);
   }
   return { networks, memberOf, notes };

@@ -151,6 +151,7 @@ export function resolveDesign(design: Design): ResolvedDesign {
     if (!network) continue;
     part.tolerance = network.tolerance;
     part.tcrPerK = network.tcrPerK ?? part.tcrPerK;
+    part.network = network.name;
     part.role = `${part.role}; in network ${network.name} (${network.members.join(', ')}), ratio ±${formatPercent(network.ratio)}`;
   }
   const bom = bomParts.map(bomLine);
@@ -198,7 +199,13 @@ export function resolveDesign(design: Design): ResolvedDesign {
  * they are held exact here: the same extreme, from far fewer vertices (2^14 rather than 2^19 for the charger example).
  */
 function worstShuntLoss(spec: SupplySpec): number {
-  const { divider: _divider, ...senseOnly } = spec;
+  const { divider, ...senseOnly }: SupplySpec = spec;
+  // A network keeps its sense-path members; one left alone is its own band (its ResistorSpec carries the network's
+  // tolerance and TCR, resolve-networks.ts), which is exactly the set of values a single member can take.
+  const dividerNames = new Set(divider ? [...divider.top.resistors, ...divider.bottom.resistors].map((r) => r.name) : []);
+  const networks = (spec.networks ?? []).map((n) => ({ ...n, members: n.members.filter((m) => !dividerNames.has(m)) })).filter((n) => n.members.length >= 2);
+  if (networks.length > 0) senseOnly.networks = networks;
+  else delete senseOnly.networks;
   return worstCase(buildSupplyModel(senseOnly)).find((w) => w.name === 'shuntLoss')!.max;
 }
 

@@ -43,6 +43,8 @@ export interface DividerRequest {
   biasRatioFixed?: boolean | undefined;
   /** Relative tolerance of each resistor; undefined: the series' commonly sold tolerance. */
   tolerance?: number | undefined;
+  /** Every resistor of a fixed divider in one network with this ratio tolerance (a fraction ≤ tolerance). */
+  ratioTolerance?: number | undefined;
   vrefTolerance: number;
   /** Largest acceptable |error| of a fixed output, as a fraction; undefined: the resistor tolerance. */
   maxError?: number | undefined;
@@ -72,6 +74,8 @@ export interface DividerSettings {
   ifb: number;
   tolerance: number;
   toleranceSource: string;
+  /** The resistors' ratio tolerance when they are one network (worst case: shared × own corners). */
+  ratioTolerance?: number;
   vrefTolerance: number;
   maxError: number;
   sources: string[];
@@ -166,6 +170,13 @@ export function pickDivider(request: DividerRequest): DividerResult {
     sources: allowed.sources,
     window: { lo: window.lo, hi: window.hi, middle: window.middle },
   };
+  if (request.ratioTolerance !== undefined) {
+    if (request.pot) throw new InputError('--ratio-tol', 'a network is offered for a fixed divider only', 'no --ratio-tol with --pot');
+    if (!(request.ratioTolerance <= tolerance)) {
+      throw new InputError('--ratio-tol', `${formatPercent(request.ratioTolerance)} is wider than the resistors' ${formatPercent(tolerance)} absolute tolerance`, `a ratio tolerance at most --tolerance (${formatPercent(tolerance)})`);
+    }
+    settings.ratioTolerance = request.ratioTolerance;
+  }
   return request.pot
     ? pickAdjustable(request, request.pot, settings, allowed, window)
     : pickFixed(request, settings, allowed, window);
@@ -188,6 +199,7 @@ function pickFixed(request: DividerRequest, settings: DividerSettings, allowed: 
     ifb,
     tolerance: settings.tolerance,
     vrefTolerance: settings.vrefTolerance,
+    ratioTolerance: settings.ratioTolerance,
     ...sourceLookup(allowed),
   };
   const all = ranked.map((r) => describeFixed(r.item.top, r.item.bottom, context));

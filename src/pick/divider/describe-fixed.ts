@@ -2,6 +2,7 @@
 // the divider current, each resistor's dissipation and a quick worst-case output range.
 import { cornerExtremes } from '../../analysis/corners.js';
 import { dividerBiasShift, dividerCurrent, dividerVout } from '../../circuits/divider.js';
+import { networkBands } from '../../tolerance/network-bands.js';
 import { legOhms, type Leg, type LegKind } from './legs.js';
 
 export interface DividerPart {
@@ -42,10 +43,16 @@ export interface DescribeContext {
   vrefTolerance: number;
   seriesOf: (ohms: number) => string;
   seriesRankOf: (ohms: number) => number;
+  /**
+   * Every divider resistor in one network with this ratio (matching) tolerance, a fraction, and `tolerance` as its
+   * absolute tolerance: the worst case takes the corners of the network's shared term × each part's own term
+   * (src/tolerance/network-bands.ts). Absent: each resistor on its own at ±tolerance.
+   */
+  ratioTolerance?: number | undefined;
 }
 
 export function describeFixed(top: Leg, bottom: Leg, context: DescribeContext): DividerCandidate {
-  const { vref, target, ifb, tolerance, vrefTolerance } = context;
+  const { vref, target, ifb } = context;
   const vout = dividerVout(vref, top.ohms, bottom.ohms, ifb);
   const topCurrent = (vout - vref) / top.ohms;
   const bottomCurrent = vref / bottom.ohms;
@@ -55,15 +62,7 @@ export function describeFixed(top: Leg, bottom: Leg, context: DescribeContext): 
   ].map((p) => ({ ...p, series: context.seriesOf(p.ohms) }));
   const rarest = parts.reduce((a, b) => (context.seriesRankOf(b.ohms) > context.seriesRankOf(a.ohms) ? b : a));
 
-  // Worst case: x = [Vref, top parts…, bottom parts…], each at ±its tolerance.
-  const nominal = [vref, ...top.parts, ...bottom.parts];
-  const relative = [vrefTolerance, ...top.parts.map(() => tolerance), ...bottom.parts.map(() => tolerance)];
-  const lo = nominal.map((x, i) => x * (1 - relative[i]!));
-  const hi = nominal.map((x, i) => x * (1 + relative[i]!));
-  const nt = top.parts.length;
-  const legValue = (leg: Leg, x: Float64Array, at: number): number =>
-    leg.parts.length === 1 ? x[at]! : legOhms(leg.kind, x[at]!, x[at + 1]!);
-  const extremes = cornerExtremes((x) => dividerVout(x[0]!, legValue(top, x, 1), legValue(bottom, x, 1 + nt), ifb), lo, hi);
+  const extremes = context.ratioTolerance === undefined ? looseExtremes(top, bottom, context) : networkExtremes(top, bottom, context, context.ratioTolerance);
 
   return {
     top: top.ohms,
@@ -87,4 +86,31 @@ function legParts(leg: 'top' | 'bottom', l: Leg, current: number, voltage: numbe
     ohms,
     powerW: l.kind === 'parallel' ? (voltage * voltage) / ohms : current * current * ohms,
   }));
+}
+
+const legValue = (leg: Leg, r: (k: number) => number, at: number): number => (leg.parts.length === 1 ? r(at) : legOhms(leg.kind, r(at), r(at + 1)));
+
+/** Worst case: x = [Vref, top parts…, bottom parts…], each at ±its tolerance. */
+function looseExtremes(top: Leg, bottom: Leg, context: DescribeContext): { min: number; max: number } {
+  const { vref, ifb, tolerance, vrefTolerance } = context;
+  const nominal = [vref, ...top.parts, ...bottom.parts];
+  const relative = [vrefTolerance, ...top.parts.map(() => tolerance), ...bottom.parts.map(() => tolerance)];
+  const lo = nominal.map((x, i) => x * (1 - relative[i]!));
+  const hi = nominal.map((x, i) => x * (1 + relative[i]!));
+  const nt = top.parts.length;
+  return cornerExtremes((x) => dividerVout(x[0]!, legValue(top, (k) => x[k]!, 1), legValue(bottom, (k) => x[k]!, 1 + nt), ifb), lo, hi);
+}
+
+/** Worst case with the resistors one network: x = [Vref, s, m for each part…], part k = R_k·(1 + s)·(1 + m_k). */
+function networkExtremes(top: Leg, bottom: Leg, context: DescribeContext, ratio: number): { min: number; max: number } {
+  const { vref, ifb, tolerance, vrefTolerance } = context;
+  const bands = networkBands({ tolerance, ratio, tcrPerK: 0, trackingPerK: 0 });
+  const parts = [...top.parts, ...bottom.parts];
+  const lo = [vref * (1 - vrefTolerance), -bands.shared, ...parts.map(() => -bands.mismatch)];
+  const hi = [vref * (1 + vrefTolerance), bands.shared, ...parts.map(() => bands.mismatch)];
+  const nt = top.parts.length;
+  return cornerExtremes((x) => {
+    const r = (k: number): number => parts[k]! * (1 + x[1]!) * (1 + x[2 + k]!);
+    return dividerVout(x[0]!, legValue(top, r, 0), legValue(bottom, r, nt), ifb);
+  }, lo, hi);
 }
