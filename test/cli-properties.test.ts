@@ -97,6 +97,7 @@ function tooSlow(option: string, value: string): boolean {
   const n = Number(value.trim());
   if (option === '--trials' || option === '--search-trials') return value.trim() === 'auto' || (Number.isFinite(n) && n > 5000);
   if (option === '--workers') return Number.isFinite(n) && n > 2;
+  if (option === '--lots') return Number.isFinite(n) && n > 4; // K lots of 20000 units each
   return false;
 }
 

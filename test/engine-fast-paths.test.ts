@@ -18,6 +18,7 @@ import { fillPart, partFromUnit } from '../src/tolerance/sample.js';
 import { binnedFromUnit } from '../src/tolerance/distributions/binned.js';
 import { clampInPlace, inverseNormalCdf, normalCdf, normalQuantilesInPlace } from '../src/tolerance/distributions/normal.js';
 import { truncatedNormalFromUnit } from '../src/tolerance/distributions/truncated-normal.js';
+import { ALLOWANCE_NAMES } from '../src/tolerance/life-allowances.js';
 
 /** Uniforms from a chunk's stream, plus the edge values of inverseNormalCdf's regions (0, P_LOW, P_HIGH, 1 − 2⁻³²). */
 function uniforms(n: number, seed: string): Float64Array {
@@ -108,7 +109,18 @@ function resistorAt(v: (name: string) => number | undefined, name: string, dT: n
   const drift = v(`${name} drift`);
   const tcr = v(`${name} TCR`);
   if (drift !== undefined) r *= 1 + drift;
+  r = withAllowances(v, name, r);
   if (tcr !== undefined && withTcr) r *= 1 + tcr * dT;
+  return r;
+}
+
+/** r·Π(1 + d) over the part's named drift allowances (`${name} load life` …), in their order. */
+function withAllowances(v: (name: string) => number | undefined, name: string, value: number): number {
+  let r = value;
+  for (const allowance of ALLOWANCE_NAMES) {
+    const d = v(`${name} ${allowance}`);
+    if (d !== undefined) r *= 1 + d;
+  }
   return r;
 }
 
@@ -142,7 +154,7 @@ function referenceTrial(spec: SupplySpec, v: (name: string) => number | undefine
   const th = sense.threshold;
   let threshold: number;
   if (th.kind === 'fixed') {
-    threshold = v('Vth')!;
+    threshold = withAllowances(v, 'Vth', v('Vth')!);
     const tempco = v('Vth tempco');
     if (tempco !== undefined) threshold *= 1 + tempco * dT;
   } else {
@@ -213,12 +225,25 @@ const DIRECT_SEPARATE_REFERENCE: SupplySpec = {
   },
 };
 
+/** The benchmark design with drift allowances (life-allowances.ts) on a divider resistor, the self-heating shunt
+ * (its R25 includes them) and a fixed threshold, one with a normal drift. */
+const WITH_ALLOWANCES: SupplySpec = (() => {
+  const spec = structuredClone(BENCH_SUPPLY);
+  spec.divider.top.resistors[0].drift = 0.001;
+  spec.divider.top.resistors[0].allowances = [{ name: 'load life', band: 0.01 }, { name: 'soldering', band: 0.002, distribution: { kind: 'normal', k: 3 } }];
+  const sense = spec.sense!;
+  sense.shunt.allowances = [{ name: 'load life', band: 0.005 }, { name: 'damp heat', band: 0.003 }];
+  sense.threshold = { kind: 'fixed', nominal: 1.0, tolerance: 0.01, tempcoPerK: 50e-6, allowances: [{ name: 'damp heat', band: 0.002 }] };
+  return spec;
+})();
+
 describe('supply model: the block evaluation equals a plain per-trial reference, bit for bit', () => {
   const cases: Array<[string, SupplySpec]> = [
     ['noninv with self-heating (the benchmark design)', BENCH_SUPPLY],
     ['diff, high side, divided threshold from the regulator reference, parallel and series legs with a pot', DIFF_HIGH_SIDE],
     ['direct, threshold divided from its own reference, fixed temperature, shunt drift', DIRECT_SEPARATE_REFERENCE],
     ['divider only', { ...BENCH_SUPPLY, sense: undefined } as unknown as SupplySpec],
+    ['named drift allowances on resistors, the self-heating shunt and a fixed threshold', WITH_ALLOWANCES],
   ];
   for (const [name, spec] of cases) {
     it(name, () => {

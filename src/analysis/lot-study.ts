@@ -170,7 +170,12 @@ export async function lotStudy(spec: SupplySpec, options: LotStudyOptions): Prom
     `Reel-lot model: ${count} lots of ${trialsPerLot.toLocaleString('en-US')} units; parts of one value, tolerance and kind share a reel (${reels.map((r) => r.name).join(', ')}), whose lot offset is drawn uniformly within ±${Math.round(share * 100)} % of the band (common practice), and each unit draws within the remaining ±${Math.round((1 - share) * 100)} % about it.`,
     `Lot offsets from the stream seeded "${seed}:lots"; lot k's units from the engine seeded "${seed}:lot k" (the same for any worker count). Potentiometers, references, offsets and bias currents are drawn per unit.`,
     'Overall yield: every unit of every lot, with a Wilson interval over units (it does not allow for the lot-to-lot spread; the worst lot shows that).',
+    'Pooled over lots, each part spreads as its lot offset plus its unit draw (for a uniform part a trapezoid, narrower in σ than the whole band drawn uniformly), so the overall yield need not equal the main analysis\'s.',
   ];
+  const shared = reels.filter((r) => r.members.length > 1).map((r) => r.name);
+  if (shared.length > 0) {
+    notes.push(`${shared.join(', ')}: one reel each, so their lot offsets are equal and their ratio varies less than with independent parts; if assembly may mix reels, the main analysis (independent parts) is the figure to plan with.`);
+  }
   return {
     model: 'reel-lot',
     count,

@@ -88,7 +88,9 @@ Examples:
   $ trimfree spread examples/charger-2s-liion.json
   $ trimfree spread examples/charger-2s-liion.json --trials 1000000 --seed 7 --json
   $ trimfree spread examples/led-driver-highside.json --report led.html --samples led.csv --force
-  $ trimfree spread examples/charger-2s-liion.json --fail-under-yield 99.5%`,
+  $ trimfree spread examples/charger-2s-liion.json --fail-under-yield 99.5%
+  $ trimfree spread examples/charger-2s-liion.json --condition end-of-life
+  $ trimfree spread examples/led-driver-highside.json --lots 20`,
     )
     .action((file: string, options: SpreadCliOptions, command: Command) => run(file, options, command));
 }

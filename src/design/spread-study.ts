@@ -40,6 +40,7 @@ export async function runSpread(asResolved: ResolvedDesign, choice: AnalysisChoi
     try {
       const { count, share, trialsPerLot } = choice.lots;
       run.lots = await lotStudy(resolved.spec, { count, share, trialsPerLot, seed: choice.seed, ...(choice.workers !== undefined ? { workers: choice.workers } : {}), onLot: (done, all) => progress.update(done, all) });
+      if (resolved.lowEnd) run.lots.notes.push('Adjustable output: the lots are studied with the pot at the top of its travel.');
     } finally {
       progress.finish();
     }

@@ -16,6 +16,8 @@ const COMMON_NOTES = [
   'resistors: the default grade (10%, 5%, 2%, 1%, 0.5%, 0.25%, 0.1%, 0.05%, 0.02%, 0.01%), the grades `grades` compares (grades, default 5%, 1%, 0.5%, 0.1%), with per-designator overrides (RTOP, RBOT, RS, RF, RG, R1-R4, RT1, RT2).',
   'networks (optional): resistors bought as one network, e.g. { "RN1": { "members": ["R1", "R2", "R3", "R4"], "tolerance": "0.1%", "ratio": "0.05%", "tcr": "25ppm", "tracking": "5ppm" } }: the members share one draw and each has its own, so both the absolute and the ratio (matching) band hold; members take the network\'s figures, not the resistor grade.',
   'temperature: ambient range for TCRs and drifts. analysis: Monte Carlo trials ("auto" or a number) and seed. costs: relative cost per grade (defaults illustrative).',
+  'Drift: analysis.condition "as-built" (default) counts tolerances only; "end-of-life" (or --condition end-of-life) adds reference.drift and each part\'s drift allowances { loadLife, dampHeat, soldering } (resistors.drift, per part in overrides, current.shunt.drift, voltage.pot.drift, current.threshold.drift); a resistor without them takes its grade\'s defaults, common practice: replace with your datasheet.',
+  'Production spread: distribution per part (uniform, normal, triangular; "binned" with sortedOut for a grade sorted from wider production), reference.distribution, amplifier vosDistribution and biasDistribution; lots { count } (or spread --lots K) reports the worst lot\'s yield beside the overall.',
 ];
 
 const TEMPLATES: Record<StarterKind, DesignInput> = {
@@ -23,6 +25,7 @@ const TEMPLATES: Record<StarterKind, DesignInput> = {
     notes: [
       ...COMMON_NOTES,
       'CAUTION: a lithium cell\'s charge-voltage window comes from the cell datasheet. Check the worst-case maximum output against it and keep independent pack protection.',
+      'A charge voltage must hold for the charger\'s whole life: check it with `trimfree spread FILE --condition end-of-life` too, with reference.drift and the resistors\' drift from your datasheets.',
     ],
     application: 'charger',
     reference: { voltage: '1.25 V', tolerance: '0.5%', notes: 'Charger references are usually 0.5 % or better; the CV window needs it.' },

@@ -367,21 +367,21 @@ function scaledBy(v: Float64Array, d: Float64Array | null, c: Float64Array | nul
 function resistorColumn(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
   if (s.member !== undefined) return memberColumn(p, s.member, driftOf(p, s, n, scratch), dT, n, scratch.take());
   if (s.life.length === 0) return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
-  return scaledBy(p[s.value]!, lifeColumn(p, s, n, scratch), column(p, s.tcr), dT, n, scratch);
+  return scaledBy(atReference(p, s, dT, n, scratch), null, column(p, s.tcr), dT, n, scratch);
 }
 
-/** The slot's relative drift per trial: (1 + drift)·Π(1 + allowance) − 1, or the drift column alone without allowances. */
-function driftOf(p: Float64Array[], s: ResistorSlot, n: number, scratch: ScratchColumns): Float64Array | null {
-  return s.life.length === 0 ? column(p, s.drift) : lifeColumn(p, s, n, scratch);
-}
-
-function lifeColumn(p: Float64Array[], s: ResistorSlot, n: number, scratch: ScratchColumns): Float64Array {
+/**
+ * The resistor at 25 °C: R·(1 + drift)·Π(1 + allowance), multiplied left to right (the per-trial order), or the
+ * value with its drift alone without allowances.
+ */
+function atReference(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
+  if (s.life.length === 0) return scaledColumn(p, s.value, s.drift, NONE, dT, n, scratch);
   const out = scratch.take();
+  const v = p[s.value]!;
   const d = column(p, s.drift);
-  if (d === null) out.fill(1, 0, n);
-  else for (let j = 0; j < n; j++) out[j] = 1 + d[j]!;
+  if (d === null) out.set(v.subarray(0, n));
+  else for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + d[j]!);
   for (const index of s.life) multiplyOnePlus(out, p[index]!, n);
-  for (let j = 0; j < n; j++) out[j] = out[j]! - 1;
   return out;
 }
 
@@ -750,7 +750,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         g2: g[2] ?? dT,
         g3: g[3] ?? dT,
         shunt: resistorColumn(p, shunt, dT, n, scratch),
-        shunt25: selfHeating ? scaledBy(p[shunt.value]!, driftOf(p, shunt, n, scratch), null, dT, n, scratch) : dT,
+        shunt25: selfHeating ? atReference(p, shunt, dT, n, scratch) : dT,
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
       senseBlock(kind, commonMode, columns, theta, n, limitOut, lossOut, ampOut);
