@@ -157,6 +157,9 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['cmrr on a low-side topology', (d) => (d.current.amplifier.cmrr = '80 dB'), 'current.amplifier.cmrr', /CMRR applies to the diff topology only.*; accepted: topology "diff", or no amplifier\.cmrr/],
   ['cmrr bad notation', (d) => (d.current.amplifier.cmrr = '80 dBV'), 'current.amplifier.cmrr', /unexpected character 'V' at position 6 in '80 dBV'; accepted: a ratio in decibels such as 90 dB/],
   ['cmrr zero', (d) => (d.current.amplifier.cmrr = 0), 'current.amplifier.cmrr', /out of range.*; accepted: a ratio in decibels.*above 0 dB, at most 200 dB/],
+  ['shunt parasitic misspelt', (d) => (d.current.shunt.parasitc = { value: '2m', tolerance: '30%' }), 'current.shunt.parasitc', /did you mean 'parasitic'/],
+  ['shunt parasitic without its tolerance', (d) => (d.current.shunt.parasitic = { value: '2m' }), 'current.shunt.parasitic.tolerance', /missing required field; accepted: its tolerance/],
+  ['shunt parasitic, bad value', (d) => (d.current.shunt.parasitic = { value: '2mX', tolerance: '30%' }), 'current.shunt.parasitic.value', /unexpected character 'X'/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 

@@ -12,6 +12,7 @@ import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm, pars
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
 import { resistorSpec } from './resolve-divider.js';
+import { shuntParasiticNote, shuntParasiticSpec } from './shunt-parasitic.js';
 import { DESIGNATORS, type CurrentDesign, type CurrentSection } from './schema.js';
 
 /** Gain and threshold-divider resistor window when the file gives none (the `sense` command's default too). */
@@ -122,7 +123,9 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
       parts[DESIGNATORS.thresholdBottom] = c.threshold.bottom as number;
     }
   }
-  return { sense: senseSpec(design, parts, grades, lossLimit), parts, grades, ...(picked ? { picked } : {}), derating, notes };
+  const sense = senseSpec(design, parts, grades, lossLimit);
+  if (sense.shunt.parasitic) notes.push(shuntParasiticNote(sense.shunt.nominal, sense.shunt.parasitic));
+  return { sense, parts, grades, ...(picked ? { picked } : {}), derating, notes };
 }
 
 export function gainDesignators(topology: CurrentSection['topology']): string[] {
@@ -167,6 +170,7 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
     shunt.lossLimitFrom = 'current.shunt.maxLoss; no rating given';
   }
   if (c.shunt.thermalResistance !== undefined && c.shunt.thermalResistance > 0) shunt.thermalResistanceKPerW = c.shunt.thermalResistance;
+  if (c.shunt.parasitic) shunt.parasitic = shuntParasiticSpec(c.shunt.parasitic);
   shunt.distribution = distributionSpec(shuntGrade.distribution);
 
   const t = c.threshold;

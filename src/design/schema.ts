@@ -184,6 +184,14 @@ function checkTargetInside(window: WindowInput, target: number, ctx: z.core.$Ref
 }
 
 // ---- current limit ------------------------------------------------------------------------------------------------
+const shuntParasitic = z
+  .strictObject({
+    value: describe(resistance(), 'series resistance of the pads and traces the sense connections see, e.g. 2m'),
+    tolerance: describe(percent({ max: 1, text: '0 % to 100 %' }), 'its tolerance (copper geometry and solder vary widely: 30 % or more is common practice)'),
+    tcr: describe(ppmPerK(), 'its temperature coefficient (default 3930 ppm/K, annealed copper at 20 °C: IEC 60028, from memory)').optional(),
+  })
+  .meta({ description: 'parasitic series resistance of pads and traces in the sensed path (a common-practice concern: a few mΩ matter beside a 10 mΩ shunt); Kelvin (four-terminal) sensing removes most of it, so leave it out then' });
+
 const shunt = z
   .strictObject({
     value: autoOr(PARSERS.resistance, 'a shunt resistance: 50m, R050, 0.05'),
@@ -193,6 +201,7 @@ const shunt = z
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'shunt tolerance (default: the resistor grade)').optional(),
     tcr: describe(ppmPerK(), 'shunt TCR (default: the resistor grade\'s)').optional(),
     thermalResistance: describe(thermalResistance(), 'θ shunt to ambient, for self-heating θ·I²R (default 0)').optional(),
+    parasitic: shuntParasitic.optional(),
     candidates: z
       .array(z.union([z.string(), z.number()]))
       .max(MAX_SHUNT_CANDIDATES)

@@ -12,6 +12,7 @@ const COMMON_NOTES = [
   'reference: the voltage the regulator holds its feedback pin at, and its tolerance.',
   'voltage: the output set-point: target, spec window, the feedback divider ("auto" picks standard values), feedback-pin bias current.',
   'current: the current limit: target, window, topology (direct, noninv, diff), shunt, amplifier offsets, threshold, gain resistors.',
+  'current.shunt.parasitic { value, tolerance, tcr }: the pads and traces the amplifier sees in series with the shunt when it is not sensed with Kelvin (four-terminal) connections; a few mΩ matter beside a 10 mΩ shunt (common practice concern). Leave it out with Kelvin sensing.',
   'Bias currents: "20 nA" is exactly 20 nA, "±20 nA" or "10n±10n" a band, "0..20n" a range, "max 20 nA" anywhere in 0..20 nA.',
   'resistors: the default grade (10%, 5%, 2%, 1%, 0.5%, 0.25%, 0.1%, 0.05%, 0.02%, 0.01%), the grades `grades` compares (grades, default 5%, 1%, 0.5%, 0.1%), with per-designator overrides (RTOP, RBOT, RS, RF, RG, R1-R4, RT1, RT2).',
   'temperature: ambient range for TCRs and drifts. analysis: Monte Carlo trials ("auto" or a number) and seed. costs: relative cost per grade (defaults illustrative).',

@@ -92,6 +92,13 @@ export interface ShuntSpec extends ResistorSpec {
   lossLimitFrom?: string;
   /** Thermal resistance to ambient θ, K/W: enables self-heating θ·I²R at the limit. */
   thermalResistanceKPerW?: number;
+  /**
+   * Parasitic series resistance of pads and traces that the sense connections see (common practice concern; Kelvin
+   * sensing removes most of it): it adds to the shunt in the sensed resistance and in the loss at the limit, with
+   * its own tolerance and TCR (copper's, typically). With self-heating its loss is counted as heating the shunt
+   * body too (conservative); only the shunt's own value takes the shunt's TCR through that heat.
+   */
+  parasitic?: ResistorSpec;
 }
 
 export interface AmplifierSpec {
@@ -396,6 +403,12 @@ interface SenseColumns {
   alpha: Float64Array | null;
 }
 
+/** a + b per trial (the shunt and its parasitic series resistance). */
+function sumColumn(a: Float64Array, b: Float64Array, n: number, out: Float64Array): Float64Array {
+  for (let j = 0; j < n; j++) out[j] = a[j]! + b[j]!;
+  return out;
+}
+
 /** Threshold divided from a source: source·Rb/(Rt + Rb) per trial. */
 function dividedColumn(source: Float64Array, rt: Float64Array, rb: Float64Array, n: number, out: Float64Array): Float64Array {
   for (let j = 0; j < n; j++) out[j] = (source[j]! * rb[j]!) / (rt[j]! + rb[j]!);
@@ -576,6 +589,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
   const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
+  const parasitic = sense.shunt.parasitic ? addResistor(list, sense.shunt.parasitic, `${where}.shunt.parasitic`) : null;
+  if (parasitic) notes.push('The shunt\'s parasitic series resistance (pads, traces) adds to the sensed resistance and to shuntLoss; Kelvin sensing removes most of it (common practice).');
   const theta = sense.shunt.thermalResistanceKPerW ?? 0;
   checkFinite(theta, `${where}.shunt.thermalResistanceKPerW`, 'a thermal resistance ≥ 0 K/W');
   const alphaMax = sense.shunt.tcrPerK ?? 0;
@@ -680,7 +695,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         g1: g[1] ?? dT,
         g2: g[2] ?? dT,
         g3: g[3] ?? dT,
-        shunt: resistorColumn(p, shunt, dT, n, scratch),
+        shunt: parasitic === null ? resistorColumn(p, shunt, dT, n, scratch) : sumColumn(resistorColumn(p, shunt, dT, n, scratch), resistorColumn(p, parasitic, dT, n, scratch), n, scratch.take()),
         shunt25: selfHeating ? scaledColumn(p, shunt.value, shunt.drift, NONE, dT, n, scratch) : dT,
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
