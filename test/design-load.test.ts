@@ -160,6 +160,10 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['shunt parasitic misspelt', (d) => (d.current.shunt.parasitc = { value: '2m', tolerance: '30%' }), 'current.shunt.parasitc', /did you mean 'parasitic'/],
   ['shunt parasitic without its tolerance', (d) => (d.current.shunt.parasitic = { value: '2m' }), 'current.shunt.parasitic.tolerance', /missing required field; accepted: its tolerance/],
   ['shunt parasitic, bad value', (d) => (d.current.shunt.parasitic = { value: '2mX', tolerance: '30%' }), 'current.shunt.parasitic.value', /unexpected character 'X'/],
+  ['common mode range inverted', (d) => { d.current.topology = 'diff'; d.current.gain = { r1: '1k', r2: '9k', r3: '1k', r4: '9k' }; d.current.commonMode = '21..17 V'; }, 'current.commonMode', /inverted.*; accepted: a voltage \(19 V\), a range over which it spreads from unit to unit/],
+  ['common mode band unreadable', (d) => { d.current.topology = 'diff'; d.current.gain = { r1: '1k', r2: '9k', r3: '1k', r4: '9k' }; d.current.commonMode = '19 V ±'; }, 'current.commonMode', /cannot read the band '19 V ±'.*; accepted: .*19 V ±2 V/],
+  ['common mode distribution without a range', (d) => { d.current.topology = 'diff'; d.current.gain = { r1: '1k', r2: '9k', r3: '1k', r4: '9k' }; d.current.commonMode = '19 V'; d.current.commonModeDistribution = 'normal'; }, 'current.commonModeDistribution', /needs a commonMode range/],
+  ['common mode distribution misspelt', (d) => (d.current.commonModeDistrib = 'normal'), 'current.commonModeDistrib', /did you mean 'commonModeDistribution'/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 

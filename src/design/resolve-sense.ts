@@ -92,7 +92,8 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
       amplifierOffset: amp?.vos ?? 0,
       compareOffset: c.compareOffset ?? 0,
       biasCurrent: amp?.biasCurrent ?? { nominal: 0, lo: 0, hi: 0, form: 'typical' },
-      commonMode: c.commonMode ?? 0,
+      // A common mode that spreads: the picker's quick worst case takes the end farthest from 0 V (its error grows with it).
+      commonMode: pickerCommonMode(c),
     };
     if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
     const pick = mapPickerError(() => pickSense(request), SENSE_OPTION_FIELDS);
@@ -124,6 +125,10 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
     }
   }
   const sense = senseSpec(design, parts, grades, lossLimit);
+  if (sense.topology === 'diff' && sense.commonModeBand) {
+    const [lo, hi] = c.commonMode!;
+    notes.push(`Common-mode voltage (current.commonMode) spreads over ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)} from unit to unit: drawn once per unit as the part Vcm (${c.commonModeDistribution ?? 'uniform'}), both ends in the worst case; the BOM's powers${picked ? ' and the picker\'s ranking' : ''} take ${formatEngineering(pickerCommonMode(c), 'V', 4)}.`);
+  }
   if (sense.shunt.parasitic) notes.push(shuntParasiticNote(sense.shunt.nominal, sense.shunt.parasitic));
   return { sense, parts, grades, ...(picked ? { picked } : {}), derating, notes };
 }
@@ -189,7 +194,16 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
   if (a.offsetCurrent) amplifier.offsetCurrentMax = a.offsetCurrent;
   if (a.cmrr !== undefined && c.topology === 'diff') amplifier.cmrrDb = a.cmrr;
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
-  return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
+  const [cmLo, cmHi] = c.commonMode ?? [0, 0];
+  const diff: SenseSpec = { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: (cmLo + cmHi) / 2, amplifier };
+  if (cmHi > cmLo) diff.commonModeBand = { plusMinus: (cmHi - cmLo) / 2, distribution: distributionSpec(c.commonModeDistribution ?? 'uniform') };
+  return diff;
+}
+
+/** The common mode the sense picker ranks at: the one voltage, or the end of its range farthest from 0 V. */
+export function pickerCommonMode(c: CurrentSection): number {
+  const [lo, hi] = c.commonMode ?? [0, 0];
+  return Math.abs(hi) >= Math.abs(lo) ? hi : lo;
 }
 
 /** The sense picker's option names and the design-file fields they come from. */

@@ -13,7 +13,7 @@ import type { OutputCautionLimits } from './output-cautions.js';
 import { windowBounds } from './fields.js';
 import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
-import { resolveSense } from './resolve-sense.js';
+import { pickerCommonMode, resolveSense } from './resolve-sense.js';
 import { DESIGNATORS, hasCurrentLoop, hasVoltageLoop, type CurrentDesign, type Design, type VoltageDesign } from './schema.js';
 
 export interface ResolvedDesign {
@@ -283,7 +283,8 @@ function senseBomParts(design: CurrentDesign, parts: Record<string, number>, gra
     add(DESIGNATORS.ground, 'amplifier gain to ground (noninv)', i);
   }
   if (c.topology === 'diff') {
-    const i = diffBranchCurrents({ r1: parts['R1']!, r3: parts['R3']!, r4: parts['R4']! }, parts[DESIGNATORS.shunt]!, c.commonMode ?? 0, limit);
+    // A common mode that spreads: the branch currents at the end farthest from 0 V, the most power.
+    const i = diffBranchCurrents({ r1: parts['R1']!, r3: parts['R3']!, r4: parts['R4']! }, parts[DESIGNATORS.shunt]!, pickerCommonMode(c), limit);
     add('R1', 'difference amplifier, load side to − input', i.r1r2);
     add('R2', 'difference amplifier, − input to output', i.r1r2);
     add('R3', 'difference amplifier, supply side to + input', i.r3r4);

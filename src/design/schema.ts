@@ -25,6 +25,7 @@ import {
 import { GRADE_NAMES } from './grades.js';
 import { dividerLeg } from './divider-leg.js';
 import { decibels } from './decibel-field.js';
+import { commonModeField } from './common-mode-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 
@@ -275,7 +276,11 @@ const currentSection = z
     gain: z.union([z.literal('auto'), gainValues]).meta({ description: '"auto" or the gain resistors' }).optional(),
     gainRange: rangeField(PARSERS.resistance, 'gain-resistor range for "auto", e.g. 1k..100k').optional(),
     gainSeries: seriesName.optional(),
-    commonMode: describe(voltage(), 'diff: voltage of the shunt\'s load-side node (0 low-side, the rail high-side; default 0)').optional(),
+    commonMode: describe(commonModeField(), 'diff: voltage of the shunt\'s load-side node (0 low-side, the rail high-side; default 0), one value or the range it spreads over from unit to unit').optional(),
+    commonModeDistribution: z
+      .enum(DISTRIBUTIONS)
+      .meta({ description: `how a commonMode range spreads from unit to unit: ${DISTRIBUTIONS.join(', ')} (default uniform, conservative; normal: the range is ±3σ)` })
+      .optional(),
     notes: notes.optional(),
   })
   .superRefine((c, ctx) => {
@@ -302,7 +307,10 @@ const currentSection = z
     if (c.amplifier?.cmrr !== undefined && c.topology !== 'diff') {
       issue(['amplifier', 'cmrr'], `the amplifier's CMRR applies to the diff topology only (the ${c.topology} stage's inputs sit near ground)`, 'topology "diff", or no amplifier.cmrr');
     }
-    if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
+    if (c.commonModeDistribution !== undefined && (c.commonMode === undefined || c.commonMode[0] === c.commonMode[1])) {
+      issue(['commonModeDistribution'], 'a distribution needs a commonMode range to spread over', 'commonMode as a range such as "17..21 V", or no commonModeDistribution');
+    }
+    if (c.commonMode !== undefined && (c.commonMode[0] !== 0 || c.commonMode[1] !== 0) && c.topology !== 'diff') {
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
     }
   })

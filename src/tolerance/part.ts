@@ -36,7 +36,9 @@ export type PartKind =
   /** A temperature coefficient whose sign and size within ±limit are unknown for a given unit (TCR, tempco). */
   | 'temperature coefficient'
   /** A long-term drift allowance, a relative change within ±limit. */
-  | 'drift';
+  | 'drift'
+  /** A circuit condition that differs from unit to unit, e.g. the common-mode voltage an LED string sets. */
+  | 'operating point';
 
 export interface Part {
   /** Name shown in reports: a designator (R1, RS) or a quantity (Vref, Vos amp, T ambient, R1 TCR). */
@@ -81,6 +83,7 @@ const DEFAULT_UNITS: Record<PartKind, string> = {
   temperature: '°C',
   'temperature coefficient': '1/K',
   drift: '',
+  'operating point': '',
 };
 
 export interface RelativePartInput {

@@ -148,6 +148,11 @@ export type SenseSpec =
       r4: ResistorSpec;
       /** Voltage of the shunt's load-side node: 0 V low-side, the rail high-side. */
       commonModeV: number;
+      /**
+       * When the common-mode voltage spreads from unit to unit (an LED string's forward voltage): its band about
+       * commonModeV, drawn once per unit (uniform unless given) as the part 'Vcm'; worst case takes its ends.
+       */
+      commonModeBand?: { plusMinus: number; distribution?: DistributionSpec };
       amplifier: AmplifierSpec;
     });
 
@@ -389,6 +394,8 @@ interface SenseColumns {
   bias: Float64Array | null;
   /** The amplifier's offset current Ios, or null. */
   ios: Float64Array | null;
+  /** The common-mode voltage per unit when it spreads, else null (the scalar commonMode holds). */
+  commonMode: Float64Array | null;
   /** The amplifier's common-mode error e (±1/CMRR), or null. */
   cmrr: Float64Array | null;
   g0: Float64Array;
@@ -438,6 +445,7 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
  */
 function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
   const { threshold, compare, offset, bias, ios, cmrr, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
+  const cmColumn = c.commonMode;
   const noninv = kind === NONINV;
   const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
@@ -450,7 +458,7 @@ function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: nu
       r2: diff ? g1[j]! : 0,
       r3: diff ? g2[j]! : 0,
       r4: diff ? g3[j]! : 0,
-      commonMode,
+      commonMode: cmColumn === null ? commonMode : cmColumn[j]!,
       threshold: threshold[j]!,
       amplifierOffset: offset === null ? 0 : offset[j]!,
       biasCurrent: offset === null || bias === null ? 0 : bias[j]!,
@@ -629,6 +637,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   let ampBias = NONE;
   let ampIos = NONE;
   let ampCmrr = NONE;
+  let commonModeSlot = NONE;
   let railV: number | undefined;
   let headroomV: number | undefined;
   const gain: ResistorSlot[] = [];
@@ -663,6 +672,13 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
       );
       if (!Number.isFinite(sense.commonModeV)) throw new InputError(`${where}.commonModeV`, `${sense.commonModeV} is not a voltage`, 'the load-side node voltage in V (0 for low-side)');
       commonMode = sense.commonModeV;
+      const band = sense.commonModeBand;
+      if (band && band.plusMinus > 0) {
+        checkFinite(band.plusMinus, `${where}.commonModeBand.plusMinus`, 'a half-width ≥ 0 V');
+        const input: Parameters<typeof partFromBound>[0] = { name: 'Vcm', kind: 'operating point', nominal: commonMode, plusMinus: band.plusMinus, unit: 'V' };
+        if (band.distribution) input.distribution = band.distribution;
+        commonModeSlot = list.add(partFromBound(input));
+      }
     }
   } else if (sense.topology !== 'direct') {
     throw new InputError(`${where}.topology`, `"${String((sense as { topology: unknown }).topology)}"`, 'direct, noninv or diff');
@@ -690,6 +706,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         offset,
         bias: column(p, ampBias),
         ios: column(p, ampIos),
+        commonMode: column(p, commonModeSlot),
         cmrr: column(p, ampCmrr),
         g0: g[0] ?? dT,
         g1: g[1] ?? dT,
