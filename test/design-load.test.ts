@@ -164,6 +164,11 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['common mode band unreadable', (d) => { d.current.topology = 'diff'; d.current.gain = { r1: '1k', r2: '9k', r3: '1k', r4: '9k' }; d.current.commonMode = '19 V ±'; }, 'current.commonMode', /cannot read the band '19 V ±'.*; accepted: .*19 V ±2 V/],
   ['common mode distribution without a range', (d) => { d.current.topology = 'diff'; d.current.gain = { r1: '1k', r2: '9k', r3: '1k', r4: '9k' }; d.current.commonMode = '19 V'; d.current.commonModeDistribution = 'normal'; }, 'current.commonModeDistribution', /needs a commonMode range/],
   ['common mode distribution misspelt', (d) => (d.current.commonModeDistrib = 'normal'), 'current.commonModeDistrib', /did you mean 'commonModeDistribution'/],
+  ['threshold tempco misspelt', (d) => (d.current.threshold.tempc = '50ppm'), 'current.threshold.tempc', /did you mean 'tempco'/],
+  ['threshold without a tolerance', (d) => delete d.current.threshold.tolerance, 'current.threshold.tolerance', /missing required field; accepted: a percentage/],
+  ['regulator threshold with its own tolerance', (d) => (d.current.threshold = { reference: 'regulator', tolerance: '1%', top: '1k', bottom: '4k' }), 'current.threshold.tolerance', /takes that reference's tolerance.*; accepted: no threshold\.tolerance with reference "regulator"/],
+  ['regulator threshold in a current-only design', (d) => { delete d.voltage; delete d.reference; d.current.threshold = { reference: 'regulator', top: '1k', bottom: '4k' }; }, 'current.threshold.reference', /fed from the regulator reference, but the design has no reference section/],
+  ['regulator threshold above the reference', (d) => { d.current.gain = 'auto'; d.current.threshold = { reference: 'regulator', voltage: '2 V', top: 'auto', bottom: 'auto' }; }, 'current.threshold.voltage', /not below the regulator reference 1\.25 V/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 

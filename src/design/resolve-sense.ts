@@ -35,11 +35,26 @@ function needsPicker(c: CurrentSection): boolean {
   return c.shunt.value === 'auto' || c.gain === 'auto' || c.threshold.top === 'auto';
 }
 
+/**
+ * The reference a threshold divider is fed from: its own (threshold.reference a voltage, with threshold.tolerance and
+ * tempco) or the regulator's (reference "regulator": the design's reference section, one part for both loops).
+ */
+export function thresholdReference(design: CurrentDesign): { volts: number; tolerance: number; tempcoPerK: number; shared: boolean } | null {
+  const t = design.current.threshold;
+  if (t.reference === undefined) return null;
+  if (t.reference === 'regulator') {
+    const r = design.reference!; // the schema requires it with reference "regulator"
+    return { volts: r.voltage, tolerance: r.tolerance, tempcoPerK: r.tempco ?? 0, shared: true };
+  }
+  return { volts: t.reference, tolerance: t.tolerance!, tempcoPerK: t.tempco ?? 0, shared: false };
+}
+
 /** The threshold voltage the design aims at (fixed, or the divider's output or target). */
-function thresholdVolts(c: CurrentSection): number | undefined {
-  const t = c.threshold;
-  if (t.reference !== undefined && typeof t.top === 'number' && typeof t.bottom === 'number') {
-    return thresholdFromReference(t.reference, t.top, t.bottom);
+function thresholdVolts(design: CurrentDesign): number | undefined {
+  const t = design.current.threshold;
+  const ref = thresholdReference(design);
+  if (ref && typeof t.top === 'number' && typeof t.bottom === 'number') {
+    return thresholdFromReference(ref.volts, t.top, t.bottom);
   }
   return t.voltage;
 }
@@ -69,12 +84,13 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
     const gainGrade = grades[firstGain] ?? grades[DESIGNATORS.shunt]!;
     const range = c.gainRange ?? DEFAULT_GAIN_RANGE;
     const series = c.gainSeries ?? gainGrade.series;
-    const volts = thresholdVolts(c);
+    const volts = thresholdVolts(design);
     const t = c.threshold;
+    const ref = thresholdReference(design);
     const threshold: SenseRequest['threshold'] =
-      t.reference !== undefined && t.top === 'auto'
-        ? { kind: 'divider', reference: t.reference, tolerance: t.tolerance, ...(volts !== undefined ? { volts } : {}) }
-        : { kind: 'fixed', volts: volts!, tolerance: t.tolerance };
+      ref && t.top === 'auto'
+        ? { kind: 'divider', reference: ref.volts, tolerance: ref.tolerance, ...(volts !== undefined ? { volts } : {}) }
+        : { kind: 'fixed', volts: volts!, tolerance: ref ? ref.tolerance : t.tolerance! };
     const amp = c.amplifier;
     const request: SenseRequest = {
       limit: c.target,
@@ -179,10 +195,14 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
   shunt.distribution = distributionSpec(shuntGrade.distribution);
 
   const t = c.threshold;
-  const threshold: ThresholdSpec =
-    t.reference !== undefined
-      ? { kind: 'divided', source: { name: 'Vref threshold', nominal: t.reference, tolerance: t.tolerance }, top: r(DESIGNATORS.thresholdTop), bottom: r(DESIGNATORS.thresholdBottom) }
-      : { kind: 'fixed', nominal: t.voltage!, tolerance: t.tolerance };
+  const ref = thresholdReference(design);
+  let threshold: ThresholdSpec;
+  if (ref) {
+    const source: ThresholdSpec & { kind: 'divided' } extends { source: infer S } ? S : never = ref.shared ? 'regulator-reference' : { name: 'Vref threshold', nominal: ref.volts, tolerance: ref.tolerance, ...(ref.tempcoPerK > 0 ? { tempcoPerK: ref.tempcoPerK } : {}) };
+    threshold = { kind: 'divided', source, top: r(DESIGNATORS.thresholdTop), bottom: r(DESIGNATORS.thresholdBottom) };
+  } else {
+    threshold = { kind: 'fixed', nominal: t.voltage!, tolerance: t.tolerance!, ...(t.tempco ? { tempcoPerK: t.tempco } : {}) };
+  }
 
   const common = { shunt, threshold, limitTarget: c.target, ...(c.compareOffset ? { compareOffset: { nominal: 0, plusMinus: c.compareOffset } } : {}) };
   if (c.topology === 'direct') return { ...common, topology: 'direct' };

@@ -13,7 +13,7 @@ import type { OutputCautionLimits } from './output-cautions.js';
 import { windowBounds } from './fields.js';
 import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
-import { pickerCommonMode, resolveSense } from './resolve-sense.js';
+import { pickerCommonMode, resolveSense, thresholdReference } from './resolve-sense.js';
 import { DESIGNATORS, hasCurrentLoop, hasVoltageLoop, type CurrentDesign, type Design, type VoltageDesign } from './schema.js';
 
 export interface ResolvedDesign {
@@ -75,8 +75,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (ib && cDesign!.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   let reference: SupplySpec['reference'] | undefined;
-  if (vDesign) {
-    const r = vDesign.reference;
+  // The regulator's reference: the divider's, and the threshold divider's too when it is fed from it ("regulator").
+  if (design.reference && (vDesign || cDesign?.current.threshold.reference === 'regulator')) {
+    const r = design.reference;
     reference = { name: 'Vref', nominal: r.voltage, tolerance: r.tolerance };
     if (r.drift) reference.drift = r.drift;
     if (r.tempco) reference.tempcoPerK = r.tempco;
@@ -290,8 +291,9 @@ function senseBomParts(design: CurrentDesign, parts: Record<string, number>, gra
     add('R3', 'difference amplifier, supply side to + input', i.r3r4);
     add('R4', 'difference amplifier, + input to ground', i.r3r4);
   }
-  if (c.threshold.reference !== undefined) {
-    const i = c.threshold.reference / (parts[DESIGNATORS.thresholdTop]! + parts[DESIGNATORS.thresholdBottom]!);
+  const thresholdRef = thresholdReference(design);
+  if (thresholdRef) {
+    const i = thresholdRef.volts / (parts[DESIGNATORS.thresholdTop]! + parts[DESIGNATORS.thresholdBottom]!);
     add(DESIGNATORS.thresholdTop, 'threshold divider, top', i, { powerAt: 'from the threshold reference' });
     add(DESIGNATORS.thresholdBottom, 'threshold divider, bottom', i, { powerAt: 'from the threshold reference' });
   }

@@ -226,14 +226,24 @@ const amplifier = z
 const threshold = z
   .strictObject({
     voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'threshold voltage (fixed), or the target for an "auto" threshold divider').optional(),
-    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance of the fixed threshold, or of the reference it is derived from'),
-    reference: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'reference the threshold divider RT1/RT2 is fed from').optional(),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance of the fixed threshold, or of the reference it is derived from (not with reference "regulator": the regulator reference\'s own applies)').optional(),
+    tempco: describe(ppmPerK(), 'temperature coefficient bound of the fixed threshold, or of the reference it is derived from (default 0; not with reference "regulator")').optional(),
+    reference: z
+      .union([z.literal('regulator'), voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' })])
+      .meta({ description: 'reference the threshold divider RT1/RT2 is fed from: its own, a voltage such as "2.5 V" (its own part, Vref threshold, with tolerance and tempco), or "regulator" (the design\'s reference section: one Vref shared by both loops)' })
+      .optional(),
     top: autoOr(PARSERS.resistance, 'RT1, reference to threshold node').optional(),
     bottom: autoOr(PARSERS.resistance, 'RT2, threshold node to ground').optional(),
   })
   .superRefine((t, ctx) => {
     const issue = (path: string, message: string, accepted: string) =>
       ctx.issues.push({ code: 'custom', path: [path], input: undefined, message, params: { accepted } });
+    if (t.reference === 'regulator') {
+      if (t.tolerance !== undefined) issue('tolerance', 'a threshold fed from the regulator reference takes that reference\'s tolerance', 'no threshold.tolerance with reference "regulator" (reference.tolerance applies)');
+      if (t.tempco !== undefined) issue('tempco', 'a threshold fed from the regulator reference takes that reference\'s tempco', 'no threshold.tempco with reference "regulator" (reference.tempco applies)');
+    } else if (t.tolerance === undefined) {
+      issue('tolerance', 'missing required field', 'a percentage: 1%, 0.5 %, or a number of percent');
+    }
     if (t.reference === undefined) {
       if (t.voltage === undefined) issue('voltage', 'missing required field', 'a threshold voltage such as "0.8 V", or reference with top and bottom');
       if (t.top !== undefined || t.bottom !== undefined) issue(t.top !== undefined ? 'top' : 'bottom', 'a threshold divider needs the reference it is fed from', 'reference: "2.5 V" with top and bottom');
@@ -247,11 +257,11 @@ const threshold = z
     if ((t.top === 'auto' || t.bottom === 'auto') && t.voltage === undefined) {
       issue('voltage', 'an "auto" threshold divider needs a target threshold voltage', 'voltage: "0.8 V" below the reference');
     }
-    if (t.voltage !== undefined && t.voltage >= t.reference) {
+    if (t.reference !== 'regulator' && t.voltage !== undefined && t.voltage >= t.reference) {
       issue('voltage', `the threshold ${t.voltage} V is not below the reference ${t.reference} V it is divided from`, 'a threshold below the reference');
     }
   })
-  .meta({ description: 'threshold the amplified shunt signal is compared with: fixed { voltage, tolerance } or from a reference { reference, tolerance, top, bottom }' });
+  .meta({ description: 'threshold the amplified shunt signal is compared with: fixed { voltage, tolerance, tempco } or from a reference { reference, tolerance, tempco, top, bottom }, the reference its own or the regulator\'s ("regulator")' });
 
 const gainValues = z
   .strictObject({
@@ -402,6 +412,17 @@ export const DesignSchema = z
     if (d.voltage !== undefined && d.reference === undefined) {
       ctx.issues.push({ code: 'custom', path: ['reference'], input: undefined, message: 'missing required field: the voltage section needs the reference the divider sets the output from', params: { accepted: 'reference: { voltage: "1.25 V", tolerance: "1%" }' } });
       return;
+    }
+    const th = d.current?.threshold;
+    if (th?.reference === 'regulator') {
+      if (d.reference === undefined) {
+        ctx.issues.push({ code: 'custom', path: ['current', 'threshold', 'reference'], input: 'regulator', message: 'the threshold is fed from the regulator reference, but the design has no reference section', params: { accepted: 'a reference voltage of its own such as "2.5 V" with threshold.tolerance, or a reference section' } });
+        return;
+      }
+      if (th.voltage !== undefined && th.voltage >= d.reference.voltage) {
+        ctx.issues.push({ code: 'custom', path: ['current', 'threshold', 'voltage'], input: th.voltage, message: `the threshold ${th.voltage} V is not below the regulator reference ${d.reference.voltage} V it is divided from`, params: { accepted: 'a threshold below the reference' } });
+        return;
+      }
     }
     const divider = d.voltage?.divider;
     const twoPartLegs = divider === undefined ? [] : divider === 'auto' ? (d.voltage!.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [
