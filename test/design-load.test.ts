@@ -169,6 +169,9 @@ const BAD: Array<[string, (d: Record<string, any>) => void, string, RegExp]> = [
   ['regulator threshold with its own tolerance', (d) => (d.current.threshold = { reference: 'regulator', tolerance: '1%', top: '1k', bottom: '4k' }), 'current.threshold.tolerance', /takes that reference's tolerance.*; accepted: no threshold\.tolerance with reference "regulator"/],
   ['regulator threshold in a current-only design', (d) => { delete d.voltage; delete d.reference; d.current.threshold = { reference: 'regulator', top: '1k', bottom: '4k' }; }, 'current.threshold.reference', /fed from the regulator reference, but the design has no reference section/],
   ['regulator threshold above the reference', (d) => { d.current.gain = 'auto'; d.current.threshold = { reference: 'regulator', voltage: '2 V', top: 'auto', bottom: 'auto' }; }, 'current.threshold.voltage', /not below the regulator reference 1\.25 V/],
+  ['pot rating misspelt', (d) => { d.voltage.target = '3..12 V'; delete d.voltage.window; d.voltage.pot = { value: '10k', ratng: '0.25 W' }; }, 'voltage.pot.ratng', /did you mean 'rating'/],
+  ['pot rating zero', (d) => { d.voltage.target = '3..12 V'; delete d.voltage.window; d.voltage.pot = { value: '10k', rating: 0 }; }, 'voltage.pot.rating', /power must be greater than zero.*; accepted: .*250mW/],
+  ['pot tcr bad notation', (d) => { d.voltage.target = '3..12 V'; delete d.voltage.window; d.voltage.pot = { value: '10k', tcr: '100ppX' }; }, 'voltage.pot.tcr', /unexpected character/],
   ['override of a leg part the design does not place', (d) => (d.resistors.overrides = { RTOP_A: { grade: '0.1%' } }), 'resistors.overrides.RTOP_A', /no part 'RTOP_A'/],
 ];
 

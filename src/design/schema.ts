@@ -130,6 +130,8 @@ const pot = z
     value: describe(resistance(), 'potentiometer end-to-end resistance'),
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'pot tolerance (default 20 %)').optional(),
     leg: z.enum(POT_LEGS).meta({ description: 'leg the pot is in: top (default) or bottom' }).optional(),
+    tcr: describe(ppmPerK(), 'track temperature coefficient (default 0; cermet trimmers are often ±100 ppm/K, carbon ones several hundred: check the datasheet)').optional(),
+    rating: describe(power({ min: Number.MIN_VALUE, text: 'above 0 W' }), 'power rating of the whole track; with only part of the track in circuit it is derated by that fraction (common practice), so the track current must stay below √(rating/value) at every setting').optional(),
   })
   .meta({ description: 'a potentiometer for an adjustable output (target is then a range LO..HI)' });
 

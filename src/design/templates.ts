@@ -46,7 +46,14 @@ const TEMPLATES: Record<StarterKind, DesignInput> = {
     notes: [...COMMON_NOTES, 'Adjustable output: a pot in the top leg of the divider, chosen so every unit covers the target range.'],
     application: 'bench',
     reference: { voltage: '1.25 V', tolerance: '1%' },
-    voltage: { target: '1.5..20 V', pot: { value: '10k', tolerance: '20%', leg: 'top' }, divider: 'auto', search: { bottom: '200..2k' }, feedbackBias: 'max 100 nA' },
+    voltage: {
+      target: '1.5..20 V',
+      pot: { value: '10k', tolerance: '20%', leg: 'top', tcr: '100ppm', rating: '0.5 W' },
+      divider: 'auto',
+      search: { bottom: '200..2k' },
+      feedbackBias: 'max 100 nA',
+      notes: 'pot: tcr is the track\'s (cermet trimmers are often ±100 ppm/K); rating is the whole track\'s, derated by the share of track in circuit (common practice), so the track current must stay below √(rating/value) at every setting.',
+    },
     current: {
       target: '3 A',
       window: '±10%',
