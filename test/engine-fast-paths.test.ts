@@ -229,8 +229,8 @@ const DIRECT_SEPARATE_REFERENCE: SupplySpec = {
  * (its R25 includes them) and a fixed threshold, one with a normal drift. */
 const WITH_ALLOWANCES: SupplySpec = (() => {
   const spec = structuredClone(BENCH_SUPPLY);
-  spec.divider.top.resistors[0].drift = 0.001;
-  spec.divider.top.resistors[0].allowances = [{ name: 'load life', band: 0.01 }, { name: 'soldering', band: 0.002, distribution: { kind: 'normal', k: 3 } }];
+  spec.divider!.top.resistors[0].drift = 0.001;
+  spec.divider!.top.resistors[0].allowances = [{ name: 'load life', band: 0.01 }, { name: 'soldering', band: 0.002, distribution: { kind: 'normal', k: 3 } }];
   const sense = spec.sense!;
   sense.shunt.allowances = [{ name: 'load life', band: 0.005 }, { name: 'damp heat', band: 0.003 }];
   sense.threshold = { kind: 'fixed', nominal: 1.0, tolerance: 0.01, tempcoPerK: 50e-6, allowances: [{ name: 'damp heat', band: 0.002 }] };

@@ -1,9 +1,11 @@
 // The output divider of a design: the given values, or the divider picker's best candidate for "auto"; then the
 // engine's leg specs, the BOM parts and notes. Fixed outputs and adjustable ones (a pot in one leg) alike.
 import { adjustablePeakPowers, wiperForHighest, wiperForLowest, type PotLeg } from '../circuits/adjustable-divider.js';
+import { potRatedCurrent, potTrackLoadRatio, potTrackPeakCurrent } from '../circuits/pot-track-power.js';
+import { ImpossibleError } from '../errors.js';
 import type { LegSpec, ResistorSpec } from '../analysis/models/supply.js';
 import { DIVIDER_DEFAULTS, pickDivider, type AdjustableCandidate, type DividerCandidate, type DividerRequest } from '../pick/divider.js';
-import { currentBandHalfWidth, formatEngineering, formatRkm } from '../units/index.js';
+import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm } from '../units/index.js';
 import { dividerCurrents, resistorPower, type BomPart } from './bom.js';
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
@@ -23,7 +25,7 @@ export interface ResolvedDivider {
   legs: { top: LegSpec; bottom: LegSpec };
   /** With a pot: the legs at the bottom of the range. */
   lowLegs?: { top: LegSpec; bottom: LegSpec };
-  pot?: { ohms: number; tolerance: number; leg: PotLeg };
+  pot?: { ohms: number; tolerance: number; leg: PotLeg; tcrPerK: number };
   bomParts: BomPart[];
   notes: string[];
   /** The grade of every fixed divider resistor (for the notes of assumed TCRs). */
@@ -50,7 +52,7 @@ export function resolveDivider(design: VoltageDesign): ResolvedDivider {
   const gradeBottom = partGrade(design, DESIGNATORS.dividerBottom);
   const ifb = feedbackBias(design).nominal;
   const notes: string[] = [];
-  const pot = v.pot ? { ohms: v.pot.value, tolerance: v.pot.tolerance ?? DEFAULT_POT_TOLERANCE, leg: v.pot.leg ?? 'top' } : undefined;
+  const pot = v.pot ? { ohms: v.pot.value, tolerance: v.pot.tolerance ?? DEFAULT_POT_TOLERANCE, leg: v.pot.leg ?? 'top', tcrPerK: v.pot.tcr ?? 0 } : undefined;
 
   let topLeg: DividerLegValue;
   let bottomLeg: DividerLegValue;
@@ -90,7 +92,7 @@ export function resolveDivider(design: VoltageDesign): ResolvedDivider {
   const leg = (which: 'top' | 'bottom', wiper: number): LegSpec => {
     const spec: LegSpec = { resistors: [which === 'top' ? topSpec() : resistorSpec(DESIGNATORS.dividerBottom, bottom, gradeBottom)] };
     if (pot && pot.leg === which) {
-      spec.potentiometer = { name: DESIGNATORS.pot, nominal: pot.ohms, tolerance: pot.tolerance, wiper, distribution: { kind: 'uniform' } };
+      spec.potentiometer = { name: DESIGNATORS.pot, nominal: pot.ohms, tolerance: pot.tolerance, wiper, distribution: { kind: 'uniform' }, ...(pot.tcrPerK > 0 ? { tcrPerK: pot.tcrPerK } : {}) };
     }
     return spec;
   };
@@ -104,7 +106,8 @@ export function resolveDivider(design: VoltageDesign): ResolvedDivider {
     if (top > 0) bomParts.push({ designator: DESIGNATORS.dividerTop, role: 'feedback divider, top', ohms: top, tolerance: gradeTop.tolerance, tcrPerK: gradeTop.tcrPerK, powerW: powers.top, powerAt: at });
     else notes.push(`No fixed top resistor: the pot ${DESIGNATORS.pot} alone forms the top leg.`);
     bomParts.push({ designator: DESIGNATORS.dividerBottom, role: 'feedback divider, bottom', ohms: bottom, tolerance: gradeBottom.tolerance, tcrPerK: gradeBottom.tcrPerK, powerW: powers.bottom, powerAt: at });
-    bomParts.push({ designator: DESIGNATORS.pot, role: `adjustment pot, ${pot.leg} leg (rheostat)`, ohms: pot.ohms, tolerance: pot.tolerance, tcrPerK: 0, powerW: powers.pot, powerAt: at });
+    bomParts.push({ designator: DESIGNATORS.pot, role: `adjustment pot, ${pot.leg} leg (rheostat)`, ohms: pot.ohms, tolerance: pot.tolerance, tcrPerK: pot.tcrPerK, powerW: powers.pot, powerAt: at, ...(v.pot!.rating !== undefined ? { ratingW: v.pot!.rating } : {}) });
+    if (v.pot!.rating !== undefined) notes.push(checkPotTrack(vref, bottom, pot.ohms, pot.leg, bias, v.pot!.rating));
     return {
       top,
       bottom,
@@ -144,6 +147,21 @@ export function resolveDivider(design: VoltageDesign): ResolvedDivider {
     bottom: fixedLeg(bottomLeg, DESIGNATORS.dividerBottom, 'bottom', currents.bottom),
   };
   return { top, bottom, legs, bomParts, notes, grades };
+}
+
+/**
+ * The pot's track current against its rating derated by the share of track in circuit (common practice,
+ * src/circuits/pot-track-power.ts): a note when it holds at every setting, an ImpossibleError when it does not.
+ */
+function checkPotTrack(vref: number, bottom: number, rpot: number, leg: PotLeg, ifb: number, ratingW: number): string {
+  const peak = potTrackPeakCurrent(vref, bottom, leg, ifb);
+  const allowed = potRatedCurrent(ratingW, rpot);
+  const ratio = potTrackLoadRatio(peak, rpot, ratingW);
+  const text = `the pot ${DESIGNATORS.pot}'s track carries up to ${formatEngineering(peak, 'A')} over its travel; with only part of its track in circuit its ${formatEngineering(ratingW, 'W')} rating is derated by that share (common practice), which allows ${formatEngineering(allowed, 'A')} at any setting`;
+  if (ratio > 1) {
+    throw new ImpossibleError('voltage.pot.rating', `${text}: ${formatPercent(ratio, 0)} of the derated rating`, 'a pot with a higher rating or a higher value, or a larger divider (voltage.search.bottom) for less current');
+  }
+  return `Pot track: ${text} (${formatPercent(ratio, 0)} of the derated rating at worst). Check the datasheet's own rule for partial-track use.`;
 }
 
 /** The picked candidate's leg as the design file would write it. */

@@ -13,6 +13,7 @@ import { currentBandHalfWidth, formatEngineering, formatPercent, formatRkm, pars
 import { mapPickerError } from './picker-errors.js';
 import { distributionSpec, partGrade, type PartGrade } from './part-grade.js';
 import { resistorSpec } from './resolve-divider.js';
+import { shuntParasiticNote, shuntParasiticSpec } from './shunt-parasitic.js';
 import { DESIGNATORS, type CurrentDesign, type CurrentSection } from './schema.js';
 
 /** Gain and threshold-divider resistor window when the file gives none (the `sense` command's default too). */
@@ -35,11 +36,26 @@ function needsPicker(c: CurrentSection): boolean {
   return c.shunt.value === 'auto' || c.gain === 'auto' || c.threshold.top === 'auto';
 }
 
+/**
+ * The reference a threshold divider is fed from: its own (threshold.reference a voltage, with threshold.tolerance and
+ * tempco) or the regulator's (reference "regulator": the design's reference section, one part for both loops).
+ */
+export function thresholdReference(design: CurrentDesign): { volts: number; tolerance: number; tempcoPerK: number; shared: boolean } | null {
+  const t = design.current.threshold;
+  if (t.reference === undefined) return null;
+  if (t.reference === 'regulator') {
+    const r = design.reference!; // the schema requires it with reference "regulator"
+    return { volts: r.voltage, tolerance: r.tolerance, tempcoPerK: r.tempco ?? 0, shared: true };
+  }
+  return { volts: t.reference, tolerance: t.tolerance!, tempcoPerK: t.tempco ?? 0, shared: false };
+}
+
 /** The threshold voltage the design aims at (fixed, or the divider's output or target). */
-function thresholdVolts(c: CurrentSection): number | undefined {
-  const t = c.threshold;
-  if (t.reference !== undefined && typeof t.top === 'number' && typeof t.bottom === 'number') {
-    return thresholdFromReference(t.reference, t.top, t.bottom);
+function thresholdVolts(design: CurrentDesign): number | undefined {
+  const t = design.current.threshold;
+  const ref = thresholdReference(design);
+  if (ref && typeof t.top === 'number' && typeof t.bottom === 'number') {
+    return thresholdFromReference(ref.volts, t.top, t.bottom);
   }
   return t.voltage;
 }
@@ -70,12 +86,13 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
     const gainGrade = network ? networkGrade(network) : (grades[firstGain] ?? grades[DESIGNATORS.shunt]!);
     const range = c.gainRange ?? DEFAULT_GAIN_RANGE;
     const series = c.gainSeries ?? gainGrade.series;
-    const volts = thresholdVolts(c);
+    const volts = thresholdVolts(design);
     const t = c.threshold;
+    const ref = thresholdReference(design);
     const threshold: SenseRequest['threshold'] =
-      t.reference !== undefined && t.top === 'auto'
-        ? { kind: 'divider', reference: t.reference, tolerance: t.tolerance, ...(volts !== undefined ? { volts } : {}) }
-        : { kind: 'fixed', volts: volts!, tolerance: t.tolerance };
+      ref && t.top === 'auto'
+        ? { kind: 'divider', reference: ref.volts, tolerance: ref.tolerance, ...(volts !== undefined ? { volts } : {}) }
+        : { kind: 'fixed', volts: volts!, tolerance: ref ? ref.tolerance : t.tolerance! };
     const amp = c.amplifier;
     const request: SenseRequest = {
       limit: c.target,
@@ -93,7 +110,8 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
       amplifierOffset: amp?.vos ?? 0,
       compareOffset: c.compareOffset ?? 0,
       biasCurrent: amp?.biasCurrent ?? { nominal: 0, lo: 0, hi: 0, form: 'typical' },
-      commonMode: c.commonMode ?? 0,
+      // A common mode that spreads: the picker's quick worst case takes the end farthest from 0 V (its error grows with it).
+      commonMode: pickerCommonMode(c),
     };
     if (c.shunt.maxLoss !== undefined) request.maxLossW = c.shunt.maxLoss;
     if (network) request.gainNetwork = { name: network.name, tolerance: network.tolerance, ratio: network.ratio };
@@ -125,7 +143,13 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
       parts[DESIGNATORS.thresholdBottom] = c.threshold.bottom as number;
     }
   }
-  return { sense: senseSpec(design, parts, grades, lossLimit), parts, grades, ...(picked ? { picked } : {}), derating, notes };
+  const sense = senseSpec(design, parts, grades, lossLimit);
+  if (sense.topology === 'diff' && sense.commonModeBand) {
+    const [lo, hi] = c.commonMode!;
+    notes.push(`Common-mode voltage (current.commonMode) spreads over ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)} from unit to unit: drawn once per unit as the part Vcm (${c.commonModeDistribution ?? 'uniform'}), both ends in the worst case; the BOM's powers${picked ? ' and the picker\'s ranking' : ''} take ${formatEngineering(pickerCommonMode(c), 'V', 4)}.`);
+  }
+  if (sense.shunt.parasitic) notes.push(shuntParasiticNote(sense.shunt.nominal, sense.shunt.parasitic));
+  return { sense, parts, grades, ...(picked ? { picked } : {}), derating, notes };
 }
 
 /** The network holding every gain resistor of the topology (diff R1–R4), if the file declares one. */
@@ -185,13 +209,18 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
     shunt.lossLimitFrom = 'current.shunt.maxLoss; no rating given';
   }
   if (c.shunt.thermalResistance !== undefined && c.shunt.thermalResistance > 0) shunt.thermalResistanceKPerW = c.shunt.thermalResistance;
+  if (c.shunt.parasitic) shunt.parasitic = shuntParasiticSpec(c.shunt.parasitic);
   shunt.distribution = distributionSpec(shuntGrade.distribution);
 
   const t = c.threshold;
-  const threshold: ThresholdSpec =
-    t.reference !== undefined
-      ? { kind: 'divided', source: { name: 'Vref threshold', nominal: t.reference, tolerance: t.tolerance }, top: r(DESIGNATORS.thresholdTop), bottom: r(DESIGNATORS.thresholdBottom) }
-      : { kind: 'fixed', nominal: t.voltage!, tolerance: t.tolerance };
+  const ref = thresholdReference(design);
+  let threshold: ThresholdSpec;
+  if (ref) {
+    const source: ThresholdSpec & { kind: 'divided' } extends { source: infer S } ? S : never = ref.shared ? 'regulator-reference' : { name: 'Vref threshold', nominal: ref.volts, tolerance: ref.tolerance, ...(ref.tempcoPerK > 0 ? { tempcoPerK: ref.tempcoPerK } : {}) };
+    threshold = { kind: 'divided', source, top: r(DESIGNATORS.thresholdTop), bottom: r(DESIGNATORS.thresholdBottom) };
+  } else {
+    threshold = { kind: 'fixed', nominal: t.voltage!, tolerance: t.tolerance!, ...(t.tempco ? { tempcoPerK: t.tempco } : {}) };
+  }
 
   const common = { shunt, threshold, limitTarget: c.target, ...(c.compareOffset ? { compareOffset: { nominal: 0, plusMinus: c.compareOffset } } : {}) };
   if (c.topology === 'direct') return { ...common, topology: 'direct' };
@@ -203,7 +232,16 @@ function senseSpec(design: CurrentDesign, parts: Record<string, number>, grades:
   if (a.offsetCurrent) amplifier.offsetCurrentMax = a.offsetCurrent;
   if (a.cmrr !== undefined && c.topology === 'diff') amplifier.cmrrDb = a.cmrr;
   if (c.topology === 'noninv') return { ...common, topology: 'noninv', rf: r(DESIGNATORS.feedback), rg: r(DESIGNATORS.ground), amplifier };
-  return { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: c.commonMode ?? 0, amplifier };
+  const [cmLo, cmHi] = c.commonMode ?? [0, 0];
+  const diff: SenseSpec = { ...common, topology: 'diff', r1: r('R1'), r2: r('R2'), r3: r('R3'), r4: r('R4'), commonModeV: (cmLo + cmHi) / 2, amplifier };
+  if (cmHi > cmLo) diff.commonModeBand = { plusMinus: (cmHi - cmLo) / 2, distribution: distributionSpec(c.commonModeDistribution ?? 'uniform') };
+  return diff;
+}
+
+/** The common mode the sense picker ranks at: the one voltage, or the end of its range farthest from 0 V. */
+export function pickerCommonMode(c: CurrentSection): number {
+  const [lo, hi] = c.commonMode ?? [0, 0];
+  return Math.abs(hi) >= Math.abs(lo) ? hi : lo;
 }
 
 /** The sense picker's option names and the design-file fields they come from. */

@@ -13,7 +13,7 @@ import type { OutputCautionLimits } from './output-cautions.js';
 import { windowBounds } from './fields.js';
 import { GRADE_NAMES, gradeCosts, type GradeName } from './grades.js';
 import { feedbackBias, resolveDivider } from './resolve-divider.js';
-import { resolveSense } from './resolve-sense.js';
+import { pickerCommonMode, resolveSense, thresholdReference } from './resolve-sense.js';
 import { resolveNetworks } from './resolve-networks.js';
 import { DESIGNATORS, hasCurrentLoop, hasVoltageLoop, type CurrentDesign, type Design, type VoltageDesign } from './schema.js';
 import { lifePlanOf, type LifePlan } from './life-condition.js';
@@ -82,8 +82,9 @@ export function resolveDesign(design: Design): ResolvedDesign {
   if (ib && cDesign!.current.topology !== 'direct') notes.push(`Amplifier bias current Ib (current.amplifier.biasCurrent): ${describeCurrentBand(ib)}.`);
 
   let reference: SupplySpec['reference'] | undefined;
-  if (vDesign) {
-    const r = vDesign.reference;
+  // The regulator's reference: the divider's, and the threshold divider's too when it is fed from it ("regulator").
+  if (design.reference && (vDesign || cDesign?.current.threshold.reference === 'regulator')) {
+    const r = design.reference;
     reference = { name: 'Vref', nominal: r.voltage, tolerance: r.tolerance };
     // reference.drift is a drift allowance: the spec is as built, and life-condition.ts adds it at end of life.
     if (r.tempco) reference.tempcoPerK = r.tempco;
@@ -313,14 +314,16 @@ function senseBomParts(design: CurrentDesign, parts: Record<string, number>, gra
     add(DESIGNATORS.ground, 'amplifier gain to ground (noninv)', i);
   }
   if (c.topology === 'diff') {
-    const i = diffBranchCurrents({ r1: parts['R1']!, r3: parts['R3']!, r4: parts['R4']! }, parts[DESIGNATORS.shunt]!, c.commonMode ?? 0, limit);
+    // A common mode that spreads: the branch currents at the end farthest from 0 V, the most power.
+    const i = diffBranchCurrents({ r1: parts['R1']!, r3: parts['R3']!, r4: parts['R4']! }, parts[DESIGNATORS.shunt]!, pickerCommonMode(c), limit);
     add('R1', 'difference amplifier, load side to − input', i.r1r2);
     add('R2', 'difference amplifier, − input to output', i.r1r2);
     add('R3', 'difference amplifier, supply side to + input', i.r3r4);
     add('R4', 'difference amplifier, + input to ground', i.r3r4);
   }
-  if (c.threshold.reference !== undefined) {
-    const i = c.threshold.reference / (parts[DESIGNATORS.thresholdTop]! + parts[DESIGNATORS.thresholdBottom]!);
+  const thresholdRef = thresholdReference(design);
+  if (thresholdRef) {
+    const i = thresholdRef.volts / (parts[DESIGNATORS.thresholdTop]! + parts[DESIGNATORS.thresholdBottom]!);
     add(DESIGNATORS.thresholdTop, 'threshold divider, top', i, { powerAt: 'from the threshold reference' });
     add(DESIGNATORS.thresholdBottom, 'threshold divider, bottom', i, { powerAt: 'from the threshold reference' });
   }

@@ -26,6 +26,7 @@ import { GRADE_NAMES } from './grades.js';
 import { dividerLeg } from './divider-leg.js';
 import { networkIssues, networksField } from './network-field.js';
 import { decibels } from './decibel-field.js';
+import { commonModeField } from './common-mode-field.js';
 import { printableText } from '../user-text.js';
 import { MAX_SHUNT_CANDIDATES } from '../pick/sense.js';
 import { boundDistribution, driftAllowances, lifeCondition, lots, sortedOut } from './life-fields.js';
@@ -135,6 +136,8 @@ const pot = z
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'pot tolerance (default 20 %)').optional(),
     leg: z.enum(POT_LEGS).meta({ description: 'leg the pot is in: top (default) or bottom' }).optional(),
     drift: driftAllowances.optional(),
+    tcr: describe(ppmPerK(), 'track temperature coefficient (default 0; cermet trimmers are often ±100 ppm/K, carbon ones several hundred: check the datasheet)').optional(),
+    rating: describe(power({ min: Number.MIN_VALUE, text: 'above 0 W' }), 'power rating of the whole track; with only part of the track in circuit it is derated by that fraction (common practice), so the track current must stay below √(rating/value) at every setting').optional(),
   })
   .meta({ description: 'a potentiometer for an adjustable output (target is then a range LO..HI)' });
 
@@ -191,6 +194,14 @@ function checkTargetInside(window: WindowInput, target: number, ctx: z.core.$Ref
 }
 
 // ---- current limit ------------------------------------------------------------------------------------------------
+const shuntParasitic = z
+  .strictObject({
+    value: describe(resistance(), 'series resistance of the pads and traces the sense connections see, e.g. 2m'),
+    tolerance: describe(percent({ max: 1, text: '0 % to 100 %' }), 'its tolerance (copper geometry and solder vary widely: 30 % or more is common practice)'),
+    tcr: describe(ppmPerK(), 'its temperature coefficient (default 3930 ppm/K, annealed copper at 20 °C: IEC 60028, from memory)').optional(),
+  })
+  .meta({ description: 'parasitic series resistance of pads and traces in the sensed path (a common-practice concern: a few mΩ matter beside a 10 mΩ shunt); Kelvin (four-terminal) sensing removes most of it, so leave it out then' });
+
 const shunt = z
   .strictObject({
     value: autoOr(PARSERS.resistance, 'a shunt resistance: 50m, R050, 0.05'),
@@ -201,6 +212,7 @@ const shunt = z
     tcr: describe(ppmPerK(), 'shunt TCR (default: the resistor grade\'s)').optional(),
     thermalResistance: describe(thermalResistance(), 'θ shunt to ambient, for self-heating θ·I²R (default 0)').optional(),
     drift: driftAllowances.optional(),
+    parasitic: shuntParasitic.optional(),
     candidates: z
       .array(z.union([z.string(), z.number()]))
       .max(MAX_SHUNT_CANDIDATES)
@@ -226,8 +238,12 @@ const amplifier = z
 const threshold = z
   .strictObject({
     voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'threshold voltage (fixed), or the target for an "auto" threshold divider').optional(),
-    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance of the fixed threshold, or of the reference it is derived from'),
-    reference: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'reference the threshold divider RT1/RT2 is fed from').optional(),
+    tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'tolerance of the fixed threshold, or of the reference it is derived from (not with reference "regulator": the regulator reference\'s own applies)').optional(),
+    tempco: describe(ppmPerK(), 'temperature coefficient bound of the fixed threshold, or of the reference it is derived from (default 0; not with reference "regulator")').optional(),
+    reference: z
+      .union([z.literal('regulator'), voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' })])
+      .meta({ description: 'reference the threshold divider RT1/RT2 is fed from: its own, a voltage such as "2.5 V" (its own part, Vref threshold, with tolerance and tempco), or "regulator" (the design\'s reference section: one Vref shared by both loops)' })
+      .optional(),
     top: autoOr(PARSERS.resistance, 'RT1, reference to threshold node').optional(),
     bottom: autoOr(PARSERS.resistance, 'RT2, threshold node to ground').optional(),
     distribution: boundDistribution('how the fixed threshold spreads inside its tolerance').optional(),
@@ -236,6 +252,12 @@ const threshold = z
   .superRefine((t, ctx) => {
     const issue = (path: string, message: string, accepted: string) =>
       ctx.issues.push({ code: 'custom', path: [path], input: undefined, message, params: { accepted } });
+    if (t.reference === 'regulator') {
+      if (t.tolerance !== undefined) issue('tolerance', 'a threshold fed from the regulator reference takes that reference\'s tolerance', 'no threshold.tolerance with reference "regulator" (reference.tolerance applies)');
+      if (t.tempco !== undefined) issue('tempco', 'a threshold fed from the regulator reference takes that reference\'s tempco', 'no threshold.tempco with reference "regulator" (reference.tempco applies)');
+    } else if (t.tolerance === undefined) {
+      issue('tolerance', 'missing required field', 'a percentage: 1%, 0.5 %, or a number of percent');
+    }
     if (t.reference === undefined) {
       if (t.voltage === undefined) issue('voltage', 'missing required field', 'a threshold voltage such as "0.8 V", or reference with top and bottom');
       if (t.top !== undefined || t.bottom !== undefined) issue(t.top !== undefined ? 'top' : 'bottom', 'a threshold divider needs the reference it is fed from', 'reference: "2.5 V" with top and bottom');
@@ -249,11 +271,11 @@ const threshold = z
     if ((t.top === 'auto' || t.bottom === 'auto') && t.voltage === undefined) {
       issue('voltage', 'an "auto" threshold divider needs a target threshold voltage', 'voltage: "0.8 V" below the reference');
     }
-    if (t.voltage !== undefined && t.voltage >= t.reference) {
+    if (t.reference !== 'regulator' && t.voltage !== undefined && t.voltage >= t.reference) {
       issue('voltage', `the threshold ${t.voltage} V is not below the reference ${t.reference} V it is divided from`, 'a threshold below the reference');
     }
   })
-  .meta({ description: 'threshold the amplified shunt signal is compared with: fixed { voltage, tolerance } or from a reference { reference, tolerance, top, bottom }' });
+  .meta({ description: 'threshold the amplified shunt signal is compared with: fixed { voltage, tolerance, tempco } or from a reference { reference, tolerance, tempco, top, bottom }, the reference its own or the regulator\'s ("regulator")' });
 
 const gainValues = z
   .strictObject({
@@ -279,7 +301,11 @@ const currentSection = z
     gain: z.union([z.literal('auto'), gainValues]).meta({ description: '"auto" or the gain resistors' }).optional(),
     gainRange: rangeField(PARSERS.resistance, 'gain-resistor range for "auto", e.g. 1k..100k').optional(),
     gainSeries: seriesName.optional(),
-    commonMode: describe(voltage(), 'diff: voltage of the shunt\'s load-side node (0 low-side, the rail high-side; default 0)').optional(),
+    commonMode: describe(commonModeField(), 'diff: voltage of the shunt\'s load-side node (0 low-side, the rail high-side; default 0), one value or the range it spreads over from unit to unit').optional(),
+    commonModeDistribution: z
+      .enum(DISTRIBUTIONS)
+      .meta({ description: `how a commonMode range spreads from unit to unit: ${DISTRIBUTIONS.join(', ')} (default uniform, conservative; normal: the range is ±3σ)` })
+      .optional(),
     notes: notes.optional(),
   })
   .superRefine((c, ctx) => {
@@ -306,7 +332,10 @@ const currentSection = z
     if (c.amplifier?.cmrr !== undefined && c.topology !== 'diff') {
       issue(['amplifier', 'cmrr'], `the amplifier's CMRR applies to the diff topology only (the ${c.topology} stage's inputs sit near ground)`, 'topology "diff", or no amplifier.cmrr');
     }
-    if (c.commonMode !== undefined && c.commonMode !== 0 && c.topology !== 'diff') {
+    if (c.commonModeDistribution !== undefined && (c.commonMode === undefined || c.commonMode[0] === c.commonMode[1])) {
+      issue(['commonModeDistribution'], 'a distribution needs a commonMode range to spread over', 'commonMode as a range such as "17..21 V", or no commonModeDistribution');
+    }
+    if (c.commonMode !== undefined && (c.commonMode[0] !== 0 || c.commonMode[1] !== 0) && c.topology !== 'diff') {
       issue(['commonMode'], `a common-mode voltage applies to the diff topology only (this is ${c.topology}, a low-side shunt)`, 'topology "diff" for high-side sensing, or no commonMode');
     }
   })
@@ -403,6 +432,17 @@ export const DesignSchema = z
     if (d.voltage !== undefined && d.reference === undefined) {
       ctx.issues.push({ code: 'custom', path: ['reference'], input: undefined, message: 'missing required field: the voltage section needs the reference the divider sets the output from', params: { accepted: 'reference: { voltage: "1.25 V", tolerance: "1%" }' } });
       return;
+    }
+    const th = d.current?.threshold;
+    if (th?.reference === 'regulator') {
+      if (d.reference === undefined) {
+        ctx.issues.push({ code: 'custom', path: ['current', 'threshold', 'reference'], input: 'regulator', message: 'the threshold is fed from the regulator reference, but the design has no reference section', params: { accepted: 'a reference voltage of its own such as "2.5 V" with threshold.tolerance, or a reference section' } });
+        return;
+      }
+      if (th.voltage !== undefined && th.voltage >= d.reference.voltage) {
+        ctx.issues.push({ code: 'custom', path: ['current', 'threshold', 'voltage'], input: th.voltage, message: `the threshold ${th.voltage} V is not below the regulator reference ${d.reference.voltage} V it is divided from`, params: { accepted: 'a threshold below the reference' } });
+        return;
+      }
     }
     const divider = d.voltage?.divider;
     const twoPartLegs = divider === undefined ? [] : divider === 'auto' ? (d.voltage!.search?.parts === 3 ? [DESIGNATORS.dividerTop, DESIGNATORS.dividerBottom] : []) : [

@@ -40,7 +40,9 @@ export type PartKind =
   /** A resistor network's deviation shared by all its members, a relative change (src/tolerance/network-bands.ts). */
   | 'network absolute'
   /** One network member's own deviation from the others, a relative change (src/tolerance/network-bands.ts). */
-  | 'network ratio';
+  | 'network ratio'
+  /** A circuit condition that differs from unit to unit, e.g. the common-mode voltage an LED string sets. */
+  | 'operating point';
 
 export interface Part {
   /** Name shown in reports: a designator (R1, RS) or a quantity (Vref, Vos amp, T ambient, R1 TCR). */
@@ -87,6 +89,7 @@ const DEFAULT_UNITS: Record<PartKind, string> = {
   drift: '',
   'network absolute': '',
   'network ratio': '',
+  'operating point': '',
 };
 
 export interface RelativePartInput {

@@ -101,6 +101,13 @@ export interface ShuntSpec extends ResistorSpec {
   lossLimitFrom?: string;
   /** Thermal resistance to ambient θ, K/W: enables self-heating θ·I²R at the limit. */
   thermalResistanceKPerW?: number;
+  /**
+   * Parasitic series resistance of pads and traces that the sense connections see (common practice concern; Kelvin
+   * sensing removes most of it): it adds to the shunt in the sensed resistance and in the loss at the limit, with
+   * its own tolerance and TCR (copper's, typically). With self-heating its loss is counted as heating the shunt
+   * body too (conservative); only the shunt's own value takes the shunt's TCR through that heat.
+   */
+  parasitic?: ResistorSpec;
 }
 
 export interface AmplifierSpec {
@@ -150,6 +157,11 @@ export type SenseSpec =
       r4: ResistorSpec;
       /** Voltage of the shunt's load-side node: 0 V low-side, the rail high-side. */
       commonModeV: number;
+      /**
+       * When the common-mode voltage spreads from unit to unit (an LED string's forward voltage): its band about
+       * commonModeV, drawn once per unit (uniform unless given) as the part 'Vcm'; worst case takes its ends.
+       */
+      commonModeBand?: { plusMinus: number; distribution?: DistributionSpec };
       amplifier: AmplifierSpec;
     });
 
@@ -365,7 +377,7 @@ function scaledBy(v: Float64Array, d: Float64Array | null, c: Float64Array | nul
 }
 
 function resistorColumn(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: number, scratch: ScratchColumns): Float64Array {
-  if (s.member !== undefined) return memberColumn(p, s.member, driftOf(p, s, n, scratch), dT, n, scratch.take());
+  if (s.member !== undefined) return memberColumn(p, s.member, memberDrift(p, s, n, scratch), dT, n, scratch.take());
   if (s.life.length === 0) return scaledColumn(p, s.value, s.drift, s.tcr, dT, n, scratch);
   return scaledBy(atReference(p, s, dT, n, scratch), null, column(p, s.tcr), dT, n, scratch);
 }
@@ -382,6 +394,18 @@ function atReference(p: Float64Array[], s: ResistorSlot, dT: Float64Array, n: nu
   if (d === null) out.set(v.subarray(0, n));
   else for (let j = 0; j < n; j++) out[j] = v[j]! * (1 + d[j]!);
   for (const index of s.life) multiplyOnePlus(out, p[index]!, n);
+  return out;
+}
+
+/** A network member's relative drift per trial, (1 + drift)·Π(1 + allowance) − 1, or null without any drift. */
+function memberDrift(p: Float64Array[], s: ResistorSlot, n: number, scratch: ScratchColumns): Float64Array | null {
+  const d = column(p, s.drift);
+  if (s.life.length === 0) return d;
+  const out = scratch.take();
+  if (d === null) out.fill(1, 0, n);
+  else for (let j = 0; j < n; j++) out[j] = 1 + d[j]!;
+  for (const index of s.life) multiplyOnePlus(out, p[index]!, n);
+  for (let j = 0; j < n; j++) out[j] = out[j]! - 1;
   return out;
 }
 
@@ -442,6 +466,8 @@ interface SenseColumns {
   bias: Float64Array | null;
   /** The amplifier's offset current Ios, or null. */
   ios: Float64Array | null;
+  /** The common-mode voltage per unit when it spreads, else null (the scalar commonMode holds). */
+  commonMode: Float64Array | null;
   /** The amplifier's common-mode error e (±1/CMRR), or null. */
   cmrr: Float64Array | null;
   g0: Float64Array;
@@ -454,6 +480,12 @@ interface SenseColumns {
   shunt25: Float64Array;
   /** The shunt's drawn TCR when it heats itself (θ > 0 and a TCR), else null. */
   alpha: Float64Array | null;
+}
+
+/** a + b per trial (the shunt and its parasitic series resistance). */
+function sumColumn(a: Float64Array, b: Float64Array, n: number, out: Float64Array): Float64Array {
+  for (let j = 0; j < n; j++) out[j] = a[j]! + b[j]!;
+  return out;
 }
 
 /** Threshold divided from a source: source·Rb/(Rt + Rb) per trial. */
@@ -485,6 +517,7 @@ function signalOf(kind: number, q: SenseParams, current: number): number {
  */
 function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: number, n: number, limitOut: Float64Array, lossOut: Float64Array, ampOut: Float64Array): void {
   const { threshold, compare, offset, bias, ios, cmrr, g0, g1, g2, g3, shunt, shunt25, alpha } = c;
+  const cmColumn = c.commonMode;
   const noninv = kind === NONINV;
   const diff = kind === DIFF;
   for (let j = 0; j < n; j++) {
@@ -497,7 +530,7 @@ function senseBlock(kind: number, commonMode: number, c: SenseColumns, theta: nu
       r2: diff ? g1[j]! : 0,
       r3: diff ? g2[j]! : 0,
       r4: diff ? g3[j]! : 0,
-      commonMode,
+      commonMode: cmColumn === null ? commonMode : cmColumn[j]!,
       threshold: threshold[j]!,
       amplifierOffset: offset === null ? 0 : offset[j]!,
       biasCurrent: offset === null || bias === null ? 0 : bias[j]!,
@@ -641,6 +674,8 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   const where = 'supply.sense';
   checkFinite(sense.limitTarget, `${where}.limitTarget`, 'a current above 0 A', true);
   const shunt = addResistor(list, sense.shunt, `${where}.shunt`, 'shunt');
+  const parasitic = sense.shunt.parasitic ? addResistor(list, sense.shunt.parasitic, `${where}.shunt.parasitic`) : null;
+  if (parasitic) notes.push('The shunt\'s parasitic series resistance (pads, traces) adds to the sensed resistance and to shuntLoss; Kelvin sensing removes most of it (common practice).');
   const theta = sense.shunt.thermalResistanceKPerW ?? 0;
   checkFinite(theta, `${where}.shunt.thermalResistanceKPerW`, 'a thermal resistance ≥ 0 K/W');
   const alphaMax = sense.shunt.tcrPerK ?? 0;
@@ -682,6 +717,7 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
   let ampBias = NONE;
   let ampIos = NONE;
   let ampCmrr = NONE;
+  let commonModeSlot = NONE;
   let railV: number | undefined;
   let headroomV: number | undefined;
   const gain: ResistorSlot[] = [];
@@ -716,6 +752,13 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
       );
       if (!Number.isFinite(sense.commonModeV)) throw new InputError(`${where}.commonModeV`, `${sense.commonModeV} is not a voltage`, 'the load-side node voltage in V (0 for low-side)');
       commonMode = sense.commonModeV;
+      const band = sense.commonModeBand;
+      if (band && band.plusMinus > 0) {
+        checkFinite(band.plusMinus, `${where}.commonModeBand.plusMinus`, 'a half-width ≥ 0 V');
+        const input: Parameters<typeof partFromBound>[0] = { name: 'Vcm', kind: 'operating point', nominal: commonMode, plusMinus: band.plusMinus, unit: 'V' };
+        if (band.distribution) input.distribution = band.distribution;
+        commonModeSlot = list.add(partFromBound(input));
+      }
     }
   } else if (sense.topology !== 'direct') {
     throw new InputError(`${where}.topology`, `"${String((sense as { topology: unknown }).topology)}"`, 'direct, noninv or diff');
@@ -744,12 +787,13 @@ function addSense(sense: SenseSpec, spec: SupplySpec, list: PartList, regulatorR
         offset,
         bias: column(p, ampBias),
         ios: column(p, ampIos),
+        commonMode: column(p, commonModeSlot),
         cmrr: column(p, ampCmrr),
         g0: g[0] ?? dT,
         g1: g[1] ?? dT,
         g2: g[2] ?? dT,
         g3: g[3] ?? dT,
-        shunt: resistorColumn(p, shunt, dT, n, scratch),
+        shunt: parasitic === null ? resistorColumn(p, shunt, dT, n, scratch) : sumColumn(resistorColumn(p, shunt, dT, n, scratch), resistorColumn(p, parasitic, dT, n, scratch), n, scratch.take()),
         shunt25: selfHeating ? atReference(p, shunt, dT, n, scratch) : dT,
         alpha: selfHeating ? p[shunt.tcr]! : null,
       };
