@@ -1,0 +1,416 @@
+// The Monte Carlo engine's per-chunk kernel in WebAssembly (AssemblyScript): draw every part of a chunk from its
+// xor128 stream, transform the uniforms into each part's distribution, evaluate the CV/CC supply's outputs, and
+// reduce each output to its moments, histogram counts and window counts. It is the same computation as the
+// JavaScript reference (src/analysis/chunk.ts with src/tolerance/sample.ts, src/tolerance/distributions/*.ts and
+// src/analysis/models/supply.ts), written with the same floating-point operations in the same order per trial, so
+// it gives the same bits (test/wasm-kernel.test.ts compares every example, whole JSON reports).
+//
+// Memory is laid out by the caller (src/analysis/kernel/wasm-runner.ts): part columns of `stride` bytes, descriptor
+// tables and result slots at addresses it passes in. Nothing here allocates; the module has no imports.
+import { exactLog } from './exact-log';
+
+export { exactLog };
+
+// ---------------------------------------------------------------------------------------------------------------
+// Random stream: seedrandom's xor128 (G. Marsaglia, "Xorshift RNGs", J. Stat. Software 8(14), 2003), the same
+// recurrence and the same (w >>> 0)·2^−32 as src/analysis/chunk-random.ts.
+
+let sx: i32 = 0;
+let sy: i32 = 0;
+let sz: i32 = 0;
+let sw: i32 = 0;
+
+const TWO_TO_MINUS_32: f64 = 2.3283064365386963e-10;
+
+@inline function nextWord(): i32 {
+  const t = sx ^ (sx << 11);
+  sx = sy;
+  sy = sz;
+  sz = sw;
+  sw ^= (<i32>(<u32>sw >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
+  return sw;
+}
+
+@inline function nextUniform(): f64 {
+  return <f64>(<u32>nextWord()) * TWO_TO_MINUS_32;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Inverse normal CDF: Peter J. Acklam's rational approximation (2003), the constants and branches of
+// src/tolerance/distributions/normal.ts.
+
+const A1: f64 = -3.969683028665376e1;
+const A2: f64 = 2.209460984245205e2;
+const A3: f64 = -2.759285104469687e2;
+const A4: f64 = 1.38357751867269e2;
+const A5: f64 = -3.066479806614716e1;
+const A6: f64 = 2.506628277459239;
+const B1: f64 = -5.447609879822406e1;
+const B2: f64 = 1.615858368580409e2;
+const B3: f64 = -1.556989798598866e2;
+const B4: f64 = 6.680131188771972e1;
+const B5: f64 = -1.328068155288572e1;
+const C1: f64 = -7.784894002430293e-3;
+const C2: f64 = -3.223964580411365e-1;
+const C3: f64 = -2.400758277161838;
+const C4: f64 = -2.549732539343734;
+const C5: f64 = 4.374664141464968;
+const C6: f64 = 2.938163982698783;
+const D1: f64 = 7.784695709041462e-3;
+const D2: f64 = 3.224671290700398e-1;
+const D3: f64 = 2.445134137142996;
+const D4: f64 = 3.754408661907416;
+const P_LOW: f64 = 0.02425;
+const P_HIGH: f64 = 1 - P_LOW;
+/** src/tolerance/uniform-source.ts SMALLEST_UNIFORM, 2^−33. */
+const SMALLEST_UNIFORM: f64 = reinterpret<f64>(0x3de0000000000000);
+
+/** mean + sigma·Φ⁻¹(u), as normalQuantilesInPlace gives it (central rational function, or the tail branch). */
+@inline function normalQuantile(u: f64, mean: f64, sigma: f64): f64 {
+  if (u >= P_LOW && u <= P_HIGH) {
+    const q = u - 0.5;
+    const r = q * q;
+    return mean + sigma * (((((((A1 * r + A2) * r + A3) * r + A4) * r + A5) * r + A6) * q) / (((((B1 * r + B2) * r + B3) * r + B4) * r + B5) * r + 1));
+  }
+  return mean + sigma * normalTail(u);
+}
+
+/** The tail branches of Acklam's approximation (u outside [P_LOW, P_HIGH], u ≤ 0 read as SMALLEST_UNIFORM). */
+@inline function normalTail(u: f64): f64 {
+  const lower = u < P_LOW;
+  const p = u > 0 ? u : SMALLEST_UNIFORM;
+  const q = Math.sqrt(-2 * exactLog(lower ? p : 1 - p));
+  const z = (((((C1 * q + C2) * q + C3) * q + C4) * q + C5) * q + C6) / ((((D1 * q + D2) * q + D3) * q + D4) * q + 1);
+  return lower ? z : -z;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Drawing. Part descriptor: 8 f64 at desc + 64·i, [kind, a, b, c, d, e, f, g]:
+//   0 constant      a value                              (the stream still advances n draws)
+//   1 affine        a lo, b width                        lo + width·u (uniform)
+//   2 normal        a mean, b sigma                      mean + sigma·Φ⁻¹(u)
+//   3 truncated     a pLo, b span, c mean, d sigma, e lo, f hi     clamp(Φ⁻¹(pLo + span·u))
+//   4 triangular    a lo, b hi, c split, d left, e right
+//   5 binned        a lowStart, b pieceMass, c highStart, d mean, e sigma, f lo, g hi
+// Part i takes draws i·n … (i+1)·n − 1 of the chunk's stream, into the column at cols + i·stride.
+
+const CONSTANT = 0;
+const AFFINE = 1;
+const NORMAL = 2;
+const TRUNCATED = 3;
+const TRIANGULAR = 4;
+const BINNED = 5;
+
+@inline function clamp(x: f64, lo: f64, hi: f64): f64 {
+  return x < lo ? lo : x > hi ? hi : x;
+}
+
+export function drawParts(desc: usize, parts: i32, cols: usize, stride: usize, n: i32, x: i32, y: i32, z: i32, w: i32): void {
+  sx = x;
+  sy = y;
+  sz = z;
+  sw = w;
+  for (let i = 0; i < parts; i++) {
+    const d = desc + (<usize>i << 6);
+    const kind = <i32>load<f64>(d);
+    const a = load<f64>(d, 8);
+    const b = load<f64>(d, 16);
+    const c = load<f64>(d, 24);
+    const e = load<f64>(d, 32);
+    const f = load<f64>(d, 40);
+    const g = load<f64>(d, 48);
+    const h = load<f64>(d, 56);
+    const out = cols + <usize>i * stride;
+    if (kind == CONSTANT) {
+      for (let j = 0; j < n; j++) {
+        nextWord();
+        store<f64>(out + (<usize>j << 3), a);
+      }
+    } else if (kind == AFFINE) {
+      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), a + b * nextUniform());
+    } else if (kind == NORMAL) {
+      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), normalQuantile(nextUniform(), a, b));
+    } else if (kind == TRUNCATED) {
+      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), clamp(normalQuantile(a + b * nextUniform(), c, e), f, g));
+    } else if (kind == TRIANGULAR) {
+      for (let j = 0; j < n; j++) {
+        const u = nextUniform();
+        store<f64>(out + (<usize>j << 3), u < c ? a + Math.sqrt(u * e) : b - Math.sqrt((1 - u) * f));
+      }
+    } else {
+      // BINNED
+      for (let j = 0; j < n; j++) {
+        const v = 2 * b * nextUniform();
+        const p = v < b ? a + v : c + (v - b);
+        store<f64>(out + (<usize>j << 3), clamp(normalQuantile(p, e, f), g, h));
+      }
+    }
+  }
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// The supply model, one trial at a time (src/analysis/models/supply.ts evaluateAll and src/circuits/*). The layout
+// is an i32 table of part column indices; an absent part points at a column of zeros (index `parts`), which gives
+// the same bits as the reference's missing factor: v·(1 + 0) = v and 1 + 0·ΔT = 1 exactly for finite values.
+
+// Layout slots (i32 at lay + 4·slot).
+const L_T = 0;
+const L_REF = 1; // value, drift, tempco
+const L_TOP = 4; // a (value, drift, tcr), hasB, b (value, drift, tcr), parallel, pot (value, drift, tcr)
+const L_BOTTOM = 15; // as L_TOP
+const L_IFB = 26;
+const L_SENSE = 27; // 0 none, 1 direct, 2 noninv, 3 diff
+const L_TH_MODE = 28; // 0 fixed, 1 divided from the regulator's reference, 2 divided from its own reference
+const L_TH_FIXED = 29; // value, the zero column (no drift), tempco
+const L_TH_SOURCE = 32; // value, drift, tempco
+const L_TH_TOP = 35; // value, drift, tcr
+const L_TH_BOTTOM = 38; // value, drift, tcr
+const L_COMPARE = 41;
+const L_AMP = 42; // offset, drift (or the zero column), bias (or the zero column), hasDrift
+const L_GAIN = 46; // four resistors (value, drift, tcr)
+const L_SHUNT = 58; // value, drift, tcr
+const L_SELF_HEATING = 61;
+// f64 parameters at par + 8·slot.
+const P_WIPER_TOP = 0;
+const P_WIPER_BOTTOM = 1;
+const P_COMMON_MODE = 2;
+const P_THETA = 3;
+const P_FIXED_T = 4;
+
+const SENSE_NONE = 0;
+const SENSE_DIRECT = 1;
+const SENSE_NONINV = 2;
+
+const REFERENCE_TEMPERATURE_C: f64 = 25;
+
+// Column pointers of one evaluation (globals: set once per call, read in the loop).
+let cols: usize = 0;
+let colStride: usize = 0;
+
+@inline function col(lay: usize, slot: i32): usize {
+  return cols + <usize>load<i32>(lay + (<usize>slot << 2)) * colStride;
+}
+
+@inline function at(column: usize, off: usize): f64 {
+  return load<f64>(column + off);
+}
+
+/** value·(1 + drift)·(1 + coefficient·ΔT): scaledColumn of supply.ts. */
+@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: f64): f64 {
+  return at(v, off) * (1 + at(d, off)) * (1 + at(c, off) * dT);
+}
+
+/**
+ * Evaluates the outputs for trials 0..n−1 into out + o·stride (o in vout, dividerCurrent, ilimit, shuntLoss,
+ * ampOutput order; the first two only without a sense path). With fixedT ≠ 0 every trial is evaluated at the
+ * ambient par[P_FIXED_T] instead of its drawn one (the per-unit check of src/analysis/unit-check.ts).
+ */
+export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize, n: i32, out: usize, fixedT: i32): void {
+  cols = partCols;
+  colStride = stride;
+  const tCol = col(lay, L_T);
+  const tFixed = load<f64>(par, P_FIXED_T << 3);
+  const refV = col(lay, L_REF), refD = col(lay, L_REF + 1), refC = col(lay, L_REF + 2);
+  const taV = col(lay, L_TOP), taD = col(lay, L_TOP + 1), taC = col(lay, L_TOP + 2);
+  const topHasB = load<i32>(lay, (L_TOP + 3) << 2);
+  const tbV = col(lay, L_TOP + 4), tbD = col(lay, L_TOP + 5), tbC = col(lay, L_TOP + 6);
+  const topParallel = load<i32>(lay, (L_TOP + 7) << 2);
+  const tpV = col(lay, L_TOP + 8), tpD = col(lay, L_TOP + 9), tpC = col(lay, L_TOP + 10);
+  const baV = col(lay, L_BOTTOM), baD = col(lay, L_BOTTOM + 1), baC = col(lay, L_BOTTOM + 2);
+  const bottomHasB = load<i32>(lay, (L_BOTTOM + 3) << 2);
+  const bbV = col(lay, L_BOTTOM + 4), bbD = col(lay, L_BOTTOM + 5), bbC = col(lay, L_BOTTOM + 6);
+  const bottomParallel = load<i32>(lay, (L_BOTTOM + 7) << 2);
+  const bpV = col(lay, L_BOTTOM + 8), bpD = col(lay, L_BOTTOM + 9), bpC = col(lay, L_BOTTOM + 10);
+  const wiperTop = load<f64>(par, P_WIPER_TOP << 3);
+  const wiperBottom = load<f64>(par, P_WIPER_BOTTOM << 3);
+  const ifb = col(lay, L_IFB);
+  const vout = out;
+  const dividerCurrent = out + stride;
+  for (let j = 0; j < n; j++) {
+    const off = <usize>j << 3;
+    const dT = (fixedT != 0 ? tFixed : at(tCol, off)) - REFERENCE_TEMPERATURE_C;
+    const v = scaled(refV, refD, refC, off, dT);
+    const top = leg(taV, taD, taC, topHasB, tbV, tbD, tbC, topParallel, tpV, tpD, tpC, wiperTop, off, dT);
+    const bottom = leg(baV, baD, baC, bottomHasB, bbV, bbD, bbC, bottomParallel, bpV, bpD, bpC, wiperBottom, off, dT);
+    // dividerVout (src/circuits/divider.ts): Vref + Rtop·(Vref/Rbottom + Ifb); divider current Vref/Rbottom.
+    store<f64>(vout + off, v + top * (v / bottom + at(ifb, off)));
+    store<f64>(dividerCurrent + off, v / bottom);
+  }
+  if (load<i32>(lay, L_SENSE << 2) != SENSE_NONE) evaluateSense(lay, par, n, out + 2 * stride, stride, fixedT != 0, tFixed, tCol, refV, refD, refC);
+}
+
+/** One divider leg: a, or a ∥ b, or a + b, then + wiper·pot (a missing pot is the zero column and wiper 0). */
+@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: f64, off: usize, dT: f64): f64 {
+  const a = scaled(aV, aD, aC, off, dT);
+  let r = a;
+  if (hasB != 0) {
+    const b = scaled(bV, bD, bC, off, dT);
+    r = parallel != 0 ? (a * b) / (a + b) : a + b;
+  }
+  return r + wiper * scaled(pV, pD, pC, off, dT);
+}
+
+/**
+ * The sense path (supply.ts senseBlock and src/circuits/sense/*): the limit current, found again with the shunt at
+ * its self-heated resistance when it heats itself, the shunt loss there and the amplifier output there.
+ */
+function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize, useFixed: bool, tFixed: f64, tCol: usize, refV: usize, refD: usize, refC: usize): void {
+  const kind = load<i32>(lay, L_SENSE << 2);
+  const thMode = load<i32>(lay, L_TH_MODE << 2);
+  const thV = col(lay, L_TH_FIXED), thD = col(lay, L_TH_FIXED + 1), thC = col(lay, L_TH_FIXED + 2);
+  const sV = col(lay, L_TH_SOURCE), sD = col(lay, L_TH_SOURCE + 1), sC = col(lay, L_TH_SOURCE + 2);
+  const ttV = col(lay, L_TH_TOP), ttD = col(lay, L_TH_TOP + 1), ttC = col(lay, L_TH_TOP + 2);
+  const tbV = col(lay, L_TH_BOTTOM), tbD = col(lay, L_TH_BOTTOM + 1), tbC = col(lay, L_TH_BOTTOM + 2);
+  const compare = col(lay, L_COMPARE);
+  const ampOffset = col(lay, L_AMP), ampDrift = col(lay, L_AMP + 1), ampBias = col(lay, L_AMP + 2);
+  const ampHasDrift = load<i32>(lay, (L_AMP + 3) << 2);
+  const g0V = col(lay, L_GAIN), g0D = col(lay, L_GAIN + 1), g0C = col(lay, L_GAIN + 2);
+  const g1V = col(lay, L_GAIN + 3), g1D = col(lay, L_GAIN + 4), g1C = col(lay, L_GAIN + 5);
+  const g2V = col(lay, L_GAIN + 6), g2D = col(lay, L_GAIN + 7), g2C = col(lay, L_GAIN + 8);
+  const g3V = col(lay, L_GAIN + 9), g3D = col(lay, L_GAIN + 10), g3C = col(lay, L_GAIN + 11);
+  const shV = col(lay, L_SHUNT), shD = col(lay, L_SHUNT + 1), shC = col(lay, L_SHUNT + 2);
+  const selfHeating = load<i32>(lay, L_SELF_HEATING << 2);
+  const commonMode = load<f64>(par, P_COMMON_MODE << 3);
+  const theta = load<f64>(par, P_THETA << 3);
+  const limitOut = out;
+  const lossOut = out + stride;
+  const ampOut = out + 2 * stride;
+  for (let j = 0; j < n; j++) {
+    const off = <usize>j << 3;
+    const dT = (useFixed ? tFixed : at(tCol, off)) - REFERENCE_TEMPERATURE_C;
+    let threshold: f64;
+    if (thMode == 0) threshold = scaled(thV, thD, thC, off, dT);
+    else {
+      const source = thMode == 1 ? scaled(refV, refD, refC, off, dT) : scaled(sV, sD, sC, off, dT);
+      const rt = scaled(ttV, ttD, ttC, off, dT);
+      const rb = scaled(tbV, tbD, tbC, off, dT);
+      threshold = (source * rb) / (rt + rb);
+    }
+    const compareOffset = at(compare, off);
+    const rAmbient = scaled(shV, shD, shC, off, dT);
+    let shunt = rAmbient;
+    let current: f64;
+    let signal: f64;
+    if (kind == SENSE_DIRECT) {
+      // src/circuits/sense/direct.ts
+      current = (threshold - compareOffset) / shunt;
+      if (selfHeating != 0) {
+        shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
+        current = (threshold - compareOffset) / shunt;
+      }
+      signal = current * shunt;
+    } else {
+      const amplifierOffset = ampHasDrift != 0 ? at(ampOffset, off) + at(ampDrift, off) * dT : at(ampOffset, off) + 0;
+      const biasCurrent = at(ampBias, off);
+      if (kind == SENSE_NONINV) {
+        // src/circuits/sense/noninv.ts
+        const feedback = scaled(g0V, g0D, g0C, off, dT);
+        const ground = scaled(g1V, g1D, g1C, off, dT);
+        const gain = 1 + feedback / ground;
+        current = ((threshold - compareOffset - biasCurrent * feedback) / gain - amplifierOffset) / shunt;
+        if (selfHeating != 0) {
+          shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
+          current = ((threshold - compareOffset - biasCurrent * feedback) / gain - amplifierOffset) / shunt;
+        }
+        signal = gain * (current * shunt + amplifierOffset) + biasCurrent * feedback;
+      } else {
+        // src/circuits/sense/diff.ts
+        const r1 = scaled(g0V, g0D, g0C, off, dT);
+        const r2 = scaled(g1V, g1D, g1C, off, dT);
+        const r3 = scaled(g2V, g2D, g2C, off, dT);
+        const r4 = scaled(g3V, g3D, g3C, off, dT);
+        const plusGain = (r4 / (r3 + r4)) * (1 + r2 / r1);
+        const sourceAtPlus = (r3 * r4) / (r3 + r4);
+        const offsetTerm = (1 + r2 / r1) * (amplifierOffset - biasCurrent * sourceAtPlus) + biasCurrent * r2;
+        const commonModeOut = (plusGain - r2 / r1) * commonMode;
+        current = (threshold - compareOffset - commonModeOut - offsetTerm) / (plusGain * shunt);
+        if (selfHeating != 0) {
+          shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
+          current = (threshold - compareOffset - commonModeOut - offsetTerm) / (plusGain * shunt);
+        }
+        const vp = commonMode + current * shunt;
+        signal = plusGain * vp - (r2 / r1) * commonMode + offsetTerm;
+      }
+    }
+    store<f64>(limitOut + off, current);
+    store<f64>(lossOut + off, current * current * shunt);
+    store<f64>(ampOut + off, signal);
+  }
+}
+
+/** supply.ts hotShunt: the self-heated shunt, (R_amb + √(R_amb² + 4·R25·α·θ·K²))/2. */
+@inline function hotShunt(rAmbient: f64, r25: f64, alpha: f64, theta: f64, k: f64): f64 {
+  return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * r25 * alpha * theta * k * k)) / 2;
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// Reduction of one output column (src/analysis/chunk.ts scanPass, deviationPass, countNonFinite), results as f64 at
+// res: [min, max, sum, inSpec, below, mean, sq, dev, nonFinite]. Sums run in trial order, as there.
+
+export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts: usize, specLo: f64, specHi: f64, res: usize): void {
+  const above = bins + 1;
+  const binsF = <f64>bins;
+  let min = Infinity;
+  let max = -Infinity;
+  let sum: f64 = 0;
+  let inSpec: i32 = 0;
+  let below: i32 = 0;
+  for (let j = 0; j < n; j++) {
+    const v = load<f64>(x + (<usize>j << 3));
+    min = Math.min(min, v);
+    max = Math.max(max, v);
+    sum += v;
+    const t = (v - lo) * scale;
+    // ⌊t⌋ + 1 inside the range; a NaN lands in bin 1, as `t | 0` puts it in the reference (any NaN fails the run).
+    const bin = t < 0 ? 0 : t >= binsF ? above : <i32>t + 1;
+    const slot = counts + (<usize>bin << 2);
+    store<u32>(slot, load<u32>(slot) + 1);
+    inSpec += <i32>(v >= specLo && v <= specHi);
+    below += <i32>(v < specLo);
+  }
+  let nonFinite: i32 = 0;
+  if (!isFinite(sum)) for (let j = 0; j < n; j++) nonFinite += <i32>!isFinite(load<f64>(x + (<usize>j << 3)));
+  const mean = n > 0 ? sum / <f64>n : 0;
+  let sq: f64 = 0;
+  let dev: f64 = 0;
+  for (let j = 0; j < n; j++) {
+    const d = load<f64>(x + (<usize>j << 3)) - mean;
+    sq += d * d;
+    dev += d;
+  }
+  store<f64>(res, min);
+  store<f64>(res, max, 8);
+  store<f64>(res, sum, 16);
+  store<f64>(res, <f64>inSpec, 24);
+  store<f64>(res, <f64>below, 32);
+  store<f64>(res, mean, 40);
+  store<f64>(res, sq, 48);
+  store<f64>(res, dev, 56);
+  store<f64>(res, <f64>nonFinite, 64);
+}
+
+// ---------------------------------------------------------------------------------------------------------------
+// The per-unit check's flags (src/analysis/unit-check.ts markInside, markAll, countPassing).
+
+/** pass[j] &= lo ≤ x[j] ≤ hi (a NaN fails). */
+export function markInside(x: usize, n: i32, lo: f64, hi: f64, pass: usize): void {
+  for (let j = 0; j < n; j++) {
+    const v = load<f64>(x + (<usize>j << 3));
+    store<u8>(pass + j, load<u8>(pass + j) & <u8>(v >= lo && v <= hi));
+  }
+}
+
+/** all[j] = 1 when each of `count` flag rows (n bytes apart by rowStride) has a 1 at j. */
+export function markAll(rows: usize, count: i32, rowStride: usize, n: i32, all: usize): void {
+  memory.fill(all, 1, <usize>n);
+  for (let c = 0; c < count; c++) {
+    const row = rows + <usize>c * rowStride;
+    for (let j = 0; j < n; j++) store<u8>(all + j, load<u8>(all + j) & load<u8>(row + j));
+  }
+}
+
+export function countOnes(flags: usize, n: i32): i32 {
+  let count = 0;
+  for (let j = 0; j < n; j++) count += <i32>load<u8>(flags + j);
+  return count;
+}
