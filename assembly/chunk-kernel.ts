@@ -15,25 +15,11 @@ export { exactLog };
 // Random stream: seedrandom's xor128 (G. Marsaglia, "Xorshift RNGs", J. Stat. Software 8(14), 2003), the same
 // recurrence and the same (w >>> 0)·2^−32 as src/analysis/chunk-random.ts.
 
-let sx: i32 = 0;
-let sy: i32 = 0;
-let sz: i32 = 0;
-let sw: i32 = 0;
-
 const TWO_TO_MINUS_32: f64 = 2.3283064365386963e-10;
 
-@inline function nextWord(): i32 {
-  const t = sx ^ (sx << 11);
-  sx = sy;
-  sy = sz;
-  sz = sw;
-  sw ^= (<i32>(<u32>sw >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
-  return sw;
-}
-
-@inline function nextUniform(): f64 {
-  return <f64>(<u32>nextWord()) * TWO_TO_MINUS_32;
-}
+// The state lives in locals of drawParts (x, y, z, w): a WebAssembly global is memory to the engine, and keeping
+// the four words there cost a load and a store per word per draw. XOR128_STEP advances them and leaves the new
+// word in w; it is pasted into each loop (AssemblyScript inlines functions, not assignments to the caller's locals).
 
 // ---------------------------------------------------------------------------------------------------------------
 // Inverse normal CDF: Peter J. Acklam's rational approximation (2003), the constants and branches of
@@ -106,10 +92,6 @@ const BINNED = 5;
 }
 
 export function drawParts(desc: usize, parts: i32, cols: usize, stride: usize, n: i32, x: i32, y: i32, z: i32, w: i32): void {
-  sx = x;
-  sy = y;
-  sz = z;
-  sw = w;
   for (let i = 0; i < parts; i++) {
     const d = desc + (<usize>i << 6);
     const kind = <i32>load<f64>(d);
@@ -123,28 +105,64 @@ export function drawParts(desc: usize, parts: i32, cols: usize, stride: usize, n
     const out = cols + <usize>i * stride;
     if (kind == CONSTANT) {
       for (let j = 0; j < n; j++) {
-        nextWord();
+        const t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
         store<f64>(out + (<usize>j << 3), a);
       }
     } else if (kind == AFFINE) {
-      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), a + b * nextUniform());
-    } else if (kind == NORMAL) {
-      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), normalQuantile(nextUniform(), a, b));
-    } else if (kind == TRUNCATED) {
-      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), clamp(normalQuantile(a + b * nextUniform(), c, e), f, g));
-    } else if (kind == TRIANGULAR) {
       for (let j = 0; j < n; j++) {
-        const u = nextUniform();
-        store<f64>(out + (<usize>j << 3), u < c ? a + Math.sqrt(u * e) : b - Math.sqrt((1 - u) * f));
+        const t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
+        store<f64>(out + (<usize>j << 3), a + b * (<f64>(<u32>w) * TWO_TO_MINUS_32));
       }
     } else {
-      // BINNED
+      // The other kinds: the uniforms first (as fillXor128), then the transform in its own pass.
       for (let j = 0; j < n; j++) {
-        const v = 2 * b * nextUniform();
-        const p = v < b ? a + v : c + (v - b);
-        store<f64>(out + (<usize>j << 3), clamp(normalQuantile(p, e, f), g, h));
+        const t = x ^ (x << 11);
+        x = y;
+        y = z;
+        z = w;
+        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
+        store<f64>(out + (<usize>j << 3), <f64>(<u32>w) * TWO_TO_MINUS_32);
       }
+      if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity);
+      else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g);
+      else if (kind == TRIANGULAR) triangularPass(out, n, a, b, c, e, f);
+      else binnedPass(out, n, a, b, c, e, f, g, h);
     }
+  }
+}
+
+/** u → clamp(mean + sigma·Φ⁻¹(pLo + span·u), lo, hi) in place (a plain normal: pLo 0, span 1, no clamp bites). */
+function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
+  const plain = pLo == 0 && span == 1;
+  for (let j = 0; j < n; j++) {
+    const at = buf + (<usize>j << 3);
+    const u = load<f64>(at);
+    store<f64>(at, plain ? normalQuantile(u, mean, sigma) : clamp(normalQuantile(pLo + span * u, mean, sigma), lo, hi));
+  }
+}
+
+function triangularPass(buf: usize, n: i32, lo: f64, hi: f64, split: f64, left: f64, right: f64): void {
+  for (let j = 0; j < n; j++) {
+    const at = buf + (<usize>j << 3);
+    const u = load<f64>(at);
+    store<f64>(at, u < split ? lo + Math.sqrt(u * left) : hi - Math.sqrt((1 - u) * right));
+  }
+}
+
+function binnedPass(buf: usize, n: i32, lowStart: f64, pieceMass: f64, highStart: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
+  for (let j = 0; j < n; j++) {
+    const at = buf + (<usize>j << 3);
+    const v = 2 * pieceMass * load<f64>(at);
+    const p = v < pieceMass ? lowStart + v : highStart + (v - pieceMass);
+    store<f64>(at, clamp(normalQuantile(p, mean, sigma), lo, hi));
   }
 }
 

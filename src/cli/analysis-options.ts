@@ -3,6 +3,7 @@
 // (src/design/analysis-choice.ts), and the terminal progress the studies report to.
 import { Option } from 'commander';
 import type { CommandLineAnalysis, ProgressFactory } from '../design/analysis-choice.js';
+import { KERNEL_CHOICES, type KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import { InputError } from '../errors.js';
 import { integerOption } from './option-parsers.js';
 import { createProgress } from './progress.js';
@@ -55,11 +56,18 @@ export function workersFlag(): Option {
   return new Option('--workers <n>', "worker threads, capped at the cores; results do not depend on it (default: the file's, else one per 1e6 trials up to every core)").argParser(workersOption('--workers'));
 }
 
-/** The parsed --seed, --trials and --workers as commander gives them. */
+/** `--kernel <auto|js|wasm>`: which chunk kernel computes the Monte Carlo (src/analysis/kernel/choice.ts). */
+export function kernelFlag(): Option {
+  return new Option('--kernel <name>', 'Monte Carlo kernel: wasm, js (the reference), or auto (wasm where it covers the design); both give the same numbers (default: auto)')
+    .choices(KERNEL_CHOICES);
+}
+
+/** The parsed --seed, --trials, --workers and --kernel as commander gives them. */
 export interface AnalysisCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
+  kernel?: KernelChoice;
 }
 
 /** What the command line asks of the analysis (only the options given; the design file and defaults fill the rest). */
@@ -68,6 +76,7 @@ export function commandLineAnalysis(options: AnalysisCliOptions): CommandLineAna
   if (options.trials !== undefined) cli.trials = options.trials;
   if (options.seed !== undefined) cli.seed = options.seed;
   if (options.workers !== undefined) cli.workers = options.workers;
+  if (options.kernel !== undefined) cli.kernel = options.kernel;
   return cli;
 }
 

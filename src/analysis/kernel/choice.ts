@@ -9,9 +9,9 @@ import type { ModelSource } from '../model-source.js';
 import { kernelSupports } from './supports.js';
 import { WasmChunkRunner } from './wasm-runner.js';
 
-export const KERNEL_CHOICES = ['auto', 'js', 'wasm'] as const;
-export type KernelChoice = (typeof KERNEL_CHOICES)[number];
-export type KernelName = 'js' | 'wasm';
+import type { KernelChoice, KernelName } from './kernel-choices.js';
+
+export type { KernelChoice, KernelName } from './kernel-choices.js';
 
 /** The kernel a run uses. Throws InputError when `wasm` is asked for a design the kernel does not implement. */
 export function chooseKernel(choice: KernelChoice, source: ModelSource | undefined): KernelName {
