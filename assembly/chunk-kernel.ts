@@ -17,9 +17,41 @@ export { exactLog };
 
 const TWO_TO_MINUS_32: f64 = 2.3283064365386963e-10;
 
-// The state lives in locals of drawParts (x, y, z, w): a WebAssembly global is memory to the engine, and keeping
-// the four words there cost a load and a store per word per draw. XOR128_STEP advances them and leaves the new
-// word in w; it is pasted into each loop (AssemblyScript inlines functions, not assignments to the caller's locals).
+/**
+ * Uniforms for up to four parts at once, one part per SIMD lane: each group of the table (80 bytes: the x, y, z and
+ * w words of four states as i32x4 vectors, then four column addresses) runs four xor128 streams side by side for n
+ * steps and stores lane l's (w >>> 0)·2^−32 into column l. The caller starts each part at its own stretch of the
+ * chunk's stream (src/analysis/kernel/xor128-jump.ts), so the values are those of the one sequential stream.
+ * XOR is associative, so the order of the step's XORs does not change a bit.
+ */
+export function generate(groups: usize, count: i32, n: i32): void {
+  const scale = f64x2.splat(TWO_TO_MINUS_32);
+  for (let q = 0; q < count; q++) {
+    const g = groups + <usize>q * 80;
+    let x = v128.load(g);
+    let y = v128.load(g, 16);
+    let z = v128.load(g, 32);
+    let w = v128.load(g, 48);
+    const c0 = <usize>load<u32>(g, 64);
+    const c1 = <usize>load<u32>(g, 68);
+    const c2 = <usize>load<u32>(g, 72);
+    const c3 = <usize>load<u32>(g, 76);
+    for (let j = 0; j < n; j++) {
+      const t = v128.xor(x, i32x4.shl(x, 11));
+      x = y;
+      y = z;
+      z = w;
+      w = v128.xor(v128.xor(w, i32x4.shr_u(w, 19)), v128.xor(t, i32x4.shr_u(t, 8)));
+      const low = f64x2.mul(f64x2.convert_low_i32x4_u(w), scale);
+      const high = f64x2.mul(f64x2.convert_low_i32x4_u(v128.shuffle<i32>(w, w, 2, 3, 0, 1)), scale);
+      const off = <usize>j << 3;
+      store<f64>(c0 + off, f64x2.extract_lane(low, 0));
+      store<f64>(c1 + off, f64x2.extract_lane(low, 1));
+      store<f64>(c2 + off, f64x2.extract_lane(high, 0));
+      store<f64>(c3 + off, f64x2.extract_lane(high, 1));
+    }
+  }
+}
 
 // ---------------------------------------------------------------------------------------------------------------
 // Inverse normal CDF: Peter J. Acklam's rational approximation (2003), the constants and branches of
@@ -91,7 +123,11 @@ const BINNED = 5;
   return x < lo ? lo : x > hi ? hi : x;
 }
 
-export function drawParts(desc: usize, parts: i32, cols: usize, stride: usize, n: i32, x: i32, y: i32, z: i32, w: i32): void {
+/**
+ * In place, each part's column from its uniforms (left there by generate) to its values; a constant part's column
+ * is filled (its stretch of the stream is skipped by the caller's jump, as skipXor128 does).
+ */
+export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n: i32): void {
   for (let i = 0; i < parts; i++) {
     const d = desc + (<usize>i << 6);
     const kind = <i32>load<f64>(d);
@@ -104,38 +140,22 @@ export function drawParts(desc: usize, parts: i32, cols: usize, stride: usize, n
     const h = load<f64>(d, 56);
     const out = cols + <usize>i * stride;
     if (kind == CONSTANT) {
-      for (let j = 0; j < n; j++) {
-        const t = x ^ (x << 11);
-        x = y;
-        y = z;
-        z = w;
-        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
-        store<f64>(out + (<usize>j << 3), a);
-      }
-    } else if (kind == AFFINE) {
-      for (let j = 0; j < n; j++) {
-        const t = x ^ (x << 11);
-        x = y;
-        y = z;
-        z = w;
-        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
-        store<f64>(out + (<usize>j << 3), a + b * (<f64>(<u32>w) * TWO_TO_MINUS_32));
-      }
-    } else {
-      // The other kinds: the uniforms first (as fillXor128), then the transform in its own pass.
-      for (let j = 0; j < n; j++) {
-        const t = x ^ (x << 11);
-        x = y;
-        y = z;
-        z = w;
-        w ^= (<i32>(<u32>w >> 19)) ^ t ^ (<i32>(<u32>t >> 8));
-        store<f64>(out + (<usize>j << 3), <f64>(<u32>w) * TWO_TO_MINUS_32);
-      }
-      if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity);
-      else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g);
-      else if (kind == TRIANGULAR) triangularPass(out, n, a, b, c, e, f);
-      else binnedPass(out, n, a, b, c, e, f, g, h);
-    }
+      for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), a);
+    } else if (kind == AFFINE) affinePass(out, n, a, b);
+    else if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity);
+    else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g);
+    else if (kind == TRIANGULAR) triangularPass(out, n, a, b, c, e, f);
+    else binnedPass(out, n, a, b, c, e, f, g, h);
+  }
+}
+
+/** lo + width·u in place, two values per SIMD step (each lane the scalar expression's bits); n rounded up to even. */
+function affinePass(buf: usize, n: i32, lo: f64, width: f64): void {
+  const l = f64x2.splat(lo);
+  const k = f64x2.splat(width);
+  for (let j = 0; j < n; j += 2) {
+    const at = buf + (<usize>j << 3);
+    v128.store(at, f64x2.add(l, f64x2.mul(k, v128.load(at))));
   }
 }
 
@@ -201,7 +221,7 @@ const SENSE_NONINV = 2;
 
 const REFERENCE_TEMPERATURE_C: f64 = 25;
 
-// Column pointers of one evaluation (globals: set once per call, read in the loop).
+// Column pointers of one evaluation (globals: set once per call, read before the loop).
 let cols: usize = 0;
 let colStride: usize = 0;
 
@@ -209,13 +229,30 @@ let colStride: usize = 0;
   return cols + <usize>load<i32>(lay + (<usize>slot << 2)) * colStride;
 }
 
-@inline function at(column: usize, off: usize): f64 {
-  return load<f64>(column + off);
+// Two trials per SIMD step: every f64x2 operation gives in each lane the bits of the scalar operation (IEEE 754
+// add, sub, mul, div and sqrt are correctly rounded, lane by lane), so the loops below are the reference's
+// per-trial formulas, two trials at a time. A chunk of odd length computes one trial past its end, in columns that
+// have room for it; nothing reads that value.
+@inline function add(a: v128, b: v128): v128 {
+  return f64x2.add(a, b);
+}
+@inline function sub(a: v128, b: v128): v128 {
+  return f64x2.sub(a, b);
+}
+@inline function mul(a: v128, b: v128): v128 {
+  return f64x2.mul(a, b);
+}
+@inline function div(a: v128, b: v128): v128 {
+  return f64x2.div(a, b);
+}
+@inline function at(column: usize, off: usize): v128 {
+  return v128.load(column + off);
 }
 
 /** value·(1 + drift)·(1 + coefficient·ΔT): scaledColumn of supply.ts. */
-@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: f64): f64 {
-  return at(v, off) * (1 + at(d, off)) * (1 + at(c, off) * dT);
+@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: v128): v128 {
+  const one = f64x2.splat(1);
+  return mul(mul(at(v, off), add(one, at(d, off))), add(one, mul(at(c, off), dT)));
 }
 
 /**
@@ -227,7 +264,8 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
   cols = partCols;
   colStride = stride;
   const tCol = col(lay, L_T);
-  const tFixed = load<f64>(par, P_FIXED_T << 3);
+  const tFixed = f64x2.splat(load<f64>(par, P_FIXED_T << 3));
+  const room = f64x2.splat(REFERENCE_TEMPERATURE_C);
   const refV = col(lay, L_REF), refD = col(lay, L_REF + 1), refC = col(lay, L_REF + 2);
   const taV = col(lay, L_TOP), taD = col(lay, L_TOP + 1), taC = col(lay, L_TOP + 2);
   const topHasB = load<i32>(lay, (L_TOP + 3) << 2);
@@ -239,40 +277,40 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
   const bbV = col(lay, L_BOTTOM + 4), bbD = col(lay, L_BOTTOM + 5), bbC = col(lay, L_BOTTOM + 6);
   const bottomParallel = load<i32>(lay, (L_BOTTOM + 7) << 2);
   const bpV = col(lay, L_BOTTOM + 8), bpD = col(lay, L_BOTTOM + 9), bpC = col(lay, L_BOTTOM + 10);
-  const wiperTop = load<f64>(par, P_WIPER_TOP << 3);
-  const wiperBottom = load<f64>(par, P_WIPER_BOTTOM << 3);
+  const wiperTop = f64x2.splat(load<f64>(par, P_WIPER_TOP << 3));
+  const wiperBottom = f64x2.splat(load<f64>(par, P_WIPER_BOTTOM << 3));
   const ifb = col(lay, L_IFB);
   const vout = out;
   const dividerCurrent = out + stride;
-  for (let j = 0; j < n; j++) {
+  for (let j = 0; j < n; j += 2) {
     const off = <usize>j << 3;
-    const dT = (fixedT != 0 ? tFixed : at(tCol, off)) - REFERENCE_TEMPERATURE_C;
+    const dT = sub(fixedT != 0 ? tFixed : at(tCol, off), room);
     const v = scaled(refV, refD, refC, off, dT);
     const top = leg(taV, taD, taC, topHasB, tbV, tbD, tbC, topParallel, tpV, tpD, tpC, wiperTop, off, dT);
     const bottom = leg(baV, baD, baC, bottomHasB, bbV, bbD, bbC, bottomParallel, bpV, bpD, bpC, wiperBottom, off, dT);
     // dividerVout (src/circuits/divider.ts): Vref + Rtop·(Vref/Rbottom + Ifb); divider current Vref/Rbottom.
-    store<f64>(vout + off, v + top * (v / bottom + at(ifb, off)));
-    store<f64>(dividerCurrent + off, v / bottom);
+    v128.store(vout + off, add(v, mul(top, add(div(v, bottom), at(ifb, off)))));
+    v128.store(dividerCurrent + off, div(v, bottom));
   }
   if (load<i32>(lay, L_SENSE << 2) != SENSE_NONE) evaluateSense(lay, par, n, out + 2 * stride, stride, fixedT != 0, tFixed, tCol, refV, refD, refC);
 }
 
 /** One divider leg: a, or a ∥ b, or a + b, then + wiper·pot (a missing pot is the zero column and wiper 0). */
-@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: f64, off: usize, dT: f64): f64 {
+@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: v128, off: usize, dT: v128): v128 {
   const a = scaled(aV, aD, aC, off, dT);
   let r = a;
   if (hasB != 0) {
     const b = scaled(bV, bD, bC, off, dT);
-    r = parallel != 0 ? (a * b) / (a + b) : a + b;
+    r = parallel != 0 ? div(mul(a, b), add(a, b)) : add(a, b);
   }
-  return r + wiper * scaled(pV, pD, pC, off, dT);
+  return add(r, mul(wiper, scaled(pV, pD, pC, off, dT)));
 }
 
 /**
  * The sense path (supply.ts senseBlock and src/circuits/sense/*): the limit current, found again with the shunt at
  * its self-heated resistance when it heats itself, the shunt loss there and the amplifier output there.
  */
-function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize, useFixed: bool, tFixed: f64, tCol: usize, refV: usize, refD: usize, refC: usize): void {
+function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize, useFixed: bool, tFixed: v128, tCol: usize, refV: usize, refD: usize, refC: usize): void {
   const kind = load<i32>(lay, L_SENSE << 2);
   const thMode = load<i32>(lay, L_TH_MODE << 2);
   const thV = col(lay, L_TH_FIXED), thD = col(lay, L_TH_FIXED + 1), thC = col(lay, L_TH_FIXED + 2);
@@ -288,77 +326,84 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
   const g3V = col(lay, L_GAIN + 9), g3D = col(lay, L_GAIN + 10), g3C = col(lay, L_GAIN + 11);
   const shV = col(lay, L_SHUNT), shD = col(lay, L_SHUNT + 1), shC = col(lay, L_SHUNT + 2);
   const selfHeating = load<i32>(lay, L_SELF_HEATING << 2);
-  const commonMode = load<f64>(par, P_COMMON_MODE << 3);
-  const theta = load<f64>(par, P_THETA << 3);
+  const commonMode = f64x2.splat(load<f64>(par, P_COMMON_MODE << 3));
+  const theta = f64x2.splat(load<f64>(par, P_THETA << 3));
+  const room = f64x2.splat(REFERENCE_TEMPERATURE_C);
+  const one = f64x2.splat(1);
+  const zero = f64x2.splat(0);
   const limitOut = out;
   const lossOut = out + stride;
   const ampOut = out + 2 * stride;
-  for (let j = 0; j < n; j++) {
+  for (let j = 0; j < n; j += 2) {
     const off = <usize>j << 3;
-    const dT = (useFixed ? tFixed : at(tCol, off)) - REFERENCE_TEMPERATURE_C;
-    let threshold: f64;
+    const dT = sub(useFixed ? tFixed : at(tCol, off), room);
+    let threshold: v128;
     if (thMode == 0) threshold = scaled(thV, thD, thC, off, dT);
     else {
       const source = thMode == 1 ? scaled(refV, refD, refC, off, dT) : scaled(sV, sD, sC, off, dT);
       const rt = scaled(ttV, ttD, ttC, off, dT);
       const rb = scaled(tbV, tbD, tbC, off, dT);
-      threshold = (source * rb) / (rt + rb);
+      threshold = div(mul(source, rb), add(rt, rb));
     }
     const compareOffset = at(compare, off);
     const rAmbient = scaled(shV, shD, shC, off, dT);
     let shunt = rAmbient;
-    let current: f64;
-    let signal: f64;
+    let current: v128;
+    let signal: v128;
     if (kind == SENSE_DIRECT) {
       // src/circuits/sense/direct.ts
-      current = (threshold - compareOffset) / shunt;
+      current = div(sub(threshold, compareOffset), shunt);
       if (selfHeating != 0) {
-        shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
-        current = (threshold - compareOffset) / shunt;
+        shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+        current = div(sub(threshold, compareOffset), shunt);
       }
-      signal = current * shunt;
+      signal = mul(current, shunt);
     } else {
-      const amplifierOffset = ampHasDrift != 0 ? at(ampOffset, off) + at(ampDrift, off) * dT : at(ampOffset, off) + 0;
+      const amplifierOffset = ampHasDrift != 0 ? add(at(ampOffset, off), mul(at(ampDrift, off), dT)) : add(at(ampOffset, off), zero);
       const biasCurrent = at(ampBias, off);
       if (kind == SENSE_NONINV) {
         // src/circuits/sense/noninv.ts
         const feedback = scaled(g0V, g0D, g0C, off, dT);
         const ground = scaled(g1V, g1D, g1C, off, dT);
-        const gain = 1 + feedback / ground;
-        current = ((threshold - compareOffset - biasCurrent * feedback) / gain - amplifierOffset) / shunt;
+        const gain = add(one, div(feedback, ground));
+        const drive = sub(sub(threshold, compareOffset), mul(biasCurrent, feedback));
+        current = div(sub(div(drive, gain), amplifierOffset), shunt);
         if (selfHeating != 0) {
-          shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
-          current = ((threshold - compareOffset - biasCurrent * feedback) / gain - amplifierOffset) / shunt;
+          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+          current = div(sub(div(drive, gain), amplifierOffset), shunt);
         }
-        signal = gain * (current * shunt + amplifierOffset) + biasCurrent * feedback;
+        signal = add(mul(gain, add(mul(current, shunt), amplifierOffset)), mul(biasCurrent, feedback));
       } else {
         // src/circuits/sense/diff.ts
         const r1 = scaled(g0V, g0D, g0C, off, dT);
         const r2 = scaled(g1V, g1D, g1C, off, dT);
         const r3 = scaled(g2V, g2D, g2C, off, dT);
         const r4 = scaled(g3V, g3D, g3C, off, dT);
-        const plusGain = (r4 / (r3 + r4)) * (1 + r2 / r1);
-        const sourceAtPlus = (r3 * r4) / (r3 + r4);
-        const offsetTerm = (1 + r2 / r1) * (amplifierOffset - biasCurrent * sourceAtPlus) + biasCurrent * r2;
-        const commonModeOut = (plusGain - r2 / r1) * commonMode;
-        current = (threshold - compareOffset - commonModeOut - offsetTerm) / (plusGain * shunt);
+        const ratio = div(r2, r1);
+        const plusGain = mul(div(r4, add(r3, r4)), add(one, ratio));
+        const sourceAtPlus = div(mul(r3, r4), add(r3, r4));
+        const offsetTerm = add(mul(add(one, ratio), sub(amplifierOffset, mul(biasCurrent, sourceAtPlus))), mul(biasCurrent, r2));
+        const commonModeOut = mul(sub(plusGain, ratio), commonMode);
+        const drive = sub(sub(sub(threshold, compareOffset), commonModeOut), offsetTerm);
+        current = div(drive, mul(plusGain, shunt));
         if (selfHeating != 0) {
-          shunt = hotShunt(rAmbient, at(shV, off) * (1 + at(shD, off)), at(shC, off), theta, current * rAmbient);
-          current = (threshold - compareOffset - commonModeOut - offsetTerm) / (plusGain * shunt);
+          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+          current = div(drive, mul(plusGain, shunt));
         }
-        const vp = commonMode + current * shunt;
-        signal = plusGain * vp - (r2 / r1) * commonMode + offsetTerm;
+        const vp = add(commonMode, mul(current, shunt));
+        signal = add(sub(mul(plusGain, vp), mul(ratio, commonMode)), offsetTerm);
       }
     }
-    store<f64>(limitOut + off, current);
-    store<f64>(lossOut + off, current * current * shunt);
-    store<f64>(ampOut + off, signal);
+    v128.store(limitOut + off, current);
+    v128.store(lossOut + off, mul(mul(current, current), shunt));
+    v128.store(ampOut + off, signal);
   }
 }
 
 /** supply.ts hotShunt: the self-heated shunt, (R_amb + √(R_amb² + 4·R25·α·θ·K²))/2. */
-@inline function hotShunt(rAmbient: f64, r25: f64, alpha: f64, theta: f64, k: f64): f64 {
-  return (rAmbient + Math.sqrt(rAmbient * rAmbient + 4 * r25 * alpha * theta * k * k)) / 2;
+@inline function hotShunt(rAmbient: v128, r25: v128, alpha: v128, theta: v128, k: v128): v128 {
+  const inside = add(mul(rAmbient, rAmbient), mul(mul(mul(mul(mul(f64x2.splat(4), r25), alpha), theta), k), k));
+  return div(add(rAmbient, f64x2.sqrt(inside)), f64x2.splat(2));
 }
 
 // ---------------------------------------------------------------------------------------------------------------

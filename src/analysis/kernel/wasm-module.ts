@@ -10,7 +10,8 @@ export const KERNEL_WASM = join(PROJECT_ROOT, 'dist', 'src', 'analysis', 'kernel
 /** The kernel's exports (addresses are byte offsets into `memory`). */
 export interface KernelExports {
   memory: WebAssembly.Memory;
-  drawParts(desc: number, parts: number, cols: number, stride: number, n: number, x: number, y: number, z: number, w: number): void;
+  generate(groups: number, count: number, n: number): void;
+  transform(desc: number, parts: number, cols: number, stride: number, n: number): void;
   evaluate(lay: number, par: number, cols: number, stride: number, n: number, out: number, fixedT: number): void;
   reduce(x: number, n: number, lo: number, scale: number, bins: number, counts: number, specLo: number, specHi: number, res: number): void;
   markInside(x: number, n: number, lo: number, hi: number, pass: number): void;

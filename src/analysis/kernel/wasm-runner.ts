@@ -3,7 +3,7 @@
 // and reduces; this file lays out the kernel's memory once, seeds each chunk (SHA-256 of (seed, k), chunk-random.ts)
 // and turns the kernel's results into the summary (the chunk's own 95 % interval, when asked, as ChunkRunner does).
 import { chunkLength, type ChunkConfig, type ChunkSummary, type OutputChunk } from '../chunk.js';
-import { chunkStateWords } from '../chunk-random.js';
+import { chunkState } from '../chunk-random.js';
 import type { Model } from '../model.js';
 import type { SupplySpec } from '../models/supply.js';
 import { coverageCount, symmetricIntervalOf, symmetricStartRank } from '../statistics/coverage.js';
@@ -11,6 +11,7 @@ import type { FineHistogram } from '../statistics/histogram.js';
 import { OrderStatistics } from '../statistics/order-statistics.js';
 import { checkedOutputs, type CheckedOutput } from '../unit-check.js';
 import { kernelLayout, P_FIXED_T } from './layout.js';
+import { applyBitMatrix, jumpMatrix } from './xor128-jump.js';
 import { instantiateKernel, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
@@ -44,6 +45,10 @@ export class WasmChunkRunner {
   private readonly checked: CheckedOutput[];
   private readonly gridC: number[] | null;
   private readonly countStride: number;
+  /** Parts that draw (not constant), in order: they are generated four at a time. */
+  private readonly drawing: number[];
+  private readonly groups: number;
+  private readonly spare: number;
 
   /** With `reuse`, the summary's counts are views of the kernel's memory, valid until the next run (as ChunkRunner's). */
   constructor(
@@ -67,6 +72,9 @@ export class WasmChunkRunner {
     this.par = arena.take(tables.parameters.byteLength);
     this.res = arena.take(RESULT_FIELDS * 8);
     this.cols = arena.take(this.stride * (this.parts + 1));
+    this.drawing = model.parts.map((_, i) => i).filter((i) => tables.descriptors[8 * i] !== 0);
+    this.groups = arena.take(80 * Math.ceil(this.drawing.length / 4));
+    this.spare = arena.take(this.stride);
     this.outs = arena.take(this.stride * outputs);
     this.ambientOuts = arena.take(this.stride * outputs);
     this.counts = arena.take(4 * this.countStride * outputs);
@@ -87,8 +95,9 @@ export class WasmChunkRunner {
     const { config, model } = this;
     const kernel = this.k;
     const n = chunkLength(config, k);
-    const s = chunkStateWords(config.seed, k);
-    kernel.drawParts(this.desc, this.parts, this.cols, this.stride, n, s.x, s.y, s.z, s.w);
+    this.startStreams(chunkState(config.seed, k), n);
+    kernel.generate(this.groups, Math.ceil(this.drawing.length / 4), n);
+    kernel.transform(this.desc, this.parts, this.cols, this.stride, n);
     kernel.evaluate(this.lay, this.par, this.cols, this.stride, n, this.outs, 0);
     const buffer = kernel.memory.buffer;
     const outputCount = model.outputs.length;
@@ -119,6 +128,28 @@ export class WasmChunkRunner {
     const allInSpec = kernel.countOnes(this.all, n);
     if (!this.reuse) this.detachCounts(outputs, ambient);
     return { k, outputs, allInSpec, ambient };
+  }
+
+  /**
+   * The groups table of assembly/chunk-kernel.ts generate: part i's stream starts i·n steps into the chunk's
+   * (xor128-jump.ts), four drawing parts per group, a short last group padded with the spare column.
+   */
+  private startStreams(state: Int32Array, n: number): void {
+    const jump = jumpMatrix(n);
+    const table = new Int32Array(this.k.memory.buffer, this.groups, 20 * Math.ceil(this.drawing.length / 4));
+    table.fill(0);
+    let next = 0;
+    for (let i = 0; i < this.parts; i++) {
+      if (next < this.drawing.length && this.drawing[next] === i) {
+        const g = 20 * Math.floor(next / 4);
+        const lane = next % 4;
+        for (let word = 0; word < 4; word++) table[g + 4 * word + lane] = state[word]!;
+        table[g + 16 + lane] = this.cols + i * this.stride;
+        next++;
+      }
+      applyBitMatrix(jump, state, state);
+    }
+    for (let pad = next; pad % 4 !== 0; pad++) table[20 * Math.floor(pad / 4) + 16 + (pad % 4)] = this.spare;
   }
 
   /** Copies the counts out of the kernel's memory (one buffer for the drawn outputs, one for the grid), for transfer. */
