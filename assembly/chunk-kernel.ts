@@ -18,16 +18,18 @@ export { exactLog };
 const TWO_TO_MINUS_32: f64 = 2.3283064365386963e-10;
 
 /**
- * Uniforms for up to four parts at once, one part per SIMD lane: each group of the table (80 bytes: the x, y, z and
- * w words of four states as i32x4 vectors, then four column addresses) runs four xor128 streams side by side for n
- * steps and stores lane l's (w >>> 0)·2^−32 into column l. The caller starts each part at its own stretch of the
- * chunk's stream (src/analysis/kernel/xor128-jump.ts), so the values are those of the one sequential stream.
- * XOR is associative, so the order of the step's XORs does not change a bit.
+ * Uniforms for up to four parts at once, one part per SIMD lane: each group of the table (144 bytes: the x, y, z
+ * and w words of four states as i32x4 vectors, four column addresses, then lo and width of each lane as f64) runs
+ * four xor128 streams side by side for n steps and stores lane l's lo + width·((w >>> 0)·2^−32) into column l: a
+ * uniform part's values at once (fillXor128Affine's expression), the bare uniform for any other part (lo 0, width
+ * 1: 0 + 1·u = u exactly). The caller starts each part at its own stretch of the chunk's stream
+ * (src/analysis/kernel/xor128-jump.ts), so the values are those of the one sequential stream. XOR is associative,
+ * so the order of the step's XORs does not change a bit.
  */
 export function generate(groups: usize, count: i32, n: i32): void {
   const scale = f64x2.splat(TWO_TO_MINUS_32);
   for (let q = 0; q < count; q++) {
-    const g = groups + <usize>q * 80;
+    const g = groups + <usize>q * 144;
     let x = v128.load(g);
     let y = v128.load(g, 16);
     let z = v128.load(g, 32);
@@ -36,14 +38,18 @@ export function generate(groups: usize, count: i32, n: i32): void {
     const c1 = <usize>load<u32>(g, 68);
     const c2 = <usize>load<u32>(g, 72);
     const c3 = <usize>load<u32>(g, 76);
+    const lo01 = v128.load(g, 80);
+    const lo23 = v128.load(g, 96);
+    const width01 = v128.load(g, 112);
+    const width23 = v128.load(g, 128);
     for (let j = 0; j < n; j++) {
       const t = v128.xor(x, i32x4.shl(x, 11));
       x = y;
       y = z;
       z = w;
       w = v128.xor(v128.xor(w, i32x4.shr_u(w, 19)), v128.xor(t, i32x4.shr_u(t, 8)));
-      const low = f64x2.mul(f64x2.convert_low_i32x4_u(w), scale);
-      const high = f64x2.mul(f64x2.convert_low_i32x4_u(v128.shuffle<i32>(w, w, 2, 3, 0, 1)), scale);
+      const low = f64x2.add(lo01, f64x2.mul(width01, f64x2.mul(f64x2.convert_low_i32x4_u(w), scale)));
+      const high = f64x2.add(lo23, f64x2.mul(width23, f64x2.mul(f64x2.convert_low_i32x4_u(v128.shuffle<i32>(w, w, 2, 3, 0, 1)), scale)));
       const off = <usize>j << 3;
       store<f64>(c0 + off, f64x2.extract_lane(low, 0));
       store<f64>(c1 + off, f64x2.extract_lane(low, 1));
@@ -141,7 +147,7 @@ export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n
     const out = cols + <usize>i * stride;
     if (kind == CONSTANT) {
       for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), a);
-    } else if (kind == AFFINE) affinePass(out, n, a, b);
+    } else if (kind == AFFINE) continue; // drawn and scaled by generate
     else if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity);
     else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g);
     else if (kind == TRIANGULAR) triangularPass(out, n, a, b, c, e, f);
@@ -149,41 +155,83 @@ export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n
   }
 }
 
-/** lo + width·u in place, two values per SIMD step (each lane the scalar expression's bits); n rounded up to even. */
-function affinePass(buf: usize, n: i32, lo: f64, width: f64): void {
-  const l = f64x2.splat(lo);
-  const k = f64x2.splat(width);
+/**
+ * u → clamp(mean + sigma·Φ⁻¹(pLo + span·u), lo, hi) in place (a plain normal: pLo 0, span 1, lo −∞, hi +∞, which
+ * give u and no clamp, to the bit). Two values per SIMD step through the central rational function; a step with a
+ * tail value (about one in twenty) redoes its two values with the scalar normalQuantile, as the reference's tail
+ * pass redoes its tail draws. clampBoth is the reference's `x < lo ? lo : x > hi ? hi : x`, lane by lane.
+ */
+function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
+  const vLo = f64x2.splat(pLo);
+  const vSpan = f64x2.splat(span);
+  const vMean = f64x2.splat(mean);
+  const vSigma = f64x2.splat(sigma);
+  const low = f64x2.splat(P_LOW);
+  const high = f64x2.splat(P_HIGH);
+  const half = f64x2.splat(0.5);
+  const bandLo = f64x2.splat(lo);
+  const bandHi = f64x2.splat(hi);
   for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
-    v128.store(at, f64x2.add(l, f64x2.mul(k, v128.load(at))));
+    const p = f64x2.add(vLo, f64x2.mul(vSpan, v128.load(at)));
+    // Central region P_LOW ≤ p ≤ P_HIGH in both lanes?
+    const central = v128.and(f64x2.ge(p, low), f64x2.le(p, high));
+    let x: v128;
+    if (i64x2.all_true(central)) {
+      const q = f64x2.sub(p, half);
+      const r = f64x2.mul(q, q);
+      const num = f64x2.mul(poly6(r, A1, A2, A3, A4, A5, A6), q);
+      const den = poly6(r, B1, B2, B3, B4, B5, 1);
+      x = f64x2.add(vMean, f64x2.mul(vSigma, f64x2.div(num, den)));
+    } else {
+      x = f64x2(normalQuantile(f64x2.extract_lane(p, 0), mean, sigma), normalQuantile(f64x2.extract_lane(p, 1), mean, sigma));
+    }
+    v128.store(at, clampBoth(x, bandLo, bandHi));
   }
 }
 
-/** u → clamp(mean + sigma·Φ⁻¹(pLo + span·u), lo, hi) in place (a plain normal: pLo 0, span 1, no clamp bites). */
-function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
-  const plain = pLo == 0 && span == 1;
-  for (let j = 0; j < n; j++) {
-    const at = buf + (<usize>j << 3);
-    const u = load<f64>(at);
-    store<f64>(at, plain ? normalQuantile(u, mean, sigma) : clamp(normalQuantile(pLo + span * u, mean, sigma), lo, hi));
-  }
+/** ((((c1·r + c2)·r + c3)·r + c4)·r + c5)·r + c6, Horner's scheme as the reference writes it. */
+@inline function poly6(r: v128, c1: f64, c2: f64, c3: f64, c4: f64, c5: f64, c6: f64): v128 {
+  let v = f64x2.add(f64x2.mul(f64x2.splat(c1), r), f64x2.splat(c2));
+  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c3));
+  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c4));
+  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c5));
+  return f64x2.add(f64x2.mul(v, r), f64x2.splat(c6));
 }
 
+@inline function clampBoth(x: v128, lo: v128, hi: v128): v128 {
+  return v128.bitselect(lo, v128.bitselect(hi, x, f64x2.gt(x, hi)), f64x2.lt(x, lo));
+}
+
+/** u < split ? lo + √(u·left) : hi − √((1 − u)·right), both sides computed, each lane picking its own. */
 function triangularPass(buf: usize, n: i32, lo: f64, hi: f64, split: f64, left: f64, right: f64): void {
-  for (let j = 0; j < n; j++) {
+  const vLo = f64x2.splat(lo);
+  const vHi = f64x2.splat(hi);
+  const vSplit = f64x2.splat(split);
+  const vLeft = f64x2.splat(left);
+  const vRight = f64x2.splat(right);
+  const one = f64x2.splat(1);
+  for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
-    const u = load<f64>(at);
-    store<f64>(at, u < split ? lo + Math.sqrt(u * left) : hi - Math.sqrt((1 - u) * right));
+    const u = v128.load(at);
+    const below = f64x2.add(vLo, f64x2.sqrt(f64x2.mul(u, vLeft)));
+    const above = f64x2.sub(vHi, f64x2.sqrt(f64x2.mul(f64x2.sub(one, u), vRight)));
+    v128.store(at, v128.bitselect(below, above, f64x2.lt(u, vSplit)));
   }
 }
 
+/** u → the probability on the low or the high piece (binned.ts), then the normal pass with the band's clamp. */
 function binnedPass(buf: usize, n: i32, lowStart: f64, pieceMass: f64, highStart: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
-  for (let j = 0; j < n; j++) {
+  const twice = f64x2.splat(2 * pieceMass);
+  const mass = f64x2.splat(pieceMass);
+  const vLow = f64x2.splat(lowStart);
+  const vHigh = f64x2.splat(highStart);
+  for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
-    const v = 2 * pieceMass * load<f64>(at);
-    const p = v < pieceMass ? lowStart + v : highStart + (v - pieceMass);
-    store<f64>(at, clamp(normalQuantile(p, mean, sigma), lo, hi));
+    const v = f64x2.mul(twice, v128.load(at));
+    v128.store(at, v128.bitselect(f64x2.add(vLow, v), f64x2.add(vHigh, f64x2.sub(v, mass)), f64x2.lt(v, mass)));
   }
+  normalPass(buf, n, 0, 1, mean, sigma, lo, hi);
 }
 
 // ---------------------------------------------------------------------------------------------------------------

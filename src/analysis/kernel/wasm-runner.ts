@@ -16,6 +16,8 @@ import { instantiateKernel, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
 const RESULT_FIELDS = 9;
+/** One group of assembly/chunk-kernel.ts generate: four states (4 × i32x4), four columns, four lo, four width. */
+const GROUP_BYTES = 144;
 
 /** Bump allocation of the kernel's memory, 16-byte aligned (SIMD loads). */
 class Arena {
@@ -49,6 +51,7 @@ export class WasmChunkRunner {
   private readonly drawing: number[];
   private readonly groups: number;
   private readonly spare: number;
+  private readonly descriptors: Float64Array;
 
   /** With `reuse`, the summary's counts are views of the kernel's memory, valid until the next run (as ChunkRunner's). */
   constructor(
@@ -73,7 +76,8 @@ export class WasmChunkRunner {
     this.res = arena.take(RESULT_FIELDS * 8);
     this.cols = arena.take(this.stride * (this.parts + 1));
     this.drawing = model.parts.map((_, i) => i).filter((i) => tables.descriptors[8 * i] !== 0);
-    this.groups = arena.take(80 * Math.ceil(this.drawing.length / 4));
+    this.groups = arena.take(GROUP_BYTES * Math.ceil(this.drawing.length / 4));
+    this.descriptors = tables.descriptors;
     this.spare = arena.take(this.stride);
     this.outs = arena.take(this.stride * outputs);
     this.ambientOuts = arena.take(this.stride * outputs);
@@ -136,20 +140,33 @@ export class WasmChunkRunner {
    */
   private startStreams(state: Int32Array, n: number): void {
     const jump = jumpMatrix(n);
-    const table = new Int32Array(this.k.memory.buffer, this.groups, 20 * Math.ceil(this.drawing.length / 4));
-    table.fill(0);
+    const groups = Math.ceil(this.drawing.length / 4);
+    const buffer = this.k.memory.buffer;
+    const words = new Int32Array(buffer, this.groups, (GROUP_BYTES / 4) * groups);
+    const scales = new Float64Array(buffer, this.groups, (GROUP_BYTES / 8) * groups);
+    words.fill(0);
+    const place = (slot: number, column: number, lo: number, width: number): void => {
+      const g = Math.floor(slot / 4);
+      const lane = slot % 4;
+      words[(GROUP_BYTES / 4) * g + 16 + lane] = column;
+      scales[(GROUP_BYTES / 8) * g + 10 + lane] = lo;
+      scales[(GROUP_BYTES / 8) * g + 14 + lane] = width;
+    };
     let next = 0;
     for (let i = 0; i < this.parts; i++) {
       if (next < this.drawing.length && this.drawing[next] === i) {
-        const g = 20 * Math.floor(next / 4);
+        const g = (GROUP_BYTES / 4) * Math.floor(next / 4);
         const lane = next % 4;
-        for (let word = 0; word < 4; word++) table[g + 4 * word + lane] = state[word]!;
-        table[g + 16 + lane] = this.cols + i * this.stride;
+        for (let word = 0; word < 4; word++) words[g + 4 * word + lane] = state[word]!;
+        // A uniform part (descriptor kind 1) is scaled as it is drawn; any other gets the bare uniform.
+        const d = 8 * i;
+        const affine = this.descriptors[d] === 1;
+        place(next, this.cols + i * this.stride, affine ? this.descriptors[d + 1]! : 0, affine ? this.descriptors[d + 2]! : 1);
         next++;
       }
       applyBitMatrix(jump, state, state);
     }
-    for (let pad = next; pad % 4 !== 0; pad++) table[20 * Math.floor(pad / 4) + 16 + (pad % 4)] = this.spare;
+    for (let pad = next; pad % 4 !== 0; pad++) place(pad, this.spare, 0, 1);
   }
 
   /** Copies the counts out of the kernel's memory (one buffer for the drawn outputs, one for the grid), for transfer. */
