@@ -461,31 +461,63 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
 export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts: usize, specLo: f64, specHi: f64, res: usize): void {
   const above = bins + 1;
   const binsF = <f64>bins;
-  let min = Infinity;
-  let max = -Infinity;
+  // Two values per step. The sum adds them one at a time in trial order (as the reference does); min and max run
+  // per lane and join at the end, which gives the same result in any order (IEEE 754 minimum/maximum: a NaN wins,
+  // −0 below +0); the window counts are whole numbers, added per lane.
+  let minLanes = f64x2.splat(Infinity);
+  let maxLanes = f64x2.splat(-Infinity);
+  let insideLanes = i64x2.splat(0);
+  let belowLanes = i64x2.splat(0);
+  const vLo = f64x2.splat(lo);
+  const vScale = f64x2.splat(scale);
+  const vSpecLo = f64x2.splat(specLo);
+  const vSpecHi = f64x2.splat(specHi);
   let sum: f64 = 0;
-  let inSpec: i32 = 0;
-  let below: i32 = 0;
-  for (let j = 0; j < n; j++) {
-    const v = load<f64>(x + (<usize>j << 3));
+  const pairs = n & ~1;
+  for (let j = 0; j < pairs; j += 2) {
+    const v = v128.load(x + (<usize>j << 3));
+    minLanes = f64x2.min(minLanes, v);
+    maxLanes = f64x2.max(maxLanes, v);
+    sum += f64x2.extract_lane(v, 0);
+    sum += f64x2.extract_lane(v, 1);
+    const t = f64x2.mul(f64x2.sub(v, vLo), vScale);
+    countBin(counts, f64x2.extract_lane(t, 0), binsF, above);
+    countBin(counts, f64x2.extract_lane(t, 1), binsF, above);
+    // A true comparison is all ones (−1 as an integer): subtracting it counts one.
+    insideLanes = i64x2.sub(insideLanes, v128.and(f64x2.ge(v, vSpecLo), f64x2.le(v, vSpecHi)));
+    belowLanes = i64x2.sub(belowLanes, f64x2.lt(v, vSpecLo));
+  }
+  let min = Math.min(f64x2.extract_lane(minLanes, 0), f64x2.extract_lane(minLanes, 1));
+  let max = Math.max(f64x2.extract_lane(maxLanes, 0), f64x2.extract_lane(maxLanes, 1));
+  let inSpec = <i32>(i64x2.extract_lane(insideLanes, 0) + i64x2.extract_lane(insideLanes, 1));
+  let below = <i32>(i64x2.extract_lane(belowLanes, 0) + i64x2.extract_lane(belowLanes, 1));
+  if (pairs < n) {
+    const v = load<f64>(x + (<usize>pairs << 3));
     min = Math.min(min, v);
     max = Math.max(max, v);
     sum += v;
-    const t = (v - lo) * scale;
-    // ⌊t⌋ + 1 inside the range; a NaN lands in bin 1, as `t | 0` puts it in the reference (any NaN fails the run).
-    const bin = t < 0 ? 0 : t >= binsF ? above : <i32>t + 1;
-    const slot = counts + (<usize>bin << 2);
-    store<u32>(slot, load<u32>(slot) + 1);
+    countBin(counts, (v - lo) * scale, binsF, above);
     inSpec += <i32>(v >= specLo && v <= specHi);
     below += <i32>(v < specLo);
   }
   let nonFinite: i32 = 0;
   if (!isFinite(sum)) for (let j = 0; j < n; j++) nonFinite += <i32>!isFinite(load<f64>(x + (<usize>j << 3)));
   const mean = n > 0 ? sum / <f64>n : 0;
+  // Σ(x − mean)² and Σ(x − mean), each in trial order (the subtraction two lanes at a time).
   let sq: f64 = 0;
   let dev: f64 = 0;
-  for (let j = 0; j < n; j++) {
-    const d = load<f64>(x + (<usize>j << 3)) - mean;
+  const vMean = f64x2.splat(mean);
+  for (let j = 0; j < pairs; j += 2) {
+    const d = f64x2.sub(v128.load(x + (<usize>j << 3)), vMean);
+    const d0 = f64x2.extract_lane(d, 0);
+    const d1 = f64x2.extract_lane(d, 1);
+    sq += d0 * d0;
+    sq += d1 * d1;
+    dev += d0;
+    dev += d1;
+  }
+  if (pairs < n) {
+    const d = load<f64>(x + (<usize>pairs << 3)) - mean;
     sq += d * d;
     dev += d;
   }
@@ -498,6 +530,14 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
   store<f64>(res, sq, 48);
   store<f64>(res, dev, 56);
   store<f64>(res, <f64>nonFinite, 64);
+}
+
+/** counts[⌊t⌋ + 1]++ inside the range, [0] below, [bins + 1] above; a NaN lands in bin 1, as `t | 0` puts it in the
+ *  reference (any NaN fails the run). */
+@inline function countBin(counts: usize, t: f64, binsF: f64, above: i32): void {
+  const bin = t < 0 ? 0 : t >= binsF ? above : <i32>t + 1;
+  const slot = counts + (<usize>bin << 2);
+  store<u32>(slot, load<u32>(slot) + 1);
 }
 
 // ---------------------------------------------------------------------------------------------------------------
