@@ -15,6 +15,31 @@ export const DESCRIPTOR_FIELDS = 8;
 export const LAYOUT_SLOTS = 62;
 export const PARAMETER_SLOTS = 5;
 export const P_FIXED_T = 4;
+const P_WIPER_TOP = 0;
+const P_WIPER_BOTTOM = 1;
+const P_COMMON_MODE = 2;
+const P_THETA = 3;
+
+// Wiring table slots: the L_* constants of assembly/chunk-kernel.ts (a resistor or reference takes three slots:
+// value, drift, tempco or TCR; an absent one holds the column of zeros).
+const L_T = 0;
+const L_REF = 1;
+const L_TOP = 4;
+const L_BOTTOM = 15;
+const L_IFB = 26;
+const L_SENSE = 27;
+const L_TH_MODE = 28;
+const L_TH_FIXED = 29;
+const L_TH_SOURCE = 32;
+const L_TH_TOP = 35;
+const L_COMPARE = 41;
+const L_AMP = 42;
+const L_GAIN = 46;
+const L_SHUNT = 58;
+const L_SELF_HEATING = 61;
+/** Offsets inside a leg's slots: resistor a, hasB, resistor b, parallel, potentiometer. */
+const LEG_HAS_B = 3;
+const LEG_POT = 8;
 
 const CONSTANT = 0;
 const AFFINE = 1;
@@ -98,46 +123,50 @@ export function kernelLayout(spec: SupplySpec, model: Model): KernelLayout {
     return [find(name), optional(r.drift, `${name} drift`), optional(r.tempcoPerK, `${name} tempco`)];
   };
 
-  put(0, find('T ambient'));
-  put(1, ...reference(spec.reference, 'Vref'));
+  put(L_T, find('T ambient'));
+  put(L_REF, ...reference(spec.reference, 'Vref'));
   const legAt = (slot: number, wiperSlot: number, leg: SupplySpec['divider']['top']): void => {
     put(slot, ...resistor(leg.resistors[0]));
     if (leg.resistors.length === 2) {
-      put(slot + 3, 1, ...resistor(leg.resistors[1]), leg.arrangement === 'parallel' ? 1 : 0);
-    } else put(slot + 3, 0);
+      put(slot + LEG_HAS_B, 1, ...resistor(leg.resistors[1]), leg.arrangement === 'parallel' ? 1 : 0);
+    } else put(slot + LEG_HAS_B, 0);
     if (leg.potentiometer) {
-      put(slot + 8, ...resistor(leg.potentiometer));
+      put(slot + LEG_POT, ...resistor(leg.potentiometer));
       parameters[wiperSlot] = leg.potentiometer.wiper;
     }
   };
-  legAt(4, 0, spec.divider.top);
-  legAt(15, 1, spec.divider.bottom);
-  put(26, optional(spec.divider.feedbackBias, 'Ifb'));
+  legAt(L_TOP, P_WIPER_TOP, spec.divider.top);
+  legAt(L_BOTTOM, P_WIPER_BOTTOM, spec.divider.bottom);
+  put(L_IFB, optional(spec.divider.feedbackBias, 'Ifb'));
   const sense = spec.sense;
   if (sense) {
-    put(27, sense.topology === 'direct' ? 1 : sense.topology === 'noninv' ? 2 : 3);
+    put(L_SENSE, sense.topology === 'direct' ? 1 : sense.topology === 'noninv' ? 2 : 3);
     const th = sense.threshold;
     if (th.kind === 'fixed') {
-      put(28, 0);
-      put(29, find('Vth'), zero, optional(th.tempcoPerK, 'Vth tempco'));
+      put(L_TH_MODE, 0);
+      put(L_TH_FIXED, find('Vth'), zero, optional(th.tempcoPerK, 'Vth tempco'));
     } else {
-      if (th.source === 'regulator-reference') put(28, 1);
-      else put(28, 2), put(32, ...reference(th.source, 'Vref threshold'));
-      put(35, ...resistor(th.top), ...resistor(th.bottom));
+      if (th.source === 'regulator-reference') put(L_TH_MODE, 1);
+      else {
+        put(L_TH_MODE, 2);
+        put(L_TH_SOURCE, ...reference(th.source, 'Vref threshold'));
+      }
+      // The divider's top and bottom resistors, in consecutive slots.
+      put(L_TH_TOP, ...resistor(th.top), ...resistor(th.bottom));
     }
-    put(41, optional(sense.compareOffset, 'Vos cmp'));
+    put(L_COMPARE, optional(sense.compareOffset, 'Vos cmp'));
     if (sense.topology !== 'direct') {
       const amp = sense.amplifier;
-      put(42, find('Vos amp'), optional(amp.offsetDriftPerK, 'Vos amp drift'), optional(amp.biasCurrent, 'Ib amp'), amp.offsetDriftPerK ? 1 : 0);
+      put(L_AMP, find('Vos amp'), optional(amp.offsetDriftPerK, 'Vos amp drift'), optional(amp.biasCurrent, 'Ib amp'), amp.offsetDriftPerK ? 1 : 0);
       const gains = sense.topology === 'noninv' ? [sense.rf, sense.rg] : [sense.r1, sense.r2, sense.r3, sense.r4];
-      gains.forEach((r, i) => put(46 + 3 * i, ...resistor(r)));
-      if (sense.topology === 'diff') parameters[2] = sense.commonModeV;
+      gains.forEach((r, i) => put(L_GAIN + 3 * i, ...resistor(r)));
+      if (sense.topology === 'diff') parameters[P_COMMON_MODE] = sense.commonModeV;
     }
-    put(58, ...resistor(sense.shunt));
+    put(L_SHUNT, ...resistor(sense.shunt));
     const theta = sense.shunt.thermalResistanceKPerW ?? 0;
-    parameters[3] = theta;
-    put(61, theta > 0 && sense.shunt.tcrPerK ? 1 : 0);
-  } else put(27, 0);
+    parameters[P_THETA] = theta;
+    put(L_SELF_HEATING, theta > 0 && sense.shunt.tcrPerK ? 1 : 0);
+  } else put(L_SENSE, 0);
   const unused = parts.filter((_, i) => !used.has(i)).map((p) => p.name);
   if (unused.length > 0) throw new Error(`wasm kernel: no role for part${unused.length > 1 ? 's' : ''} ${unused.join(', ')}`);
   const descriptors = new Float64Array(DESCRIPTOR_FIELDS * parts.length);
