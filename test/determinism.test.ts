@@ -1,6 +1,7 @@
 // Determinism as a user sees it, on every example, through the built CLI (npm test builds dist/ first):
 // - one seed gives byte-identical --json for 1, 2 and 4 workers (spread on every example; design at 1 and 4 and
-//   grades at 1 and 2 on one);
+//   grades at 1 and 2 on one); and the JavaScript reference kernel (--kernel js) gives the same bytes as the default
+//   (the WebAssembly kernel on every example) but for the method note that names the kernel;
 // - the seed and the version are in every report: spread and grades text, every JSON, the HTML report;
 // - two seeds agree within their own stated Monte Carlo uncertainty: the means within 4 standard errors of their
 //   difference, 4·σ·√(2/N) (JCGM 101:2008 7.6: the standard error of a Monte Carlo mean is σ/√N; two independent runs
@@ -54,13 +55,17 @@ interface OutputJson {
 describe('every example: byte-identical --json for 1, 2 and 4 workers; two seeds agree within their uncertainty', { timeout: 180_000 }, () => {
   for (const file of EXAMPLES) {
     const path = join('examples', file);
-    it(`${file}: spread at 1, 2, 4 workers (seed 3); spread at seed 4 against seed 3`, async () => {
-      const [s1, s2, s4, other] = await Promise.all([
+    it(`${file}: spread at 1, 2, 4 workers (seed 3), and on the js kernel; spread at seed 4 against seed 3`, async () => {
+      const [s1, s2, s4, other, js] = await Promise.all([
         ...[1, 2, 4].map((w) => ok(['spread', path, ...SPREAD, '--seed', '3', '--workers', String(w)])),
         ok(['spread', path, ...SPREAD, '--seed', '4']),
+        ok(['spread', path, ...SPREAD, '--seed', '3', '--workers', '2', '--kernel', 'js']),
       ]);
       expect(s2).toBe(s1);
       expect(s4).toBe(s1);
+      expect(s1).toContain('"Kernel: wasm');
+      const kernelNote = /"Kernel: [^"]*"/g;
+      expect(js!.replace(kernelNote, '"Kernel"')).toBe(s1!.replace(kernelNote, '"Kernel"'));
       expect(JSON.parse(s1!)).toMatchObject({ seed: '3', trials: N, version: VERSION });
       agreeWithinUncertainty(s1!, other!);
     });

@@ -27,6 +27,8 @@ export interface ChunkConfig {
   chunkIntervals: boolean;
   /** Check each unit over the model's ambient grid (unit-check.ts); off, a trial is judged at its drawn ambient only. */
   perUnit: boolean;
+  /** Which kernel computes the chunks (src/analysis/kernel/choice.ts); the JavaScript reference without one. */
+  kernel?: 'js' | 'wasm';
 }
 
 export interface OutputChunk {

@@ -1,7 +1,8 @@
 // Worker thread of the Monte Carlo engine: rebuilds the Model from its JSON source, then runs the chunks the main
 // thread hands it and posts each chunk's summary back (buffers transferred, not copied).
 import { parentPort } from 'node:worker_threads';
-import { ChunkRunner, type ChunkConfig, type ChunkSummary } from './chunk.js';
+import type { ChunkConfig, ChunkSummary } from './chunk.js';
+import { createChunkRunner, type ChunkComputer } from './kernel/choice.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
 
 /** Every message names its run: a pooled worker serves run after run. */
@@ -20,12 +21,12 @@ function transferList(summary: ChunkSummary): ArrayBuffer[] {
 
 if (parentPort) {
   const port = parentPort;
-  let runner: ChunkRunner | null = null;
+  let runner: ChunkComputer | null = null;
   let runnerRun = -1;
   port.on('message', (message: ToWorker) => {
     try {
       if (message.type === 'init') {
-        runner = new ChunkRunner(buildFromSource(message.source), message.config);
+        runner = createChunkRunner(buildFromSource(message.source), message.config, message.source);
         runnerRun = message.run;
       } else {
         // A chunk of a run that has since been replaced is skipped (its answer would be ignored anyway).

@@ -10,6 +10,7 @@ import { ChunkRunner, DEFAULT_CHUNK_SIZE, type ChunkConfig, type ChunkSummary, t
 import type { FromWorker, ToWorker } from './mc-worker.js';
 import type { Model } from './model.js';
 import { buildFromSource, type ModelSource } from './model-source.js';
+import { chooseKernel, createChunkRunner, kernelNote, type KernelChoice } from './kernel/choice.js';
 import { checkOutWorkers, giveBackWorkers, startWorkersAhead } from './worker-pool.js';
 import type { AllSpecsYield, AmbientPoint, Interval, MonteCarloOutput, Percentile, YieldResult } from './result.js';
 import { checkedOutputs } from './unit-check.js';
@@ -65,6 +66,11 @@ export interface MonteCarloOptions {
    * units at the ambient drawn with them (the benchmark keeps this case for comparison across versions).
    */
   perUnit?: boolean;
+  /**
+   * Which kernel computes the chunks: 'auto' (default) the WebAssembly kernel for every supply spec it implements
+   * and the JavaScript reference otherwise, or either one by name. Both give the same numbers; the notes say which ran.
+   */
+  kernel?: KernelChoice;
 }
 
 export interface MonteCarloResult {
@@ -224,6 +230,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
     keepSamples,
     chunkIntervals: adaptive,
     perUnit: options.perUnit ?? true,
+    kernel: chooseKernel(options.kernel ?? 'auto', options.source),
   };
   const gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
   const accumulators = outputs.map(() => new Accumulator(bins, keepSamples));
@@ -261,7 +268,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   // `workers` counts the threads that compute chunks: this thread and workers − 1 worker threads.
   const workers = helperThreads(options, maxTrials, chunkCount) + 1;
   if (workers <= 1) {
-    const runner = new ChunkRunner(model, config, true);
+    const runner = createChunkRunner(model, config, options.source, true);
     for (let k = 0; !stopped; k++) {
       mergeChunk(runner.run(k));
       if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));
@@ -288,6 +295,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   );
   notes.push(`Seed "${seed}": chunk k of ${chunkSize} trials draws from xor128 started from SHA-256 of (seed, k); identical for any worker count.`);
   notes.push(...unitNotes(gridC));
+  notes.push(kernelNote(config.kernel!));
   if (adaptiveTrack) {
     // The numerical tolerance δ each output's u(y) was held to (JCGM 101:2008 7.9.2), for the reports.
     results.forEach((r, o) => (r.numericalTolerance = numericalTolerance(momentsSigma(adaptiveTrack[o]!.all), digits)));
@@ -315,7 +323,7 @@ function runOnWorkers(
 ): Promise<void> {
   // This thread's share: the same model rebuilt from the same JSON as in each worker. Its summaries may wait for
   // earlier chunks, so its buffers are not reused.
-  const local = new ChunkRunner(buildFromSource(source), config);
+  const local = createChunkRunner(buildFromSource(source), config, source);
   const pool = checkOutWorkers(helperCount);
   // Replies carry the run's id: a pooled worker may still answer chunks of a run that stopped early.
   const run = ++runCounter;

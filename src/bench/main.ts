@@ -6,14 +6,18 @@
 //   npm run bench -- --json       one JSON document: {monteCarlo: [{trials, workers, seconds, trialsPerSecond,
 //                                 cpuNsPerTrial, peakRssMB, …}], startup: {rounds, measure, cases: [{name, cpuMs, ratio, …}]}}
 //   npm run bench -- --trials 1e8 only that trial count (one worker and every core)
+//   npm run bench -- --kernel wasm only that Monte Carlo kernel (default: the WebAssembly kernel and the JavaScript
+//                                 reference side by side, each case once per kernel)
 //   npm run bench -- --startup    only the start-up case (--rounds N, default 10)
 //   npm run bench -- --peers      the bench case beside its plain C and NumPy peers (src/bench/peers.ts), 1e7 trials
-//                                 (--trials N), 3 alternating rounds (--rounds N), trimfree and C on --threads N (default 1)
+//                                 (--trials N), 3 alternating rounds (--rounds N), trimfree (wasm and js kernels) and C
+//                                 on --threads N (default 1)
 // Figures depend on the machine and on what else it runs; they are measurements, not tests.
 import { execFileSync } from 'node:child_process';
 import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { analyze } from '../analysis/analyze.js';
+import type { KernelName } from '../analysis/kernel/kernel-choices.js';
 import { BENCH_SUPPLY } from './cvcc-spec.js';
 import { runPeers, trimfreePeerCase } from './peers.js';
 import { runStartup, startupTable } from './startup.js';
@@ -24,6 +28,8 @@ interface BenchCase {
   /** 'random ambient': each trial judged at the ambient drawn with it (the case kept comparable across versions);
    *  'per unit': each trial also evaluated at every ambient of the model's grid (the default analysis). */
   mode: BenchMode;
+  /** The Monte Carlo kernel that ran (src/analysis/kernel/choice.ts). */
+  kernel: KernelName;
   /** Model evaluations per trial: 1, or 1 + the grid's ambients. */
   evaluationsPerTrial: number;
   seconds: number;
@@ -39,11 +45,12 @@ interface BenchCase {
 
 type BenchMode = 'random ambient' | 'per unit';
 
-async function runOne(trials: number, workers: number, mode: BenchMode): Promise<BenchCase> {
+async function runOne(trials: number, workers: number, mode: BenchMode, kernel: KernelName): Promise<BenchCase> {
   const loadAverage = round(loadavg()[0]!, 2);
   const cpuStart = process.cpuUsage();
   const start = process.hrtime.bigint();
-  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers, perUnit: mode === 'per unit' });
+  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers, perUnit: mode === 'per unit', kernel });
+  if (!result.notes.some((n) => n.startsWith(`Kernel: ${kernel} `))) throw new Error(`the run did not use the ${kernel} kernel`);
   const seconds = Number(process.hrtime.bigint() - start) / 1e9;
   const cpu = process.cpuUsage(cpuStart);
   if (result.trials !== trials) throw new Error(`ran ${result.trials} trials, expected ${trials}`);
@@ -54,6 +61,7 @@ async function runOne(trials: number, workers: number, mode: BenchMode): Promise
     trials,
     workers: result.workers,
     mode,
+    kernel,
     evaluationsPerTrial: 1 + (result.ambientGridC?.length ?? 0),
     seconds: round(seconds, 3),
     trialsPerSecond: Math.round(trials / seconds),
@@ -78,14 +86,14 @@ async function main(): Promise<void> {
   const args = process.argv.slice(2);
   const one = argValue(args, '--case');
   if (one) {
-    const [trials, workers, perUnit] = one.split(',').map(Number);
-    process.stdout.write(`${JSON.stringify(await runOne(trials!, workers!, perUnit === 1 ? 'per unit' : 'random ambient'))}\n`);
+    const [trials, workers, perUnit, kernel] = one.split(',');
+    process.stdout.write(`${JSON.stringify(await runOne(Number(trials), Number(workers), perUnit === '1' ? 'per unit' : 'random ambient', kernel === 'js' ? 'js' : 'wasm'))}\n`);
     return;
   }
   const peerCase = argValue(args, '--peer-case');
   if (peerCase) {
-    const [trials, workers] = peerCase.split(',').map(Number);
-    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(trials!, workers ?? 1))}\n`);
+    const [trials, workers, kernel] = peerCase.split(',');
+    process.stdout.write(`${JSON.stringify(await trimfreePeerCase(Number(trials), Number(workers ?? 1), kernel === 'js' ? 'js' : 'wasm'))}\n`);
     return;
   }
   const peers = args.includes('--peers');
@@ -126,6 +134,13 @@ async function main(): Promise<void> {
     process.exitCode = 2;
     return;
   }
+  const kernelText = argValue(args, '--kernel');
+  if (kernelText !== undefined && kernelText !== 'wasm' && kernelText !== 'js') {
+    process.stderr.write(`--kernel: ${kernelText} is not a kernel; accepted: wasm or js\n`);
+    process.exitCode = 2;
+    return;
+  }
+  const kernels: KernelName[] = kernelText === undefined ? ['wasm', 'js'] : [kernelText];
   const cores = availableParallelism();
   const workerCounts = cores > 1 ? [1, cores] : [1];
   const cases: BenchCase[] = [];
@@ -134,8 +149,10 @@ async function main(): Promise<void> {
   for (const perUnit of [0, 1]) {
     for (const trials of trialCounts) {
       for (const workers of workerCounts) {
-        const out = execFileSync(process.execPath, [self, '--case', `${trials},${workers},${perUnit}`], { encoding: 'utf8', maxBuffer: 1 << 20 });
-        cases.push(JSON.parse(out.trim()) as BenchCase);
+        for (const kernel of kernels) {
+          const out = execFileSync(process.execPath, [self, '--case', `${trials},${workers},${perUnit},${kernel}`], { encoding: 'utf8', maxBuffer: 1 << 20 });
+          cases.push(JSON.parse(out.trim()) as BenchCase);
+        }
       }
     }
   }
@@ -145,10 +162,10 @@ async function main(): Promise<void> {
     return;
   }
   process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
-  process.stdout.write('mode             evals/trial  trials      workers  seconds  trials/s      peak RSS  CPU s   CPU ns/trial  load avg\n');
+  process.stdout.write('mode             kernel  evals/trial  trials      workers  seconds  trials/s      peak RSS  CPU s   CPU ns/trial  load avg\n');
   for (const c of cases) {
     process.stdout.write(
-      `${c.mode.padEnd(17)}${String(c.evaluationsPerTrial).padEnd(13)}${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.cpuNsPerTrial.toFixed(0).padEnd(14)}${c.loadAverage.toFixed(2)}\n`,
+      `${c.mode.padEnd(17)}${c.kernel.padEnd(8)}${String(c.evaluationsPerTrial).padEnd(13)}${c.trials.toExponential(0).padEnd(12)}${String(c.workers).padEnd(9)}${c.seconds.toFixed(2).padEnd(9)}${c.trialsPerSecond.toExponential(2).padEnd(14)}${`${c.peakRssMB.toFixed(0)} MB`.padEnd(10)}${c.cpuSeconds.toFixed(2).padEnd(8)}${c.cpuNsPerTrial.toFixed(0).padEnd(14)}${c.loadAverage.toFixed(2)}\n`,
     );
   }
   process.stdout.write(`\n${startupTable(startup)}`);

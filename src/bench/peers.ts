@@ -15,6 +15,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { analyze } from '../analysis/analyze.js';
+import type { KernelName } from '../analysis/kernel/kernel-choices.js';
 import { buildSupplyModel } from '../analysis/models/supply.js';
 import { PROJECT_ROOT } from '../project-root.js';
 import { partHigh, partLow } from '../tolerance/part.js';
@@ -63,11 +64,15 @@ export function peerInput(trials: number, seed: number): string {
   return [`${trials} ${seed} ${BINS} ${CHUNK} ${theta}`, windows.join(' '), ...parts, ''].join('\n');
 }
 
-/** trimfree's side, run in a child process: the bench analysis on `workers` threads, timed, with its figures. */
-export async function trimfreePeerCase(trials: number, workers: number): Promise<RunnerResult> {
+/**
+ * trimfree's side, run in a child process: the bench analysis on `workers` threads and the named kernel, timed, with
+ * its figures. Units are judged at the ambient drawn with them (the bench's random-ambient case), as the peers do:
+ * one model evaluation per trial for every runner.
+ */
+export async function trimfreePeerCase(trials: number, workers: number, kernel: KernelName): Promise<RunnerResult> {
   const cpuStart = process.cpuUsage();
   const start = process.hrtime.bigint();
-  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers });
+  const result = await analyze(BENCH_SUPPLY, { trials, seed: 'bench', workers, perUnit: false, kernel });
   const wallSeconds = Number(process.hrtime.bigint() - start) / 1e9;
   const cpu = process.cpuUsage(cpuStart);
   const outputs: Record<string, OutputFigures> = {};
@@ -103,12 +108,10 @@ function median(values: number[]): number {
 export async function runPeers(trials: number, rounds: number, threads: number, write: (text: string) => void): Promise<void> {
   const self = join(PROJECT_ROOT, 'dist', 'src', 'bench', 'main.js');
   const peersDir = join(PROJECT_ROOT, 'src', 'bench', 'peers');
-  const runners: Runner[] = [
-    {
-      name: `trimfree (${threads === 1 ? '1 thread' : `${threads} threads`})`,
-      run: () => JSON.parse(execFileSync(process.execPath, [self, '--peer-case', `${trials},${threads}`], { encoding: 'utf8', maxBuffer: 1 << 20 }).trim()) as RunnerResult,
-    },
-  ];
+  const runners: Runner[] = (['wasm', 'js'] as const).map((kernel) => ({
+    name: `trimfree, ${kernel} kernel (${threads === 1 ? '1 thread' : `${threads} threads`})`,
+    run: () => JSON.parse(execFileSync(process.execPath, [self, '--peer-case', `${trials},${threads},${kernel}`], { encoding: 'utf8', maxBuffer: 1 << 20 }).trim()) as RunnerResult,
+  }));
   const skipped: string[] = [];
   const work = mkdtempSync(join(tmpdir(), 'trimfree-peers-'));
   try {
@@ -135,11 +138,11 @@ export async function runPeers(trials: number, rounds: number, threads: number, 
     const nsPerTrial = results.map((rs) => median(rs.map((x) => (x.cpuSeconds * 1e9) / trials)));
     const wallNsPerTrial = results.map((rs) => median(rs.map((x) => (x.wallSeconds * 1e9) / trials)));
     const base = nsPerTrial[0]!;
-    write(`${'runner (median of the rounds)'.padEnd(66)}${'CPU ns/trial'.padStart(13)}${'÷ trimfree'.padStart(12)}${'wall ns/trial'.padStart(15)}\n`);
+    write(`${'runner (median of the rounds)'.padEnd(66)}${'CPU ns/trial'.padStart(13)}${'÷ trimfree wasm'.padStart(17)}${'wall ns/trial'.padStart(15)}\n`);
     runners.forEach((runner, i) => {
       const ratio = nsPerTrial[i]! / base;
       const speed = i === 0 ? '' : ratio < 1 ? `trimfree uses ${(1 / ratio).toFixed(1)}× its CPU time` : `uses ${ratio.toFixed(1)}× trimfree's CPU time`;
-      write(`${runner.name.slice(0, 65).padEnd(66)}${nsPerTrial[i]!.toFixed(0).padStart(13)}${ratio.toFixed(2).padStart(12)}${wallNsPerTrial[i]!.toFixed(0).padStart(15)}  ${speed}\n`);
+      write(`${runner.name.slice(0, 65).padEnd(66)}${nsPerTrial[i]!.toFixed(0).padStart(13)}${ratio.toFixed(2).padStart(17)}${wallNsPerTrial[i]!.toFixed(0).padStart(15)}  ${speed}\n`);
     });
     // Agreement: each runner's last round against trimfree's; two independent means differ by σ·√(2/N) in standard
     // error (JCGM 101:2008 7.6: the standard error of a Monte Carlo mean is σ/√N). σ itself: its standard error is about

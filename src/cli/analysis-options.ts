@@ -3,6 +3,7 @@
 // (src/design/analysis-choice.ts), and the terminal progress the studies report to.
 import { Option } from 'commander';
 import type { CommandLineAnalysis, ProgressFactory } from '../design/analysis-choice.js';
+import { KERNEL_CHOICES, type KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import { InputError } from '../errors.js';
 import { LIFE_CONDITIONS, type LifeCondition } from '../tolerance/life-allowances.js';
 import { printableText } from '../user-text.js';
@@ -76,13 +77,20 @@ export function lotsFlag(): Option {
   return new Option('--lots <K>', "also simulate K lots (2 to 1000) of the reel-lot model and report the worst lot's yield beside the overall (default: the file's lots, else none)").argParser(integerOption('--lots', 2, 1000));
 }
 
-/** The parsed --seed, --trials, --workers and --condition as commander gives them. */
+/** `--kernel <auto|js|wasm>`: which chunk kernel computes the Monte Carlo (src/analysis/kernel/choice.ts). */
+export function kernelFlag(): Option {
+  return new Option('--kernel <name>', 'Monte Carlo kernel: wasm, js (the reference), or auto (wasm where it covers the design); both give the same numbers (default: auto)')
+    .choices(KERNEL_CHOICES);
+}
+
+/** The parsed --seed, --trials, --workers and --kernel as commander gives them. */
 export interface AnalysisCliOptions {
   seed?: number;
   trials?: number | 'auto';
   workers?: number;
   condition?: LifeCondition;
   lots?: number;
+  kernel?: KernelChoice;
 }
 
 /** What the command line asks of the analysis (only the options given; the design file and defaults fill the rest). */
@@ -93,6 +101,7 @@ export function commandLineAnalysis(options: AnalysisCliOptions): CommandLineAna
   if (options.workers !== undefined) cli.workers = options.workers;
   if (options.condition !== undefined) cli.condition = options.condition;
   if (options.lots !== undefined) cli.lots = options.lots;
+  if (options.kernel !== undefined) cli.kernel = options.kernel;
   return cli;
 }
 

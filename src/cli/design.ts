@@ -17,7 +17,7 @@ import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields } from '../design/spread
 import { designReportJson, renderDesignText } from '../report/design-report.js';
 import { gradesReportTables } from '../report/grades-tables.js';
 import { stringifyReport } from '../report/json.js';
-import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, conditionFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { commandLineAnalysis, progressToTerminal, kernelFlag, seedFlag, trialsFlag, workersFlag, conditionFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { colourWanted } from './colour.js';
 import { checkOutputTarget, sameOutputFile, writeOutputFile } from './output-file.js';
 import { checkSpreadFiles, reportFileFlag, writeSpreadFiles, type SpreadFiles } from './spread-files.js';
@@ -93,6 +93,7 @@ export function designCommand(): Command {
     .addOption(trialsFlag("Monte Carlo trials, or auto (JCGM 101:2008 7.9) (default: the file's, else auto)"))
     .addOption(workersFlag())
     .addOption(conditionFlag())
+    .addOption(kernelFlag())
     .addOption(failUnderYieldOptionWith())
     .addHelpText(
       'after',

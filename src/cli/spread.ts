@@ -10,7 +10,7 @@ import { DEFAULT_SPREAD_TRIALS, runSpread, spreadYields } from '../design/spread
 import { stringifyReport } from '../report/json.js';
 import { spreadReportJson } from '../report/spread-run-json.js';
 import { renderSpreadRunText } from '../report/spread-run-text.js';
-import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, conditionFlag, lotsFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { commandLineAnalysis, progressToTerminal, kernelFlag, seedFlag, trialsFlag, workersFlag, conditionFlag, lotsFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { colourWanted } from './colour.js';
 import { integerOption } from './option-parsers.js';
 import { startWork } from './work-budget.js';
@@ -61,6 +61,7 @@ export function spreadCommand(): Command {
     .addOption(workersFlag())
     .addOption(conditionFlag())
     .addOption(lotsFlag())
+    .addOption(kernelFlag())
     .addOption(failUnderYieldOptionWith())
     .addOption(targetYieldFlag('yield each output must reach to read "pass" in the summary (the exit code is set by --fail-under-yield only)'))
     .addHelpText(

@@ -3,6 +3,7 @@
 // the caller passes in (the CLI draws it on a terminal; tests and library callers pass nothing).
 import { analyze } from '../analysis/analyze.js';
 import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study.js';
+import type { KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
@@ -14,6 +15,8 @@ export interface AnalysisChoice {
   trials: number | 'auto';
   seed: number;
   workers?: number;
+  /** Which Monte Carlo kernel (default auto: src/analysis/kernel/choice.ts). */
+  kernel?: KernelChoice;
   /** Notes for the user about the choice (e.g. workers capped at the cores), printed by the CLI. */
   notes?: string[];
   /** Report the engine's progress to the progress sink (the CLI draws it only on a terminal, after a second). */
@@ -38,6 +41,7 @@ export interface CommandLineAnalysis {
   condition?: LifeCondition;
   /** --lots K: run the lot study with K lots. */
   lots?: number;
+  kernel?: KernelChoice;
 }
 
 /** Where a long run reports how far it has got. */
@@ -68,6 +72,7 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
   if (lotCount !== undefined) {
     choice.lots = { count: lotCount, share: resolved.lots?.share ?? DEFAULT_LOT_SHARE, trialsPerLot: resolved.lots?.trialsPerLot ?? DEFAULT_TRIALS_PER_LOT };
   }
+  if (cli.kernel !== undefined) choice.kernel = cli.kernel;
   const workers = cli.workers ?? resolved.analysis.workers;
   if (workers !== undefined) {
     const capped = cappedWorkerCount(workers, cli.workers !== undefined ? '--workers' : 'analysis.workers');
@@ -83,6 +88,7 @@ export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, 
   try {
     const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
     if (choice.workers !== undefined) options.workers = choice.workers;
+    if (choice.kernel !== undefined) options.kernel = choice.kernel;
     if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
     return await analyze(spec, options);
   } finally {

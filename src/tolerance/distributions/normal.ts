@@ -9,6 +9,8 @@
 // distribution function"), relative error below 1.15e-9 over (0, 1). Coefficients as published by Acklam.
 // Φ: via erfc from Numerical Recipes in C, 2nd ed. (Press et al. 1992), §6.2 `erfcc`, fractional error below
 // 1.2e-7 everywhere; used only for the per-part cut-off masses of the truncated and binned distributions.
+// The tails' logarithm is exactLog (../exact-log.ts), the one the WebAssembly kernel runs too, so both give the same bits.
+import { exactLog } from '../exact-log.js';
 import { SMALLEST_UNIFORM, type UniformSource } from '../uniform-source.js';
 
 const A1 = -3.969683028665376e1;
@@ -39,7 +41,7 @@ const P_HIGH = 1 - P_LOW;
 export function inverseNormalCdf(u: number): number {
   const p = u > 0 ? u : SMALLEST_UNIFORM;
   if (p < P_LOW) {
-    const q = Math.sqrt(-2 * Math.log(p));
+    const q = Math.sqrt(-2 * exactLog(p));
     return (((((C1 * q + C2) * q + C3) * q + C4) * q + C5) * q + C6) / ((((D1 * q + D2) * q + D3) * q + D4) * q + 1);
   }
   if (p <= P_HIGH) {
@@ -47,7 +49,7 @@ export function inverseNormalCdf(u: number): number {
     const r = q * q;
     return ((((((A1 * r + A2) * r + A3) * r + A4) * r + A5) * r + A6) * q) / (((((B1 * r + B2) * r + B3) * r + B4) * r + B5) * r + 1);
   }
-  const q = Math.sqrt(-2 * Math.log(1 - p));
+  const q = Math.sqrt(-2 * exactLog(1 - p));
   return -(((((C1 * q + C2) * q + C3) * q + C4) * q + C5) * q + C6) / ((((D1 * q + D2) * q + D3) * q + D4) * q + 1);
 }
 
@@ -128,7 +130,7 @@ function tailPass(buf: Float64Array, tails: number, mean: number, sigma: number,
     // The unary plus keeps this choice a plain double: with the imported constant as it is, V8 chose a boxed value
     // for p and allocated a heap number per tail draw (measured: 12.7 MB per 150 chunks of 65536 draws, 1.3 MB with it).
     const p = u > 0 ? u : +SMALLEST_UNIFORM;
-    const q = Math.sqrt(-2 * Math.log(lower ? p : 1 - p));
+    const q = Math.sqrt(-2 * exactLog(lower ? p : 1 - p));
     const z = (((((C1 * q + C2) * q + C3) * q + C4) * q + C5) * q + C6) / ((((D1 * q + D2) * q + D3) * q + D4) * q + 1);
     buf[index[t]!] = mean + sigma * (lower ? z : -z);
   }

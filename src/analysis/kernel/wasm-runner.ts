@@ -1,0 +1,212 @@
+// A chunk runner that computes with the WebAssembly kernel: the same ChunkSummary as ChunkRunner (src/analysis/
+// chunk.ts) for the same chunk, to the bit (test/wasm-kernel.test.ts). The kernel draws, transforms, evaluates
+// and reduces; this file lays out the kernel's memory once, seeds each chunk (SHA-256 of (seed, k), chunk-random.ts)
+// and turns the kernel's results into the summary (the chunk's own 95 % interval, when asked, as ChunkRunner does).
+import { chunkLength, type ChunkConfig, type ChunkSummary, type OutputChunk } from '../chunk.js';
+import { chunkState } from '../chunk-random.js';
+import type { Model } from '../model.js';
+import type { SupplySpec } from '../models/supply.js';
+import { coverageCount, symmetricIntervalOf, symmetricStartRank } from '../statistics/coverage.js';
+import type { FineHistogram } from '../statistics/histogram.js';
+import { OrderStatistics } from '../statistics/order-statistics.js';
+import { checkedOutputs, type CheckedOutput } from '../unit-check.js';
+import { kernelLayout, P_FIXED_T } from './layout.js';
+import { applyBitMatrix, jumpMatrix } from './xor128-jump.js';
+import { instantiateKernel, type KernelExports } from './wasm-module.js';
+
+const PAGE = 65536;
+const RESULT_FIELDS = 9;
+/** One group of assembly/chunk-kernel.ts generate: four states (4 × i32x4), four columns, four lo, four width. */
+const GROUP_BYTES = 144;
+
+/** Bump allocation of the kernel's memory, 16-byte aligned (SIMD loads). */
+class Arena {
+  top = 0;
+  take(bytes: number): number {
+    const at = this.top;
+    this.top += Math.ceil(bytes / 16) * 16;
+    return at;
+  }
+}
+
+export class WasmChunkRunner {
+  private readonly k: KernelExports;
+  private readonly parts: number;
+  private readonly stride: number;
+  private readonly desc: number;
+  private readonly lay: number;
+  private readonly par: number;
+  private readonly res: number;
+  private readonly cols: number;
+  private readonly outs: number;
+  private readonly ambientOuts: number;
+  private readonly counts: number;
+  private readonly ambientCounts: number;
+  private readonly passRows: number;
+  private readonly all: number;
+  private readonly checked: CheckedOutput[];
+  private readonly gridC: number[] | null;
+  private readonly countStride: number;
+  /** Parts that draw (not constant), in order: they are generated four at a time. */
+  private readonly drawing: number[];
+  private readonly groups: number;
+  private readonly spare: number;
+  private readonly descriptors: Float64Array;
+
+  /** With `reuse`, the summary's counts are views of the kernel's memory, valid until the next run (as ChunkRunner's). */
+  constructor(
+    spec: SupplySpec,
+    private readonly model: Model,
+    private readonly config: ChunkConfig,
+    private readonly reuse = false,
+  ) {
+    const tables = kernelLayout(spec, model);
+    this.k = instantiateKernel();
+    this.parts = model.parts.length;
+    const outputs = model.outputs.length;
+    const size = config.chunkSize;
+    this.gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
+    this.checked = checkedOutputs(model);
+    this.countStride = config.bins + 2;
+    const arena = new Arena();
+    this.stride = Math.ceil((size * 8) / 16) * 16;
+    this.desc = arena.take(tables.descriptors.byteLength);
+    this.lay = arena.take(tables.layout.byteLength);
+    this.par = arena.take(tables.parameters.byteLength);
+    this.res = arena.take(RESULT_FIELDS * 8);
+    this.cols = arena.take(this.stride * (this.parts + 1));
+    this.drawing = model.parts.map((_, i) => i).filter((i) => tables.descriptors[8 * i] !== 0);
+    this.groups = arena.take(GROUP_BYTES * Math.ceil(this.drawing.length / 4));
+    this.descriptors = tables.descriptors;
+    this.spare = arena.take(this.stride);
+    this.outs = arena.take(this.stride * outputs);
+    this.ambientOuts = arena.take(this.stride * outputs);
+    this.counts = arena.take(4 * this.countStride * outputs);
+    this.ambientCounts = arena.take(4 * this.countStride * outputs * (this.gridC?.length ?? 0));
+    this.passRows = arena.take(size * this.checked.length);
+    this.all = arena.take(size);
+    const memory = this.k.memory;
+    const have = memory.buffer.byteLength;
+    if (arena.top > have) memory.grow(Math.ceil((arena.top - have) / PAGE));
+    const buffer = memory.buffer;
+    new Float64Array(buffer, this.desc, tables.descriptors.length).set(tables.descriptors);
+    new Int32Array(buffer, this.lay, tables.layout.length).set(tables.layout);
+    new Float64Array(buffer, this.par, tables.parameters.length).set(tables.parameters);
+    // The column of zeros (absent parts) is never written: a fresh memory is zero.
+  }
+
+  run(k: number): ChunkSummary {
+    const { config, model } = this;
+    const kernel = this.k;
+    const n = chunkLength(config, k);
+    this.startStreams(chunkState(config.seed, k), n);
+    kernel.generate(this.groups, Math.ceil(this.drawing.length / 4), n);
+    kernel.transform(this.desc, this.parts, this.cols, this.stride, n);
+    kernel.evaluate(this.lay, this.par, this.cols, this.stride, n, this.outs, 0);
+    const buffer = kernel.memory.buffer;
+    const outputCount = model.outputs.length;
+    const counts = new Uint32Array(buffer, this.counts, this.countStride * outputCount);
+    counts.fill(0);
+    const outputs = model.outputs.map((_, o) => this.reduce(o, this.outs + o * this.stride, n, this.counts + 4 * o * this.countStride, config.keepSamples, config.chunkIntervals));
+    // The per-unit check (src/analysis/unit-check.ts): pass rows start at 1, each ambient ands its flags in.
+    const rowBytes = config.chunkSize;
+    new Uint8Array(buffer, this.passRows, rowBytes * this.checked.length).fill(1);
+    let ambient: OutputChunk[][] | null = null;
+    if (this.gridC) {
+      ambient = [];
+      const stride = this.countStride * outputCount;
+      new Uint32Array(buffer, this.ambientCounts, stride * this.gridC.length).fill(0);
+      const parameters = new Float64Array(buffer, this.par + 8 * P_FIXED_T, 1);
+      this.gridC.forEach((t, g) => {
+        parameters[0] = t;
+        kernel.evaluate(this.lay, this.par, this.cols, this.stride, n, this.ambientOuts, 1);
+        this.checked.forEach((c, i) => kernel.markInside(this.ambientOuts + c.index * this.stride, n, c.lo, c.hi, this.passRows + i * rowBytes));
+        const base = this.ambientCounts + 4 * g * stride;
+        ambient!.push(model.outputs.map((_, o) => this.reduce(o, this.ambientOuts + o * this.stride, n, base + 4 * o * this.countStride, false, false)));
+      });
+    } else {
+      this.checked.forEach((c, i) => kernel.markInside(this.outs + c.index * this.stride, n, c.lo, c.hi, this.passRows + i * rowBytes));
+    }
+    this.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = kernel.countOnes(this.passRows + i * rowBytes, n)));
+    kernel.markAll(this.passRows, this.checked.length, rowBytes, n, this.all);
+    const allInSpec = kernel.countOnes(this.all, n);
+    if (!this.reuse) this.detachCounts(outputs, ambient);
+    return { k, outputs, allInSpec, ambient };
+  }
+
+  /**
+   * The groups table of assembly/chunk-kernel.ts generate: part i's stream starts i·n steps into the chunk's
+   * (xor128-jump.ts), four drawing parts per group, a short last group padded with the spare column.
+   */
+  private startStreams(state: Int32Array, n: number): void {
+    const jump = jumpMatrix(n);
+    const groups = Math.ceil(this.drawing.length / 4);
+    const buffer = this.k.memory.buffer;
+    const words = new Int32Array(buffer, this.groups, (GROUP_BYTES / 4) * groups);
+    const scales = new Float64Array(buffer, this.groups, (GROUP_BYTES / 8) * groups);
+    words.fill(0);
+    const place = (slot: number, column: number, lo: number, width: number): void => {
+      const g = Math.floor(slot / 4);
+      const lane = slot % 4;
+      words[(GROUP_BYTES / 4) * g + 16 + lane] = column;
+      scales[(GROUP_BYTES / 8) * g + 10 + lane] = lo;
+      scales[(GROUP_BYTES / 8) * g + 14 + lane] = width;
+    };
+    let next = 0;
+    for (let i = 0; i < this.parts; i++) {
+      if (next < this.drawing.length && this.drawing[next] === i) {
+        const g = (GROUP_BYTES / 4) * Math.floor(next / 4);
+        const lane = next % 4;
+        for (let word = 0; word < 4; word++) words[g + 4 * word + lane] = state[word]!;
+        // A uniform part (descriptor kind 1) is scaled as it is drawn; any other gets the bare uniform.
+        const d = 8 * i;
+        const affine = this.descriptors[d] === 1;
+        place(next, this.cols + i * this.stride, affine ? this.descriptors[d + 1]! : 0, affine ? this.descriptors[d + 2]! : 1);
+        next++;
+      }
+      applyBitMatrix(jump, state, state);
+    }
+    for (let pad = next; pad % 4 !== 0; pad++) place(pad, this.spare, 0, 1);
+  }
+
+  /** Copies the counts out of the kernel's memory (one buffer for the drawn outputs, one for the grid), for transfer. */
+  private detachCounts(outputs: OutputChunk[], ambient: OutputChunk[][] | null): void {
+    const copy = (chunks: OutputChunk[]): void => {
+      if (chunks.length === 0) return;
+      const first = chunks[0]!.counts;
+      const all = new Uint32Array(first.buffer, first.byteOffset, this.countStride * chunks.length).slice();
+      chunks.forEach((c, i) => (c.counts = all.subarray(i * this.countStride, (i + 1) * this.countStride)));
+    };
+    copy(outputs);
+    if (ambient) copy(ambient.flat());
+  }
+
+  /** ChunkRunner.reduce over a column of the kernel's memory. */
+  private reduce(o: number, x: number, n: number, countsAt: number, keepSamples: boolean, chunkIntervals: boolean): OutputChunk {
+    const { config } = this;
+    const kernel = this.k;
+    const spec = config.specs[o];
+    const lo = config.ranges[o]!.lo;
+    kernel.reduce(x, n, lo, config.bins / (config.ranges[o]!.hi - lo), config.bins, countsAt, spec ? spec[0] : -Infinity, spec ? spec[1] : Infinity, this.res);
+    const buffer = kernel.memory.buffer;
+    const r = new Float64Array(buffer, this.res, RESULT_FIELDS);
+    const [min, max, , scanInSpec, below, mean, sq, dev, nonFinite] = r as unknown as number[];
+    const inSpec = spec ? scanInSpec! : n;
+    const belowSpec = spec ? below! : 0;
+    // Corrected two-pass variance (Chan, Golub & LeVeque 1983), as chunkMoments in statistics/moments.ts.
+    const m2 = n > 0 ? Math.max(0, sq! - (dev! * dev!) / n) : 0;
+    const counts = new Uint32Array(buffer, countsAt, config.bins + 2);
+    const values = new Float64Array(buffer, x, n);
+    let low95 = NaN;
+    let high95 = NaN;
+    if (chunkIntervals && n > 0 && nonFinite === 0) {
+      const h: FineHistogram = { lo, hi: config.ranges[o]!.hi, bins: config.bins, counts, min: min!, max: max! };
+      const rank = symmetricStartRank(0.95, n);
+      const end = Math.min(n, rank + coverageCount(0.95, n));
+      const order = new OrderStatistics([values], h, [[rank, rank], [end, end]]);
+      ({ low: low95, high: high95 } = symmetricIntervalOf((i) => order.at(i), n, 0.95));
+    }
+    const samples = keepSamples ? values.slice() : null;
+    return { n, mean: mean!, m2, min: min!, max: max!, inSpec, nonFinite: nonFinite!, counts, samples, low95, high95, unitInSpec: inSpec, belowSpec };
+  }
+}
