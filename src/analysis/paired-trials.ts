@@ -68,6 +68,11 @@ export class PairedSample {
   private readonly chunks: SampleChunk[] = [];
   private readonly columns = new Map<string, Float64Array>();
   private columnBytes = 0;
+  /** The same columns by Part object: part → chunk → part index → values. */
+  private byPart = new WeakMap<Part, Float64Array[][]>();
+  /** Reused between variants that share outputs, ambient grid and evaluation (variants put together from parts). */
+  private checker: { model: Model; checker: UnitChecker; drawn: Float64Array[] } | null = null;
+  private gatherScratch: Float64Array[] | null = null;
   /** Trial indices that failed in some variant, checked first (at most HARD_UNITS, most recent kept). */
   private hard: number[] = [];
   private readonly isHard: Uint8Array;
@@ -93,11 +98,17 @@ export class PairedSample {
 
   /** Part i's values over the chunk for `part`'s band (cached; the same numbers drawChunkParts gives). */
   private column(chunk: SampleChunk, i: number, part: Part): Float64Array {
+    // Variants put together from the same Part objects find their columns by identity; others by the band.
+    const byPart = chunk.u ? this.byPart.get(part)?.[chunk.k]?.[i] : undefined;
+    if (byPart) return byPart;
     const u = chunk.u ?? this.unitsOf(chunk);
     const map = partUnitMap(part);
     const key = `${chunk.k}|${i}|${map.kind === 'constant' ? `c${map.value}` : `${part.nominal}|${part.minus}|${part.plus}|${JSON.stringify(part.distribution)}`}`;
     const cached = chunk.u ? this.columns.get(key) : undefined;
-    if (cached) return cached;
+    if (cached) {
+      this.remember(part, chunk.k, i, cached);
+      return cached;
+    }
     const values = new Float64Array(chunk.n);
     if (map.kind === 'constant') values.fill(map.value);
     else if (map.kind === 'affine') affineColumn(u[i]!, values, chunk.n, map.lo, map.width);
@@ -108,12 +119,20 @@ export class PairedSample {
     if (chunk.u) {
       if (this.columnBytes + values.byteLength > COLUMN_CACHE_BYTES) {
         this.columns.clear();
+        this.byPart = new WeakMap();
         this.columnBytes = 0;
       }
       this.columns.set(key, values);
       this.columnBytes += values.byteLength;
+      this.remember(part, chunk.k, i, values);
     }
     return values;
+  }
+
+  private remember(part: Part, k: number, i: number, values: Float64Array): void {
+    let perChunk = this.byPart.get(part);
+    if (!perChunk) this.byPart.set(part, (perChunk = []));
+    (perChunk[k] ??= [])[i] = values;
   }
 
   /** A chunk's uniforms drawn again from its stream (only past SAMPLE_BYTES_CAP). */
@@ -122,6 +141,16 @@ export class PairedSample {
     const state = chunkState(this.seed, chunk.k);
     for (let i = 0; i < this.partCount; i++) fillXor128(state, this.scratchU[i]!, chunk.n);
     return this.scratchU;
+  }
+
+  /**
+   * Every part's values over the whole sample in `model`'s bands (the numbers drawChunkParts gives for chunk 0), for a
+   * sample of one chunk (made with chunkSize ≥ trials). Shared with the cache: read them, never write them.
+   */
+  columnsOf(model: Model): Float64Array[] {
+    if (this.chunks.length !== 1 || this.chunks[0]!.u === null) throw new Error('paired sample: columnsOf needs a sample of one chunk held in memory');
+    if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
+    return model.parts.map((part, i) => this.column(this.chunks[0]!, i, part));
   }
 
   /**
@@ -135,9 +164,8 @@ export class PairedSample {
     if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
     const maxFailures = limits.maxFailures ?? Infinity;
     const maxUnits = limits.maxUnits ?? Infinity;
-    const checker = new UnitChecker(model, PAIRED_BLOCK);
+    const { checker, drawn } = this.checkerFor(model);
     const perUnit = model.ambient ? model.ambient.gridC.length : 1;
-    const drawn = model.ambient ? [] : model.outputs.map(() => new Float64Array(PAIRED_BLOCK));
     let evaluations = 0;
     // 1. Units that failed before, most recent first, in small blocks, when they alone can show the variant fails.
     if (Number.isFinite(maxFailures) && this.hard.length > maxFailures) {
@@ -146,7 +174,8 @@ export class PairedSample {
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
         const trials = recent.slice(start, start + HARD_BLOCK);
-        const p = model.parts.map((part, i) => this.gather(i, part, trials));
+        this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK));
+        const p = model.parts.map((part, i) => this.gather(i, part, trials, this.gatherScratch![i]!));
         failed += this.checkBlock(checker, model, p, trials.length, drawn, 0, null);
         seen += trials.length;
         evaluations += trials.length * perUnit;
@@ -195,9 +224,21 @@ export class PairedSample {
     this.isHard[trial] = 1;
   }
 
-  /** Part i's values at the given trials, in that order. */
-  private gather(i: number, part: Part, trials: readonly number[]): Float64Array {
-    const out = new Float64Array(trials.length);
+  /** A unit checker for the model: the last one when the model shares its outputs, ambient grid and evaluation. */
+  private checkerFor(model: Model): { checker: UnitChecker; drawn: Float64Array[] } {
+    const last = this.checker;
+    if (last && last.model.outputs === model.outputs && last.model.ambient === model.ambient && last.model.evaluateAll === model.evaluateAll) {
+      // The checker evaluates through its own model: give it this variant's (same functions, so only parts differ).
+      return { checker: last.checker, drawn: last.drawn };
+    }
+    const checker = new UnitChecker(model, PAIRED_BLOCK);
+    const drawn = model.ambient ? [] : model.outputs.map(() => new Float64Array(PAIRED_BLOCK));
+    this.checker = { model, checker, drawn };
+    return { checker, drawn };
+  }
+
+  /** Part i's values at the given trials, in that order, into `out`. */
+  private gather(i: number, part: Part, trials: readonly number[], out: Float64Array): Float64Array {
     let c = 0;
     let chunk = this.chunks[0]!;
     let values = this.column(chunk, i, part);

@@ -8,6 +8,7 @@ import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js'
 import type { AnalysisResult } from '../analysis/result.js';
 import { jointYieldAsync } from '../analysis/joint-yield-async.js';
 import { PairedSample } from '../analysis/paired-trials.js';
+import { varianceSample } from '../analysis/variance-indices.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { analyzeAsChosen, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
@@ -53,6 +54,8 @@ export interface SearchMethod {
   pairedTrials: number;
   /** Wall time of the whole grade study (side-by-side rows included), s. */
   studySeconds: number;
+  /** The same two figures for each step: the cheapest-mix search, the re-run of its answer, the best upgrade. */
+  steps: Record<'search' | 'verify' | 'upgrade', { evaluations: number; seconds: number }>;
 }
 
 export interface GradesOptions {
@@ -197,9 +200,12 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
 
   // Side by side: every resistor in one grade. The rows' variance indices share one drawn sample of units.
   const rows: GradeRow[] = [];
+  let varianceRows: PairedSample | null = null;
   for (const grade of allowed) {
     const graded = specWithGrades(spec, parts, parts.map(() => grade));
-    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
+    const partCount = buildSupplyModel(graded).parts.length;
+    if (varianceRows === null || varianceRows.partCount !== partCount) varianceRows = varianceSample(seed, partCount);
+    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor, { varianceSample: varianceRows });
     const notSold = parts.filter((_, i) => !offeredPerPart[i]!.includes(grade)).map((p) => p.name);
     const joint = jointFromResult(result) ?? (await jointOf(graded, result.seed, result.trials, choice.trials === 'auto'));
     rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint });
@@ -271,11 +277,19 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
   let upgrade: UpgradeAnswer | null = null;
   const base = designedGrades.map((g, i) => upgradeLists[i]!.indexOf(g));
   let designedYieldPct: number;
+  const steps: SearchMethod['steps'] = { search: { evaluations: 0, seconds: 0 }, verify: { evaluations: 0, seconds: 0 }, upgrade: { evaluations: 0, seconds: 0 } };
+  let mark = { evaluations: 0, seconds: seconds() };
+  const step = (name: keyof SearchMethod['steps']): void => {
+    const now = seconds();
+    steps[name] = { evaluations: evaluations - mark.evaluations, seconds: now - mark.seconds };
+    mark = { evaluations, seconds: now };
+  };
   try {
     const unsold = parts.filter((_, i) => searchLists[i]!.length === 0);
     const found = unsold.length > 0
       ? { found: false, assignment: null, cost: null, yield: null, evaluations: 0, skipped: 0, reason: 'no-grade-sold' as const }
       : await cheapestGradeMix({ options: optionsOf(searchLists), target, evaluate: evaluatorFor(searchLists, false), screen: screenFor(searchLists), maxEvaluations: MAX_SEARCH_EVALUATIONS });
+    step('search');
     mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
     if (found.reason) mix.reason = found.reason;
     if (found.found && found.assignment) {
@@ -291,7 +305,9 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
       evaluations += verifyTrials * (models.modelFor(chosen).ambient?.gridC.length ?? 1);
       mix.verified = verified;
     }
+    step('verify');
     const up = await bestSingleUpgrade({ options: optionsOf(upgradeLists), base, evaluate: evaluatorFor(upgradeLists, true) });
+    step('upgrade');
     designedYieldPct = up.baseYield * 100;
     if (up.best) {
       upgrade = {
@@ -315,6 +331,7 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
     screened: screenedCount,
     pairedTrials: searchTrials,
     studySeconds: end - studyStart,
+    steps,
   };
   return {
     resolved,

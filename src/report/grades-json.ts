@@ -57,6 +57,7 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       screened: run.method.screened,
       pairedTrials: run.method.pairedTrials,
       studySeconds: run.method.studySeconds,
+      steps: run.method.steps,
     },
     notes: [
       GRADING_NOTE,
