@@ -8,6 +8,7 @@ import { nominalOutputs, type Model } from './model.js';
 import type { ModelSource } from './model-source.js';
 import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
+import type { PairedSample } from './paired-trials.js';
 import type { AnalysisResult, OutputResult } from './result.js';
 import { rss } from './rss.js';
 import { outputBudget } from './variance-budget.js';
@@ -18,6 +19,10 @@ import { beyondWorstCaseNotes, unboundedPartsNote } from './worst-case-bound.js'
 export interface AnalyzeOptions extends Omit<MonteCarloOptions, 'source' | 'ranges'> {
   /** Enumerate every vertex up to this many varying parts (default 20), else sensitivity signs then a check. */
   maxEnumerationVariables?: number;
+  /** The variance indices' rows drawn once for several variants of one model (variance-indices.ts varianceSample). */
+  varianceSample?: PairedSample;
+  /** Runs a stage for the caller, who may time it (the design layer reads the clock; this file never does). */
+  timeStage?: <T>(stage: 'variance indices', run: () => Promise<T>) => Promise<T>;
 }
 
 function isModel(input: SupplySpec | Model): input is Model {
@@ -38,10 +43,11 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const worst = worstCase(model, wcOptions);
   const propagated = rss(model);
   // On this thread, while the workers start: its own sample, seeded from the run's seed, so independent of workers.
-  const indices = await runVarianceIndices(model, String(options.seed));
+  const indicesRun = (): Promise<VarianceIndicesResult> => runVarianceIndices(model, String(options.seed), options.varianceSample);
+  const indices = await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun());
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
-  const { maxEnumerationVariables: _ignored, ...mcOptions } = options;
+  const { maxEnumerationVariables: _ignored, varianceSample: _sample, timeStage: _timer, ...mcOptions } = options;
   const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}) });
 
   const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
@@ -122,8 +128,8 @@ function nominalAndWorstAt(model: Model, t: number, wcOptions: WorstCaseOptions)
 const pause = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
 
 /** The variance indices, pausing for the event loop after each part's evaluations (Ctrl-C is answered at once). */
-async function runVarianceIndices(model: Model, seed: string): Promise<VarianceIndicesResult> {
-  const steps = varianceIndicesSteps(model, { seed });
+async function runVarianceIndices(model: Model, seed: string, sample: PairedSample | undefined): Promise<VarianceIndicesResult> {
+  const steps = varianceIndicesSteps(model, sample ? { seed, sample } : { seed });
   for (;;) {
     const step = steps.next();
     if (step.done) return step.value;

@@ -62,6 +62,8 @@ export interface VarianceIndicesMethod {
   evaluations: number;
   /** The seed name of the sample's own stream (its chunk 0 holds A, then B). */
   seed: string;
+  /** Wall time of the indices, s: set by the caller that timed them (the design layer; src/analysis reads no clock). */
+  seconds?: number;
 }
 
 /**

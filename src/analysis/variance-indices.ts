@@ -33,6 +33,7 @@ import { partUnitMap } from '../tolerance/sample.js';
 import { partVaries } from '../tolerance/part.js';
 import { drawChunkParts } from './chunk.js';
 import { evaluateOutputs, type Model } from './model.js';
+import { PairedSample } from './paired-trials.js';
 import type { VarianceIndicesMethod } from './result.js';
 
 /** Rows of A and of B. 8192 keeps the whole budget near 0.1 s on the bundled examples (measured, see the changelog)
@@ -55,6 +56,17 @@ export interface VarianceIndicesOptions {
   seed: string;
   /** N, rows of each of A and B (default DEFAULT_BASE_SAMPLES). */
   baseSamples?: number;
+  /**
+   * The sample's units drawn once and shared by variants of one model (parts in other grades): from
+   * varianceSample(seed, partCount), its 2N rows mapped to each variant's bands, so the rows are the same numbers
+   * this function would draw, and a study of several variants draws them once (paired-trials.ts).
+   */
+  sample?: PairedSample;
+}
+
+/** The A and B rows of varianceIndices drawn once, for every variant of a model with `partCount` parts. */
+export function varianceSample(seed: string, partCount: number, baseSamples = DEFAULT_BASE_SAMPLES): PairedSample {
+  return new PairedSample(partCount, { seed: varianceIndicesSeed(seed), trials: 2 * baseSamples, chunkSize: 2 * baseSamples });
 }
 
 export interface PartIndices {
@@ -103,8 +115,14 @@ export function* varianceIndicesSteps(model: Model, options: VarianceIndicesOpti
   // would not do: seedrandom's xor128 seeding is linear in the seed string, so such a pair differs by the same fixed
   // bit pattern whatever the name, and that bias showed in the estimates: Jansen's S_T of a part whose exact value
   // is 1 came out 1.03 ± 0.003 over 400 seeds.)
-  const ab = parts.map(() => new Float64Array(2 * n));
-  drawChunkParts(parts, seed, 0, ab, 2 * n);
+  let ab: Float64Array[];
+  if (options.sample) {
+    if (options.sample.seed !== seed || options.sample.trials !== 2 * n) throw new Error(`variance indices: the shared sample is not the one for seed ${options.seed} and N = ${n}`);
+    ab = options.sample.columnsOf(model);
+  } else {
+    ab = parts.map(() => new Float64Array(2 * n));
+    drawChunkParts(parts, seed, 0, ab, 2 * n);
+  }
   const a = ab.map((column) => column.subarray(0, n));
   const b = ab.map((column) => column.subarray(n, 2 * n));
 

@@ -9,6 +9,8 @@
 //   npm run bench -- --kernel wasm only that Monte Carlo kernel (default: the WebAssembly kernel and the JavaScript
 //                                 reference side by side, each case once per kernel)
 //   npm run bench -- --startup    only the start-up case (--rounds N, default 10)
+//   npm run bench -- --grades     `grades` on the LED example (9 resistors × 10 grades) against one `spread` at the same
+//                                 trials, alternating rounds (--rounds N, default 3) (src/bench/grades-case.ts)
 //   npm run bench -- --peers      the bench case beside its plain C and NumPy peers (src/bench/peers.ts), 1e7 trials
 //                                 (--trials N), 3 alternating rounds (--rounds N), trimfree (wasm and js kernels) and C
 //                                 on --threads N (default 1)
@@ -19,6 +21,7 @@ import { fileURLToPath } from 'node:url';
 import { analyze } from '../analysis/analyze.js';
 import type { KernelName } from '../analysis/kernel/kernel-choices.js';
 import { BENCH_SUPPLY } from './cvcc-spec.js';
+import { gradesBenchTable, runGradesBench } from './grades-case.js';
 import { runPeers, trimfreePeerCase } from './peers.js';
 import { runStartup, startupTable } from './startup.js';
 
@@ -122,6 +125,11 @@ async function main(): Promise<void> {
     await runPeers(trials, rounds, threads, (text) => process.stdout.write(text));
     return;
   }
+  if (args.includes('--grades')) {
+    const result = runGradesBench(argValue(args, '--rounds') ? rounds : 3);
+    process.stdout.write(args.includes('--json') ? `${JSON.stringify({ grades: result })}\n` : gradesBenchTable(result));
+    return;
+  }
   if (args.includes('--startup')) {
     const startup = runStartup(rounds);
     process.stdout.write(args.includes('--json') ? `${JSON.stringify({ startup })}\n` : startupTable(startup));
@@ -157,8 +165,9 @@ async function main(): Promise<void> {
     }
   }
   const startup = runStartup(rounds);
+  const grades = runGradesBench(3);
   if (args.includes('--json')) {
-    process.stdout.write(`${JSON.stringify({ monteCarlo: cases, startup })}\n`);
+    process.stdout.write(`${JSON.stringify({ monteCarlo: cases, startup, grades })}\n`);
     return;
   }
   process.stdout.write('CV/CC benchmark design (divider + noninv current limit, 16 uncertain quantities), full analysis\n');
@@ -169,6 +178,7 @@ async function main(): Promise<void> {
     );
   }
   process.stdout.write(`\n${startupTable(startup)}`);
+  process.stdout.write(`\n${gradesBenchTable(grades)}`);
 }
 
 await main();

@@ -44,14 +44,14 @@ export const STARTUP_CASES: Array<{ name: string; args: string[] }> = [
 const PROC_STAT = '/proc/self/stat';
 
 /** CPU time of this process's waited-for children so far, in clock ticks (cutime + cstime, proc(5)). */
-function childTicks(): number {
+export function childTicks(): number {
   const stat = readFileSync(PROC_STAT, 'utf8');
   // Fields after the command name in parentheses (which may hold spaces): state is field 3, cutime 16, cstime 17.
   const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
   return Number(fields[13]) + Number(fields[14]);
 }
 
-function clockTicksPerSecond(): number {
+export function clockTicksPerSecond(): number {
   try {
     const value = Number(execFileSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).trim());
     return Number.isFinite(value) && value > 0 ? value : 100;

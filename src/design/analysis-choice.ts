@@ -6,6 +6,7 @@ import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study
 import type { KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
+import type { PairedSample } from '../analysis/paired-trials.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
 import { DEFAULT_LIFE_CONDITION, lifeConditionOr, type LifeCondition } from '../tolerance/life-allowances.js';
 import { specForCondition } from './life-condition.js';
@@ -82,15 +83,32 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
   return choice;
 }
 
-/** One engine run (worst case, RSS, Monte Carlo) of `spec` as `choice` says, with its progress sent to a new sink. */
-export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory): Promise<AnalysisResult> {
+/** One engine run (worst case, RSS, Monte Carlo) of `spec` as `choice` says, with its progress sent to a new sink.
+ *  The variance indices' wall time is measured here (the engine reads no clock) and set in each output's
+ *  varianceBudget.method.seconds; `shared.varianceSample` lets several variants of one design draw those rows once. */
+export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory, shared: { varianceSample?: PairedSample } = {}): Promise<AnalysisResult> {
   const progress = progressFor(label);
   try {
-    const options: Parameters<typeof analyze>[1] = { trials: choice.trials, seed: choice.seed };
+    let indicesSeconds: number | undefined;
+    const options: Parameters<typeof analyze>[1] = {
+      trials: choice.trials,
+      seed: choice.seed,
+      timeStage: async (_stage, run) => {
+        const start = performance.now();
+        try {
+          return await run();
+        } finally {
+          indicesSeconds = (performance.now() - start) / 1000;
+        }
+      },
+    };
+    if (shared.varianceSample) options.varianceSample = shared.varianceSample;
     if (choice.workers !== undefined) options.workers = choice.workers;
     if (choice.kernel !== undefined) options.kernel = choice.kernel;
     if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
-    return await analyze(spec, options);
+    const result = await analyze(spec, options);
+    if (indicesSeconds !== undefined) for (const output of Object.values(result.outputs)) output.varianceBudget.method.seconds = indicesSeconds;
+    return result;
   } finally {
     progress.finish();
   }

@@ -3,14 +3,17 @@
 // assignment that reaches a yield target (src/pick/grade-mix.ts searches; each assignment is a paired same-seed
 // Monte Carlo), and the single upgrade that buys the most yield per unit cost. `grades` and `design` run it;
 // src/report renders it.
-import { gradableResistors, gradedSpec, type GradableResistor, type ResistorGrade } from '../analysis/graded-spec.js';
+import { gradableResistors, type GradableResistor } from '../analysis/graded-spec.js';
 import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult } from '../analysis/result.js';
 import { jointYieldAsync } from '../analysis/joint-yield-async.js';
+import { PairedSample } from '../analysis/paired-trials.js';
+import { varianceSample } from '../analysis/variance-indices.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
 import { analyzeAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { DEFAULT_GRADE_NAMES, GRADES, gradeSoldAt, type Grade, type GradeName } from './grades.js';
+import { gradedModels, specWithGrades, type GradedModels } from './graded-models.js';
 import type { ResolvedDesign } from './resolve.js';
 import { formatRkmDigits } from '../units/index.js';
 
@@ -20,8 +23,40 @@ export const DEFAULT_GRADES_TRIALS = 100_000;
 export const DEFAULT_SEARCH_TRIALS = 20_000;
 /** Yield the cheapest mix must reach unless --target-yield says otherwise, %. */
 export const DEFAULT_TARGET_YIELD_PCT = 99.9;
-/** Assignments the search may evaluate before it gives up (and says so). */
+/** Assignments the search may evaluate in full before it gives up (and says so). A full evaluation that fails stops
+ *  as soon as the failures pass what the target allows, so most cost a small part of the search trials. */
 export const MAX_SEARCH_EVALUATIONS = 400;
+/** Units a screen of a partial step of the search checks at most (our choice: a fifth of the default trials). */
+export const SCREEN_UNITS = 4096;
+
+/** The most failing units out of `trials` that still reach `target` (fraction), with the search's own comparison
+ *  (yield = (100·inSpec/trials)/100 ≥ target), so a stop at more failures never changes a verdict. */
+export function allowedFailures(trials: number, target: number): number {
+  const passes = (failures: number): boolean => (100 * (trials - failures)) / trials / 100 >= target;
+  if (!passes(0)) return -1;
+  let f = Math.max(0, Math.floor(trials * (1 - target)) - 2);
+  while (f > 0 && !passes(f)) f -= 1;
+  while (f + 1 <= trials && passes(f + 1)) f += 1;
+  return f;
+}
+
+/** How the grade search was done, for the JSON: model evaluations and wall time, with what they count. */
+export interface SearchMethod {
+  /** Model evaluations (every output of the model for one unit at one ambient) in the search, the best upgrade and
+   *  the re-run of the answer. */
+  evaluations: number;
+  /** Wall time of the search, the upgrade and the re-run, s (measured here, in the design layer). */
+  seconds: number;
+  /** Assignments evaluated in full or until they failed, partial steps screened, models put together. */
+  assignments: number;
+  screened: number;
+  /** Units of the one drawn sample every assignment was judged on (paired trials: common random numbers). */
+  pairedTrials: number;
+  /** Wall time of the whole grade study (side-by-side rows included), s. */
+  studySeconds: number;
+  /** The same two figures for each step: the cheapest-mix search, the re-run of its answer, the best upgrade. */
+  steps: Record<'search' | 'verify' | 'upgrade', { evaluations: number; seconds: number }>;
+}
 
 export interface GradesOptions {
   targetYieldPct: number;
@@ -85,6 +120,8 @@ export interface GradesRun {
   /** Yield of the design as graded (table TCRs), in the search's paired trials, %. */
   designedYieldPct: number;
   designedCost: number;
+  /** How the search was done: model evaluations and wall time. */
+  method: SearchMethod;
 }
 
 /** The allowed grades: the command line's, else the design file's, else the default four; widest first. */
@@ -121,18 +158,6 @@ function nearestGrade(tolerance: number): { grade: Grade; exact: boolean } {
   return { grade: [...GRADES].sort((a, b) => distance(a) - distance(b))[0]!, exact: false };
 }
 
-function gradeOf(grade: Grade): ResistorGrade {
-  return { tolerance: grade.tolerance, tcrPerK: grade.tcrPerK };
-}
-
-function specWith(spec: SupplySpec, parts: GradableResistor[], grades: readonly Grade[]): SupplySpec {
-  const map: Record<string, ResistorGrade> = {};
-  parts.forEach((p, i) => {
-    map[p.name] = gradeOf(grades[i]!);
-  });
-  return gradedSpec(spec, map);
-}
-
 function costOf(grades: readonly Grade[], costs: Record<GradeName, number>): number {
   return grades.reduce((sum, g) => sum + costs[g.name], 0);
 }
@@ -143,7 +168,22 @@ function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: bool
   return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
 }
 
+/** A row's all-specs yield: the engine's own count over the row's trials (the same units, the same test in
+ *  unit-check.ts, the same formulas as jointCounter), so it is not counted a second time. */
+function jointFromResult(result: AnalysisResult): JointYield | null {
+  const all = result.allSpecs;
+  if (all === null) return null;
+  const inSpec = Math.round((all.pct * result.trials) / 100);
+  return { outputs: all.outputs, trials: result.trials, inSpec, pct: all.pct, interval: { low: all.low, high: all.high } };
+}
+
+const pause = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
+
+/** Wall clock, s: read here in the design layer (never in src/analysis/). */
+const seconds = (): number => performance.now() / 1000;
+
 export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoice, options: GradesOptions, progressFor: ProgressFactory = silentProgress): Promise<GradesRun> {
+  const studyStart = seconds();
   // The condition (as built, or end of life with the drift allowances) first: every graded copy starts from it.
   const resolved = resolvedForCondition(asResolved, choice.condition);
   const spec = resolved.spec;
@@ -160,13 +200,17 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     return o.offered;
   });
 
-  // Side by side: every resistor in one grade.
+  // Side by side: every resistor in one grade. The rows' variance indices share one drawn sample of units.
   const rows: GradeRow[] = [];
+  let varianceRows: PairedSample | null = null;
   for (const grade of allowed) {
-    const graded = specWith(spec, parts, parts.map(() => grade));
-    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
+    const graded = specWithGrades(spec, parts, parts.map(() => grade));
+    const partCount = buildSupplyModel(graded).parts.length;
+    if (varianceRows === null || varianceRows.partCount !== partCount) varianceRows = varianceSample(seed, partCount);
+    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor, { varianceSample: varianceRows });
     const notSold = parts.filter((_, i) => !offeredPerPart[i]!.includes(grade)).map((p) => p.name);
-    rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint: await jointOf(graded, result.seed, result.trials, choice.trials === 'auto') });
+    const joint = jointFromResult(result) ?? (await jointOf(graded, result.seed, result.trials, choice.trials === 'auto'));
+    rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint });
   }
 
   // The design as it stands, mapped onto the table.
@@ -181,33 +225,73 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     designed[p.name] = designedGrades[i]!.name;
   });
 
-  // The search: paired same-seed Monte Carlo for every assignment it evaluates (cached by grade names). The
-  // search chooses among each part's offered grades; the upgrade starts from the design's own grades, so each part's
-  // list there also holds its designed grade.
+  // The search, on paired trials: one sample of units drawn once (src/analysis/paired-trials.ts), every assignment
+  // judged on it, so comparing assignments costs model evaluations only. The search chooses among each part's
+  // offered grades; the upgrade starts from the design's own grades, so each part's list there also holds its
+  // designed grade.
+  const searchStart = seconds();
   const optionsOf = (lists: Grade[][]): GradeOption[][] => lists.map((list) => list.map((g) => ({ name: g.name, cost: costs[g.name], tightness: GRADES.indexOf(g) })));
   const searchLists = offeredPerPart;
   const upgradeLists = parts.map((_, i) => GRADES.filter((g) => searchLists[i]!.includes(g) || g === designedGrades[i]));
-  const cache = new Map<string, number>();
+  const candidates = GRADES.filter((g) => upgradeLists.some((list) => list.includes(g)));
+  const models = gradedModels(spec, parts, candidates);
+  const searchTrials = options.searchTrials;
+  const target = options.targetYieldPct / 100;
+  const maxFailures = allowedFailures(searchTrials, target);
+  let sample: PairedSample | null = null;
+  const sampleFor = (partCount: number): PairedSample => (sample ??= new PairedSample(partCount, { seed, trials: searchTrials }));
+  let evaluations = 0;
+  let assignments = 0;
+  let screenedCount = 0;
+  // Known yields by grade names: exact (every unit counted) or, for an assignment stopped early, an upper bound.
+  const known = new Map<string, { y: number; exact: boolean }>();
   const progress = progressFor('grade search');
-  const evaluatorFor = (lists: Grade[][]) => async (assignment: readonly number[]): Promise<number> => {
+  const modelOf = (lists: Grade[][], assignment: readonly number[]): { key: string; model: ReturnType<GradedModels['modelFor']> } => {
     const chosen = assignment.map((option, p) => lists[p]![option]!);
-    const key = chosen.map((g) => g.name).join(',');
-    const known = cache.get(key);
-    if (known !== undefined) return known;
-    const y = (await jointOf(specWith(spec, parts, chosen), seed, options.searchTrials, false)).pct / 100;
-    cache.set(key, y);
-    progress.update(cache.size, MAX_SEARCH_EVALUATIONS);
+    return { key: chosen.map((g) => g.name).join(','), model: models.modelFor(chosen) };
+  };
+  const evaluatorFor = (lists: Grade[][], exactOnly: boolean) => async (assignment: readonly number[]): Promise<number> => {
+    const { key, model } = modelOf(lists, assignment);
+    const cached = known.get(key);
+    if (cached !== undefined && (cached.exact || !exactOnly)) return cached.y;
+    await pause();
+    const counted = sampleFor(model.parts.length).count(model, exactOnly ? {} : { maxFailures });
+    evaluations += counted.evaluations;
+    assignments += 1;
+    // Stopped early: more failures than the target allows among the units counted, so the yield is below
+    // (trials − failures)/trials < target.
+    const y = (100 * (counted.complete ? counted.inSpec : searchTrials - counted.failures)) / searchTrials / 100;
+    known.set(key, { y, exact: counted.complete });
+    progress.update(assignments, MAX_SEARCH_EVALUATIONS);
     return y;
+  };
+  const screenFor = (lists: Grade[][]) => async (assignment: readonly number[]): Promise<boolean> => {
+    const { key, model } = modelOf(lists, assignment);
+    const cached = known.get(key);
+    if (cached !== undefined) return cached.y < target;
+    const counted = sampleFor(model.parts.length).count(model, { maxFailures, maxUnits: SCREEN_UNITS });
+    evaluations += counted.evaluations;
+    screenedCount += 1;
+    if (screenedCount % 16 === 0) await pause();
+    return counted.failures > maxFailures;
   };
   let mix: GradeMixAnswer;
   let upgrade: UpgradeAnswer | null = null;
   const base = designedGrades.map((g, i) => upgradeLists[i]!.indexOf(g));
   let designedYieldPct: number;
+  const steps: SearchMethod['steps'] = { search: { evaluations: 0, seconds: 0 }, verify: { evaluations: 0, seconds: 0 }, upgrade: { evaluations: 0, seconds: 0 } };
+  let mark = { evaluations: 0, seconds: seconds() };
+  const step = (name: keyof SearchMethod['steps']): void => {
+    const now = seconds();
+    steps[name] = { evaluations: evaluations - mark.evaluations, seconds: now - mark.seconds };
+    mark = { evaluations, seconds: now };
+  };
   try {
     const unsold = parts.filter((_, i) => searchLists[i]!.length === 0);
     const found = unsold.length > 0
       ? { found: false, assignment: null, cost: null, yield: null, evaluations: 0, skipped: 0, reason: 'no-grade-sold' as const }
-      : await cheapestGradeMix({ options: optionsOf(searchLists), target: options.targetYieldPct / 100, evaluate: evaluatorFor(searchLists), maxEvaluations: MAX_SEARCH_EVALUATIONS });
+      : await cheapestGradeMix({ options: optionsOf(searchLists), target, evaluate: evaluatorFor(searchLists, false), screen: screenFor(searchLists), maxEvaluations: MAX_SEARCH_EVALUATIONS });
+    step('search');
     mix = { found: found.found, evaluations: found.evaluations, skipped: found.skipped };
     if (found.reason) mix.reason = found.reason;
     if (found.found && found.assignment) {
@@ -219,9 +303,13 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
       mix.cost = found.cost!;
       mix.searchYieldPct = found.yield! * 100;
       const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
-      mix.verified = await jointOf(specWith(spec, parts, chosen), seed, verifyTrials, false);
+      const verified = await jointOf(specWithGrades(spec, parts, chosen), seed, verifyTrials, false);
+      evaluations += verifyTrials * (models.modelFor(chosen).ambient?.gridC.length ?? 1);
+      mix.verified = verified;
     }
-    const up = await bestSingleUpgrade({ options: optionsOf(upgradeLists), base, evaluate: evaluatorFor(upgradeLists) });
+    step('verify');
+    const up = await bestSingleUpgrade({ options: optionsOf(upgradeLists), base, evaluate: evaluatorFor(upgradeLists, true) });
+    step('upgrade');
     designedYieldPct = up.baseYield * 100;
     if (up.best) {
       upgrade = {
@@ -237,6 +325,16 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
   } finally {
     progress.finish();
   }
+  const end = seconds();
+  const method: SearchMethod = {
+    evaluations,
+    seconds: end - searchStart,
+    assignments,
+    screened: screenedCount,
+    pairedTrials: searchTrials,
+    studySeconds: end - studyStart,
+    steps,
+  };
   return {
     resolved,
     choice,
@@ -252,6 +350,7 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     upgrade,
     designedYieldPct,
     designedCost: costOf(designedGrades, costs),
+    method,
   };
 }
 

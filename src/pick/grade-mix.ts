@@ -6,12 +6,16 @@
 // 1. Bounds (monotone yield: tightening a part never lowers the yield, the usual case with the nominal inside the
 //    spec window). The all-tightest assignment is the best any assignment can do: if it fails, nothing passes.
 //    For each part, the loosest grade that passes with every OTHER part at its tightest is the loosest grade that
-//    part can have in any passing assignment; looser grades are dropped. At most parts × (grades − 1) runs.
-// 2. Best-first over what is left: assignments are visited in order of total cost, cheapest first, from a priority
-//    queue seeded with "every part at its cheapest remaining grade"; each visited assignment queues those that move
-//    one part one step up its cost-ordered list (every assignment is reachable, none costs less than the one that
-//    queued it, so the visiting order is by non-decreasing cost). The first that reaches the target is the cheapest.
-//    An assignment no tighter, part by part, than one already seen to fail is skipped (monotone yield again).
+//    part can have in any passing assignment; looser grades are dropped. At most parts × (grades − 1) runs (with
+//    a `screen`, these probes are screened only: one it cannot reject counts as passing, which keeps more grades).
+// 2. Branch and bound (depth first) over what is left. Parts are taken one at a time, the one whose cheapest
+//    allowed grade costs most first; a node fixes the grades of the parts taken so far. Its relaxation, those grades
+//    with every part not yet taken at its tightest, is the best any assignment below the node can do (monotone
+//    yield), so a node whose relaxation fails is cut with everything below it. A node is also cut, unevaluated,
+//    when its cost plus the cheapest allowed grade of every part not yet taken cannot beat the cheapest passing
+//    assignment found so far. Grades are tried cheapest first, so the first descent is the greedy answer and the
+//    bound cuts hard from then on. The answer is the cheapest passing assignment (the search visits or cuts every
+//    assignment, cutting only what cannot pass or cannot be cheaper).
 // Ties in cost go to the tighter assignment (more margin for the same money), then by the order of the parts.
 // `prune: false` drops the monotone assumption: no bounds, no skipping, plain cost-ordered enumeration.
 
@@ -29,6 +33,12 @@ export interface GradeMixRequest {
   target: number;
   /** Yield (fraction) of an assignment: index of the chosen option for each part. */
   evaluate: (assignment: readonly number[]) => number | Promise<number>;
+  /**
+   * Optional cheap check of a partial step (a node's relaxation, see the header): true only when the assignment
+   * certainly misses the target (e.g. more failing units already counted than the target allows). A node it
+   * cannot reject is descended into without a full evaluation; only full assignments are evaluated in full.
+   */
+  screen?: (assignment: readonly number[]) => boolean | Promise<boolean>;
   /** Stop after this many evaluations (default 2000). */
   maxEvaluations?: number;
   /** Skip assignments dominated by a known failure (default true). */
@@ -41,9 +51,11 @@ export interface GradeMixResult {
   assignment: number[] | null;
   cost: number | null;
   yield: number | null;
-  /** Monte Carlo runs made, and assignments skipped as dominated by a failure. */
+  /** Assignments evaluated, and branches cut without evaluation (dominated by a failure, or by cost). */
   evaluations: number;
   skipped: number;
+  /** Relaxations rejected by `screen`, and screened without a verdict (descended into). */
+  screened?: { rejected: number; open: number };
   /** Why the search stopped without an answer, when it did. */
   reason?: 'target-unreachable' | 'evaluation-limit';
 }
@@ -70,9 +82,15 @@ export async function cheapestGradeMix(request: GradeMixRequest): Promise<GradeM
   let skipped = 0;
   const stop = (reason: GradeMixResult['reason']): GradeMixResult =>
     ({ found: false, assignment: null, cost: null, yield: null, evaluations, skipped, ...(reason ? { reason } : {}) });
+  // Each assignment is evaluated once (the branch and bound can reach one assignment along two paths).
+  const known = new Map<string, number>();
   const run = async (assignment: number[]): Promise<number> => {
+    const key = assignment.join(',');
+    const cached = known.get(key);
+    if (cached !== undefined) return cached;
     evaluations += 1;
     const y = await evaluate(assignment);
+    known.set(key, y);
     if (y < target) failures.push(assignment.map((option, p) => options[p][option].tightness));
     return y;
   };
@@ -89,13 +107,31 @@ export async function cheapestGradeMix(request: GradeMixRequest): Promise<GradeM
         if (evaluations >= maxEvaluations) return stop('evaluation-limit');
         const probe = tightest.slice();
         probe[p] = option;
-        if ((await run(probe)) >= target) break;
+        // With a screen, a probe it cannot reject is taken as passing: that only keeps more grades allowed.
+        if (request.screen ? !(await request.screen(probe)) : (await run(probe)) >= target) break;
         // Fails even with every other part at its tightest: this grade and every looser one are out for part p.
         options[p].forEach((o, i) => {
           if (o.tightness <= options[p][option].tightness) allowed[p][i] = false;
         });
       }
     }
+    // 2. Branch and bound over the allowed grades.
+    const screened = { rejected: 0, open: 0 };
+    const screen = request.screen;
+    const bbInput: BranchAndBoundInput = { options, allowed, tightest, target, run, limitReached: () => evaluations >= maxEvaluations, skip: () => (skipped += 1) };
+    if (screen) {
+      bbInput.screen = async (assignment) => {
+        const rejected = await screen(assignment);
+        if (rejected) screened.rejected += 1;
+        else screened.open += 1;
+        return rejected;
+      };
+    }
+    const answer = await branchAndBound(bbInput);
+    const extra = screen ? { screened } : {};
+    if (answer === 'evaluation-limit') return { ...stop('evaluation-limit'), ...extra };
+    if (answer === null) return { ...stop('target-unreachable'), ...extra };
+    return { found: true, assignment: answer.assignment, cost: answer.cost, yield: answer.yield, evaluations, skipped, ...extra };
   }
 
   // 2. Best-first in cost order over the allowed grades (cheapest first, then tighter).
@@ -190,6 +226,136 @@ export async function bestSingleUpgrade(request: UpgradeRequest): Promise<Upgrad
     }
   }
   return { baseYield, best, tried };
+}
+
+interface BranchAndBoundInput {
+  options: GradeOption[][];
+  allowed: boolean[][];
+  tightest: number[];
+  target: number;
+  run: (assignment: number[]) => Promise<number>;
+  limitReached: () => boolean;
+  skip: () => void;
+  screen?: (assignment: number[]) => Promise<boolean>;
+}
+
+interface Candidate {
+  assignment: number[];
+  cost: number;
+  tightness: number;
+  /** Rank of each part's grade in its cost-ordered list (the tie-break of the cost order). */
+  rank: number[];
+  yield: number;
+}
+
+/** Relative slack in comparing sums of costs (their order of addition differs between paths). */
+const COST_SLACK = 1e-12;
+
+/** Step 2 of the search (see the header). Null when nothing passes; 'evaluation-limit' when the limit stopped it. */
+async function branchAndBound(input: BranchAndBoundInput): Promise<Candidate | null | 'evaluation-limit'> {
+  const { options, allowed, tightest, target, run } = input;
+  const parts = options.length;
+  // Each part's allowed grades, cheapest first (tighter first among equal costs), as the cost order ranks them.
+  const sorted = options.map((list, p) =>
+    list
+      .map((_, i) => i)
+      .filter((i) => allowed[p]![i])
+      .sort((a, b) => list[a]!.cost - list[b]!.cost || list[b]!.tightness - list[a]!.tightness),
+  );
+  if (sorted.some((list) => list.length === 0)) return null;
+  const cheapest = sorted.map((list, p) => options[p]![list[0]!]!.cost);
+  // The most expensive parts first: their grades decide most of the cost, and their failures cut the most.
+  const order = options
+    .map((_, p) => p)
+    .sort((a, b) => cheapest[b]! - cheapest[a]! || sorted[a]!.length - sorted[b]!.length || a - b);
+  // restMin[d]: the cheapest the parts order[d..] can cost together.
+  const restMin = new Array<number>(parts + 1).fill(0);
+  for (let d = parts - 1; d >= 0; d -= 1) restMin[d] = restMin[d + 1]! + cheapest[order[d]!]!;
+  let best: Candidate | null = null;
+  const beats = (c: Omit<Candidate, 'yield' | 'assignment'>, b: Candidate): boolean => {
+    const slack = COST_SLACK * Math.max(1, Math.abs(b.cost));
+    if (c.cost < b.cost - slack) return true;
+    if (c.cost > b.cost + slack) return false;
+    if (c.tightness !== b.tightness) return c.tightness > b.tightness;
+    return compareRanks(c.rank, b.rank) < 0;
+  };
+  const cannotBeat = (lowerBound: number): boolean => best !== null && lowerBound > best.cost + COST_SLACK * Math.max(1, Math.abs(best.cost));
+  // Known answers as tightness vectors: an assignment no tighter, part by part, than a failure fails, and one at
+  // least as tight as a pass passes (monotone yield), so neither needs a Monte Carlo run.
+  const tightnessOf = (a: readonly number[]): number[] => a.map((option, p) => options[p]![option]!.tightness);
+  const passes: number[][] = [];
+  const failures: number[][] = [];
+  const noTighter = (t: readonly number[], than: readonly number[]): boolean => t.every((x, p) => x <= than[p]!);
+  const assignment = tightest.slice();
+  let limited = false;
+  /** Whether the assignment passes, and its yield when it was run (null when a known answer or the screen decided). */
+  const judge = async (exact: boolean): Promise<{ pass: boolean; yield: number | null; known?: true } | 'evaluation-limit'> => {
+    const t = tightnessOf(assignment);
+    if (failures.some((f) => noTighter(t, f))) return { pass: false, yield: null, known: true };
+    if (!exact && passes.some((q) => noTighter(q, t))) return { pass: true, yield: null, known: true };
+    if (!exact && input.screen) {
+      // A relaxation: screened only; a rejection is a known failure, anything else is descended into.
+      if (await input.screen(assignment)) {
+        failures.push(t);
+        return { pass: false, yield: 0 };
+      }
+      return { pass: true, yield: null };
+    }
+    if (input.limitReached()) return 'evaluation-limit';
+    const y = await run(assignment);
+    (y >= target ? passes : failures).push(t);
+    return { pass: y >= target, yield: y };
+  };
+  const descend = async (d: number, costSoFar: number): Promise<void> => {
+    const p = order[d]!;
+    for (const option of sorted[p]!) {
+      if (cannotBeat(costSoFar + options[p]![option]!.cost + restMin[d + 1]!)) {
+        input.skip();
+        break; // the rest of this part's list costs as much or more
+      }
+      assignment[p] = option;
+      if (d + 1 === parts) {
+        // A full assignment: run only when it would be the new answer (its yield is then reported).
+        const full = costAndRank(options, sorted, assignment);
+        if (best !== null && !beats(full, best)) {
+          input.skip();
+          continue;
+        }
+        const verdict = await judge(true);
+        if (verdict === 'evaluation-limit') {
+          limited = true;
+          return;
+        }
+        if (verdict.pass) best = { ...full, assignment: assignment.slice(), yield: verdict.yield! };
+        else if (verdict.known) input.skip();
+        continue;
+      }
+      const verdict = await judge(false);
+      if (verdict === 'evaluation-limit') {
+        limited = true;
+        return;
+      }
+      if (verdict.known) input.skip();
+      if (verdict.pass) await descend(d + 1, costSoFar + options[p]![option]!.cost);
+      if (limited) return;
+    }
+    assignment[p] = tightest[p]!;
+  };
+  await descend(0, 0);
+  if (limited) return 'evaluation-limit';
+  return best;
+}
+
+/** Cost (summed in part order, as the cost order sums it), total tightness and ranks of a full assignment. */
+function costAndRank(options: GradeOption[][], sorted: number[][], assignment: readonly number[]): Omit<Candidate, 'assignment' | 'yield'> {
+  let cost = 0;
+  let tightness = 0;
+  const rank = assignment.map((option, p) => {
+    cost += options[p]![option]!.cost;
+    tightness += options[p]![option]!.tightness;
+    return sorted[p]!.indexOf(option);
+  });
+  return { cost, tightness, rank };
 }
 
 function compareRanks(a: number[], b: number[]): number {

@@ -52,6 +52,16 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       method: searchMethod(run.allowed[run.allowed.length - 1]!.name.replace('%', '\u00a0%')),
     },
     bestUpgrade: run.upgrade,
+    method: {
+      evaluations: run.method.evaluations,
+      seconds: run.method.seconds,
+      counts: 'model evaluations (every output for one unit at one ambient) and wall time of the cheapest-mix search, the best upgrade and the re-run of the answer',
+      assignments: run.method.assignments,
+      screened: run.method.screened,
+      pairedTrials: run.method.pairedTrials,
+      studySeconds: run.method.studySeconds,
+      steps: run.method.steps,
+    },
     notes: [
       GRADING_NOTE,
       `"all specs" yield: share of trials in which every output with a spec window (${names.join(', ')}) is inside it.`,

@@ -9,12 +9,14 @@ export const GRADING_NOTE =
 /** How the search works, naming the tightest grade it was allowed (e.g. "0.1 %", with a no-break space as the reports write it). */
 export function searchMethod(tightest: string): string {
   return (
-  'Every assignment is evaluated by Monte Carlo on the same seed and trials, so any two are compared on paired ' +
-  'trials. Taking yield not to fall when a part is tightened (the usual case with the nominal inside the window): ' +
-  `if every part at ${tightest} fails, nothing passes; for each part, grades that fail even with every other part at ` +
-  `${tightest} are ruled out; the remaining assignments are then visited in order of total cost, cheapest first, and the ` +
-  'first that reaches the target is the cheapest (assignments no tighter than a known failure are skipped). The ' +
-  'answer is re-run with the full trial count.'
+  'Every assignment is judged on one sample of units drawn once (paired trials: each part drawn once per unit and ' +
+  "mapped to each grade's band), so any two are compared on the same units and comparing costs model evaluations " +
+  'only; an assignment stops being counted once more units fail than the target allows. Taking yield not to fall ' +
+  `when a part is tightened (the usual case with the nominal inside the window): if every part at ${tightest} fails, ` +
+  `nothing passes; for each part, grades that fail even with every other part at ${tightest} are ruled out; then a ` +
+  'branch and bound fixes one part at a time, cheapest grade first, cutting a branch when its grades with every ' +
+  'remaining part at its tightest fail, or when it cannot cost less than the cheapest passing mix found so far. ' +
+  'The answer is re-run with the full trial count.'
   );
 }
 

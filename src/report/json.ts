@@ -65,6 +65,8 @@ export interface SpreadJsonOutput {
     baseSamples: number;
     evaluations: number;
     seed: string;
+    /** Model evaluations the indices took and their wall time, s (null when the run was not timed). */
+    method: { evaluations: number; seconds: number | null };
     totalEffectSum: number;
     firstOrderSum: number;
     rssToMonteCarloSigma: number | null;
@@ -183,6 +185,7 @@ export function outputJson(output: OutputResult): SpreadJsonOutput {
       baseSamples: output.varianceBudget.method.baseSamples,
       evaluations: output.varianceBudget.method.evaluations,
       seed: output.varianceBudget.method.seed,
+      method: { evaluations: output.varianceBudget.method.evaluations, seconds: output.varianceBudget.method.seconds ?? null },
       totalEffectSum: f(output.varianceBudget.totalEffectSum, 'varianceBudget.totalEffectSum'),
       firstOrderSum: f(output.varianceBudget.firstOrderSum, 'varianceBudget.firstOrderSum'),
       rssToMonteCarloSigma: finiteOrNull(output.varianceBudget.rssToMonteCarloSigma ?? undefined, 'varianceBudget.rssToMonteCarloSigma', 'the Monte Carlo σ is 0', notes),
