@@ -106,6 +106,8 @@ const ROWS: Row[] = [
   { args: ['sense', '--limit', '3A', '--topology', 'diff', '--threshold', '1V', '--tcr', '25ppm', '--delta-t', '-5'], code: 2, where: '--delta-t:', says: /'-5' is not a temperature difference; accepted: a number of kelvin from 0 to 500/ },
   { args: ['sense', '--limit', '3A', '--threshold', '1V', '--tcr', '25ppm', '--delta-t', '45'], code: 2, where: '--tcr:', says: /counted for the diff topology's R1–R4, not noninv; accepted: --topology diff/ },
   { args: ['divider', '--vref', '1.25', '--vout', '8.4', '--tolerance', '0.1%', '--ratio-tol', '0.5%'], code: 2, where: '--ratio-tol:', says: /0\.50 % is wider than the resistors' 0\.10 % absolute tolerance; accepted: a ratio tolerance at most --tolerance/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '8.4', '--delta-t', '45'], code: 2, where: '--delta-t:', says: /the resistors' TCR needs both --tcr and --delta-t; accepted: --tcr 25ppm --delta-t 45/ },
+  { args: ['divider', '--vref', '1.25', '--vout', '8.4', '--tcr', '25ppm', '--tracking', '5ppm', '--delta-t', '45'], code: 2, where: '--tracking:', says: /TCR tracking is a network figure; accepted: --ratio-tol with --tracking/ },
   { args: ['divider', '--vref', '1.25', '--vout', '3..12', '--pot', '10k', '--ratio-tol', '0.05%'], code: 2, where: '--ratio-tol:', says: /a network is offered for a fixed divider only; accepted: no --ratio-tol with --pot/ },
   { args: ['sense', '--limit', '3A', '--threshold', '1V', '--ib', '20n±'], code: 2, where: '--ib:', says: /empty current.*; accepted: a current as a typical value/ },
   { args: ['sense', '--limit', '3A', '--threshold', '1V', '--ib', '±1e9'], code: 2, where: '--ib:', says: /outside what trimfree takes as a real part; accepted: .*up to 100 kA/ },

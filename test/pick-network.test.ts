@@ -162,6 +162,35 @@ describe('divider with both legs one network', () => {
     }
   });
 
+  it('with TCR tracking over 25 °C ± ΔT: the closed form again, with each member own TCR in the ratio', () => {
+    // Rt/Rb = r·(1 + m_t)(1 + (a + t_t)·ΔT)/((1 + m_b)(1 + (a + t_b)·ΔT)): s cancels, the shared TCR a only to first
+    // order. With u = a·ΔT within ±A (A = (T − τ/2)·45 K) and h = (τ/2)·45 K, (1 + u + h)/(1 + u − h) is largest at
+    // u = −A, so
+    //   max = Vref·(1 + v)·(1 + r·(1 + ρ)·(1 − A + h)/(1 − A − h)),
+    //   min = Vref·(1 − v)·(1 + r·((1 − μ)/(1 + μ))·(1 − A − h)/(1 − A + h)).
+    const tolerance = 0.001;
+    const ratio = 0.0005;
+    const vrefTolerance = 0.005;
+    const result = pickDivider({ vref: 1.25, vout: { lo: 8.4, hi: 8.4 }, ifb: 0, series: ['E96'], maxParts: 2, bottom: { lo: 1e3, hi: 100e3 }, minOhms: 1, maxOhms: 1e6, biasRatio: 0, tolerance, ratioTolerance: ratio, vrefTolerance, count: 3, temperature: { tcrPerK: 25e-6, trackingPerK: 5e-6, deltaT: 45 } });
+    if (result.mode !== 'fixed') throw new Error('fixed expected');
+    const mu = networkBands({ tolerance, ratio, tcrPerK: 0, trackingPerK: 0 }).mismatch;
+    const h = 2.5e-6 * 45;
+    const A = 22.5e-6 * 45;
+    for (const c of result.candidates) {
+      const r = c.top / c.bottom;
+      expect(c.worstCase.max).toBeCloseTo(1.25 * (1 + vrefTolerance) * (1 + r * (1 + ratio) * ((1 - A + h) / (1 - A - h))), 12);
+      expect(c.worstCase.min).toBeCloseTo(1.25 * (1 - vrefTolerance) * (1 + r * ((1 - mu) / (1 + mu)) * ((1 - A - h) / (1 - A + h))), 12);
+    }
+    // Loose parts at the same TCR: each ±(t, T) on its own, so the ratio reaches ((1 + t)(1 + TΔT))/((1 − t)(1 − TΔT)).
+    const loose = pickDivider({ vref: 1.25, vout: { lo: 8.4, hi: 8.4 }, ifb: 0, series: ['E96'], maxParts: 2, bottom: { lo: 1e3, hi: 100e3 }, minOhms: 1, maxOhms: 1e6, biasRatio: 0, tolerance, vrefTolerance, count: 3, temperature: { tcrPerK: 25e-6, deltaT: 45 } });
+    if (loose.mode !== 'fixed') throw new Error('fixed expected');
+    const H = 25e-6 * 45;
+    for (const c of loose.candidates) {
+      const r = c.top / c.bottom;
+      expect(c.worstCase.max).toBeCloseTo(1.25 * (1 + vrefTolerance) * (1 + (r * (1 + tolerance) * (1 + H)) / ((1 - tolerance) * (1 - H))), 12);
+    }
+  });
+
   it('refuses a ratio band wider than the absolute one, and a network with a pot', () => {
     const base = { vref: 1.25, ifb: 0, series: ['E96' as const], maxParts: 2 as const, bottom: { lo: 1e3, hi: 100e3 }, minOhms: 1, maxOhms: 1e6, biasRatio: 0, tolerance: 0.001, vrefTolerance: 0.01, count: 5 };
     expect(() => pickDivider({ ...base, vout: { lo: 8.4, hi: 8.4 }, ratioTolerance: 0.002 })).toThrow(InputError);

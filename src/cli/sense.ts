@@ -18,6 +18,7 @@ import {
   boundedPercentOption,
   toleranceOption,
   powerOption,
+  kelvinOption,
   ppmPerKOption,
   rangeOption,
   seriesOption,
@@ -144,17 +145,6 @@ function gainTemperature(options: SenseOptions, request: SenseRequest): void {
 
 const formatPpm = (perK: number): string => `${Number((perK * 1e6).toPrecision(4))} ppm/K`;
 
-/** A temperature difference in kelvin, a plain number 0..500. */
-function kelvinOption(name: string): (text: string) => number {
-  return (text) => {
-    const value = Number(text.trim().replace(/\s*K$/, ''));
-    if (text.trim() === '' || !Number.isFinite(value) || value < 0 || value > 500) {
-      throw new InputError(name, `'${printableText(text)}' is not a temperature difference`, 'a number of kelvin from 0 to 500, e.g. 45 or 45K');
-    }
-    return value;
-  };
-}
-
 const ohms = (r: number): string => formatEngineering(r, 'Ω');
 
 /** The gain-resistor cell: "RF 11.3 kΩ / RG 2.00 kΩ", "R1=R3 15.0 kΩ / R2=R4 100 kΩ". */
@@ -241,7 +231,7 @@ function highSideNote(commonMode: number, network: SenseRequest['gainNetwork']):
     return (
       `high side: resistor mismatch turns the ${formatEngineering(commonMode, 'V')} common mode into limit error. R1–R4 as one network: its shared\n` +
       `term cancels in every ratio and each member keeps its own ±ρ/(2 + ρ) (ρ the ratio tolerance), so the worst-case CMRR\n` +
-      `is about (1 + G)/(4·ρ/(2 + ρ)) ≈ (1 + G)/(2ρ) (first order; test/network-model.test.ts derives it).\n`
+      `is about (1 + G)/(4·ρ/(2 + ρ)) ≈ (1 + G)/(2ρ) (first order).\n`
     );
   }
   return (
