@@ -21,7 +21,9 @@ import {
 import {
   currentBandOption,
   integerOption,
+  kelvinOption,
   percentOption,
+  ppmPerKOption,
   toleranceOption,
   rangeOption,
   resistanceOption,
@@ -42,6 +44,9 @@ interface DividerOptions {
   biasRatio: number;
   tolerance?: number;
   ratioTol?: number;
+  tcr?: number;
+  tracking?: number;
+  deltaT?: number;
   vrefTol: number;
   maxError?: number;
   top: number;
@@ -101,9 +106,10 @@ function printFixed(result: FixedDividerResult, ifb: CurrentBand): void {
   process.stdout.write(
     `${settingsLine(result, ifb)}\n${table.toString()}\n` +
       `error: Vout vs ${volts(s.vout.lo)} with Ifb included; Ifb part: Ifb·Rtop as a share of the target; ` +
+      (s.temperature ? `worst case at 25 °C ± ${s.temperature.deltaT} K with the resistors' TCR ±${Number((s.temperature.tcrPerK * 1e6).toPrecision(4))} ppm/K${s.ratioTolerance !== undefined ? `, tracking ${Number(((s.temperature.trackingPerK ?? 2 * s.temperature.tcrPerK) * 1e6).toPrecision(4))} ppm/K` : ''} (Vref's tempco not counted).\n` : '') +
       (s.ratioTolerance === undefined
-        ? `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n`
-        : `worst case: the resistors as one network, ±${formatPercent(s.tolerance, 2)} absolute and ±${formatPercent(s.ratioTolerance, 3)} ratio between any two: every corner of its shared term × each part's own term (src/tolerance/network-bands.ts), and ±${formatPercent(s.vrefTolerance, 2)} Vref (no TCR; Ifb at its nominal, no Ifb spread).\n`) +
+        ? `worst case: every corner of ±${formatPercent(s.tolerance, 2)} resistors and ±${formatPercent(s.vrefTolerance, 2)} Vref (${s.temperature ? 'TCR as above' : 'no TCR'}; Ifb at its nominal, no Ifb spread).\n`
+        : `worst case: the resistors as one network, ±${formatPercent(s.tolerance, 2)} absolute and ±${formatPercent(s.ratioTolerance, 3)} ratio between any two: every corner of its shared term × each part's own term, and ±${formatPercent(s.vrefTolerance, 2)} Vref (${s.temperature ? 'TCR as above' : 'no TCR'}; Ifb at its nominal, no Ifb spread).\n`) +
       NOTES,
   );
 }
@@ -157,6 +163,16 @@ const NOTES =
   'Vref, its tolerance and the feedback-pin bias current Ifb come from the regulator\'s datasheet.\n' +
   'Where the output charges a battery, check the worst-case maximum against the cell maker\'s charge-voltage limit.\n';
 
+/** --tcr, --tracking, --delta-t: the resistors' TCR in the worst case; both --tcr and --delta-t, or neither. */
+function dividerTemperature(options: DividerOptions): { tcrPerK: number; trackingPerK?: number; deltaT: number } | undefined {
+  const { tcr, tracking, deltaT } = options;
+  if (tcr === undefined && tracking === undefined && deltaT === undefined) return undefined;
+  if (tcr === undefined || deltaT === undefined) {
+    throw new InputError(tcr === undefined ? (tracking !== undefined ? '--tracking' : '--delta-t') : '--tcr', 'the resistors\' TCR needs both --tcr and --delta-t', '--tcr 25ppm --delta-t 45 (the ambient\'s largest distance from 25 °C, K)');
+  }
+  return tracking === undefined ? { tcrPerK: tcr, deltaT } : { tcrPerK: tcr, trackingPerK: tracking, deltaT };
+}
+
 async function run(options: DividerOptions): Promise<void> {
   if (options.parts !== 2 && options.parts !== 3) {
     throw new InputError('--parts', `${options.parts} parts is not offered`, '2 (one resistor a leg) or 3 (one leg may be two resistors)');
@@ -176,6 +192,7 @@ async function run(options: DividerOptions): Promise<void> {
     biasRatio: options.biasRatio,
     tolerance: options.tolerance,
     ratioTolerance: options.ratioTol,
+    temperature: dividerTemperature(options),
     vrefTolerance: options.vrefTol,
     maxError: options.maxError,
     count: options.top,
@@ -205,6 +222,9 @@ export function dividerCommand(): Command {
     .addOption(new Option('--bias-ratio <n>', 'divider current at least n × |Ifb| (0: off)').argParser(integerOption('--bias-ratio', 0, 1e6)).default(d.biasRatio))
     .addOption(new Option('--tolerance <pct>', 'resistor tolerance (default: the series\' usual, E96 1 %)').argParser(toleranceOption('--tolerance')))
     .addOption(new Option('--ratio-tol <pct>', 'the divider\'s resistors as one network with this ratio (matching) tolerance, --tolerance its absolute one; worst case then takes the network\'s shared × own corners (default: separate resistors)').argParser(toleranceOption('--ratio-tol')))
+    .addOption(new Option('--tcr <ppm>', 'resistor TCR (with --ratio-tol the network\'s absolute TCR), counted in the worst case at 25 °C ± --delta-t (default: not counted)').argParser(ppmPerKOption('--tcr')))
+    .addOption(new Option('--tracking <ppm>', 'with --ratio-tol: TCR tracking between the resistors, at most 2 × --tcr (default 2 × --tcr: independent TCRs)').argParser(ppmPerKOption('--tracking')))
+    .addOption(new Option('--delta-t <K>', 'with --tcr: the ambient\'s largest distance from 25 °C, in kelvin (e.g. 45 for -20..60 °C)').argParser(kelvinOption('--delta-t')))
     .addOption(new Option('--vref-tol <pct>', 'reference tolerance').argParser(toleranceOption('--vref-tol')).default(d.vrefTolerance, '1%'))
     .addOption(new Option('--max-error <pct>', 'largest output error accepted (default: the resistor tolerance)').argParser(percentOption('--max-error')))
     .addOption(new Option('--top <n>', 'candidates shown').argParser(integerOption('--top', 1, 200)).default(d.count))
@@ -227,6 +247,7 @@ Examples:
   $ trimfree divider --vref 1.25 --vout 12 --bottom 3k3..3k3 --series E24,E96 --max-error 2%
   $ trimfree divider --vref 1.25 --vout 14.4 --stock my-resistors.txt --json
   $ trimfree divider --vref 1.25 --vout 8.4 --tolerance 0.1% --ratio-tol 0.05%
+  $ trimfree divider --vref 1.25 --vout 8.4 --tolerance 0.1% --ratio-tol 0.05% --tcr 25ppm --tracking 5ppm --delta-t 45
   $ trimfree divider --vref 1.25 --vout 3.3..24 --pot 100k --pot-leg top`,
     )
     .configureOutput({ outputError: () => undefined }) // src/cli/main.ts prints the one-line error

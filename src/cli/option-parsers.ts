@@ -1,6 +1,7 @@
 // Adapters from the value-notation parsers to commander option/argument parsers.
 // Each throws InputError with `where` = the option name (e.g. '--vout'), so src/cli/main.ts prints one line, exit 2.
 import { InputError } from '../errors.js';
+import { printableText } from '../user-text.js';
 import { parseSeriesName, type SeriesName } from '../series/load.js';
 import {
   CURRENT_BAND_ACCEPTED,
@@ -103,5 +104,16 @@ export function boundedPercentOption(name: string, min: number, max: number, acc
     const low = aboveMin ? fraction > min : fraction >= min;
     if (!(low && fraction <= max)) throw new InputError(name, `'${value.trim()}' is out of range`, accepted);
     return fraction;
+  };
+}
+
+/** A temperature difference in kelvin: a plain number 0..500, "45" or "45K" (e.g. an ambient's distance from 25 °C). */
+export function kelvinOption(name: string): (text: string) => number {
+  return (text) => {
+    const value = Number(text.trim().replace(/\s*K$/, ''));
+    if (text.trim() === '' || !Number.isFinite(value) || value < 0 || value > 500) {
+      throw new InputError(name, `'${printableText(text)}' is not a temperature difference`, 'a number of kelvin from 0 to 500, e.g. 45 or 45K');
+    }
+    return value;
   };
 }

@@ -18,6 +18,8 @@ import {
   boundedPercentOption,
   toleranceOption,
   powerOption,
+  kelvinOption,
+  ppmPerKOption,
   rangeOption,
   seriesOption,
   voltageOption,
@@ -40,6 +42,9 @@ interface SenseOptions {
   window: Range;
   tolerance: number;
   ratioTol?: number;
+  tcr?: number;
+  tracking?: number;
+  deltaT?: number;
   rail: number;
   headroom: number;
   vos: number;
@@ -117,8 +122,28 @@ function buildRequest(options: SenseOptions): SenseRequest {
     }
     request.gainNetwork = { name: 'RN1', tolerance: options.tolerance, ratio: options.ratioTol };
   }
+  gainTemperature(options, request);
   return request;
 }
+
+/** --tcr, --tracking, --delta-t: the gain resistors' TCR in the quick worst case (diff only). */
+function gainTemperature(options: SenseOptions, request: SenseRequest): void {
+  const { tcr, tracking, deltaT } = options;
+  if (tcr === undefined && tracking === undefined && deltaT === undefined) return;
+  const first = tcr !== undefined ? '--tcr' : tracking !== undefined ? '--tracking' : '--delta-t';
+  if (options.topology !== 'diff') throw new InputError(first, `the gain resistors' TCR is counted for the diff topology's R1–R4, not ${options.topology}`, '--topology diff');
+  if (deltaT === undefined || tcr === undefined) {
+    throw new InputError(deltaT === undefined ? first : '--delta-t', 'the gain resistors\' TCR needs both --tcr and --delta-t', '--tcr 25ppm --delta-t 45 (the ambient\'s largest distance from 25 °C, K)');
+  }
+  if (tracking !== undefined) {
+    if (!request.gainNetwork) throw new InputError('--tracking', 'TCR tracking is a network figure', '--ratio-tol with --tracking, or no --tracking');
+    if (tracking > 2 * tcr * (1 + 1e-12)) throw new InputError('--tracking', `${formatPpm(tracking)} is more than twice the ${formatPpm(tcr)} --tcr`, 'a tracking figure at most twice --tcr (two members inside ±tcr differ by at most 2·tcr)');
+    request.gainNetwork!.trackingPerK = tracking;
+  }
+  request.gainTcr = { tcrPerK: tcr, deltaT };
+}
+
+const formatPpm = (perK: number): string => `${Number((perK * 1e6).toPrecision(4))} ppm/K`;
 
 const ohms = (r: number): string => formatEngineering(r, 'Ω');
 
@@ -192,6 +217,9 @@ function describeRequest(request: SenseRequest, options: SenseOptions): string {
     `current limit ${formatEngineering(request.limit, 'A')}, ${request.topology} topology, ${side}, ${threshold}`,
     `resistors ${options.series} ${ohms(options.window.lo)}–${ohms(options.window.hi)} ±${formatPercent(request.resistorTolerance)}; ` +
       (request.gainNetwork ? `R1–R4 one network RN1, ±${formatPercent(request.gainNetwork.ratio, 3)} ratio between any two; ` : '') +
+      (request.gainTcr
+        ? `R1–R4 TCR ±${formatPpm(request.gainTcr.tcrPerK)}${request.gainNetwork ? `, tracking ${formatPpm(request.gainNetwork.trackingPerK ?? 2 * request.gainTcr.tcrPerK)}` : ''} at 25 °C ± ${request.gainTcr.deltaT} K; `
+        : '') +
       `shunts ±${formatPercent(request.shuntTolerance)} rated ${formatEngineering(request.shuntRatingW, 'W')} used to ${formatPercent(request.derating, 0)}` +
       (request.maxLossW === undefined ? '' : `, loss budget ${formatEngineering(request.maxLossW, 'W')}`),
     amp,
@@ -203,7 +231,7 @@ function highSideNote(commonMode: number, network: SenseRequest['gainNetwork']):
     return (
       `high side: resistor mismatch turns the ${formatEngineering(commonMode, 'V')} common mode into limit error. R1–R4 as one network: its shared\n` +
       `term cancels in every ratio and each member keeps its own ±ρ/(2 + ρ) (ρ the ratio tolerance), so the worst-case CMRR\n` +
-      `is about (1 + G)/(4·ρ/(2 + ρ)) ≈ (1 + G)/(2ρ) (first order; test/network-model.test.ts derives it).\n`
+      `is about (1 + G)/(4·ρ/(2 + ρ)) ≈ (1 + G)/(2ρ) (first order).\n`
     );
   }
   return (
@@ -264,7 +292,9 @@ function run(options: SenseOptions): void {
       `loss limit (its derated rating, or --max-loss when lower);\n` +
       `offsets: largest limit change from Vos, Ib and the comparing offset; worst case: every tolerance and offset at its\n` +
       `extremes (vertex enumeration, exact for these monotonic transfers${request.gainNetwork ? '; R1–R4 by the corners of the network\'s shared term ×\neach member\'s own term, so every unit holds both bands' : ''}); spread: larger distance from the target to\n` +
-      `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n` +
+      (request.gainTcr
+        ? `either end, in % of the target. TCR: only R1–R4's, at 25 °C ± ${request.gainTcr.deltaT} K; the shunt's, the threshold's, offset drift and\nself-heating are not included: run 'trimfree spread' on a design file.\n`
+        : `either end, in % of the target. TCR and self-heating are not included: run 'trimfree spread' on a design file.\n`) +
       (shown.some(exceedsLossLimit) ? `!: the worst-case highest limit exceeds I max (the loss there is listed in --json as worstCaseLossW); 'trimfree design' never picks such a candidate.\n` : '') +
       (removed.length > 0 ? `removed before ranking: ${removed.join(', ')}\n` : '') +
       (request.commonMode !== 0 ? highSideNote(request.commonMode, request.gainNetwork) : '') +
@@ -291,6 +321,9 @@ export function senseCommand(): Command {
     .addOption(new Option('--window <lo..hi>', 'range of the gain and divider resistors').argParser(rangeOption(parseResistance, '--window')).default({ lo: 1e3, hi: 1e6 }, '1k..1M'))
     .addOption(new Option('--tolerance <pct>', 'tolerance of the gain and divider resistors').argParser(toleranceOption('--tolerance')).default(0.01, '1 %'))
     .addOption(new Option('--ratio-tol <pct>', 'diff: R1–R4 as one network with this ratio (matching) tolerance, --tolerance its absolute one; worst case takes its shared × own corners (default: four separate resistors)').argParser(toleranceOption('--ratio-tol')))
+    .addOption(new Option('--tcr <ppm>', 'diff: TCR of R1–R4 (with --ratio-tol the network\'s absolute TCR), counted at 25 °C ± --delta-t (default: not counted)').argParser(ppmPerKOption('--tcr')))
+    .addOption(new Option('--tracking <ppm>', 'with --ratio-tol: TCR tracking between R1–R4, at most 2 × --tcr (default 2 × --tcr: independent TCRs)').argParser(ppmPerKOption('--tracking')))
+    .addOption(new Option('--delta-t <K>', 'with --tcr: the ambient\'s largest distance from 25 °C, in kelvin (e.g. 45 for -20..60 °C)').argParser(kelvinOption('--delta-t')))
     .addOption(new Option('--rail <V>', 'amplifier supply rail').argParser(voltageOption('--rail')).default(5, '5 V'))
     .addOption(new Option('--headroom <V>', 'how close to the rail the amplifier output swings').argParser(voltageOption('--headroom')).default(0.2, '0.2 V'))
     .addOption(new Option('--vos <V>', 'largest amplifier input offset').argParser(voltageOption('--vos')).default(1e-3, '1 mV'))
@@ -312,6 +345,7 @@ Examples:
   $ trimfree sense --limit 3A --threshold 1V --max-loss 0.25W --vos 50uV --tolerance 0.1%
   $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V
   $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V --tolerance 0.1% --ratio-tol 0.05%
+  $ trimfree sense --limit 5A --topology diff --threshold 1.2V --common-mode 24V --rail 30V --tolerance 0.1% --ratio-tol 0.05% --tcr 25ppm --tracking 5ppm --delta-t 45
   $ trimfree sense --limit 2A --topology direct --threshold-from 1.25V --vos-cmp 1mV
   $ trimfree sense --limit 3A --threshold 1V --shunts 20m,R033,50m --json`,
     )

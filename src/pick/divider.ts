@@ -45,6 +45,8 @@ export interface DividerRequest {
   tolerance?: number | undefined;
   /** Every resistor of a fixed divider in one network with this ratio tolerance (a fraction ≤ tolerance). */
   ratioTolerance?: number | undefined;
+  /** A fixed divider's resistor TCR counted in its worst case at 25 °C ± deltaT (tracking: with ratioTolerance). */
+  temperature?: { tcrPerK: number; trackingPerK?: number | undefined; deltaT: number } | undefined;
   vrefTolerance: number;
   /** Largest acceptable |error| of a fixed output, as a fraction; undefined: the resistor tolerance. */
   maxError?: number | undefined;
@@ -76,6 +78,8 @@ export interface DividerSettings {
   toleranceSource: string;
   /** The resistors' ratio tolerance when they are one network (worst case: shared × own corners). */
   ratioTolerance?: number;
+  /** The resistors' TCR counted in the worst case, at 25 °C ± deltaT. */
+  temperature?: { tcrPerK: number; trackingPerK?: number | undefined; deltaT: number };
   vrefTolerance: number;
   maxError: number;
   sources: string[];
@@ -177,6 +181,15 @@ export function pickDivider(request: DividerRequest): DividerResult {
     }
     settings.ratioTolerance = request.ratioTolerance;
   }
+  if (request.temperature) {
+    if (request.pot) throw new InputError('--tcr', 'the resistors\' TCR is counted for a fixed divider only', 'no --tcr with --pot');
+    const t = request.temperature;
+    if (t.trackingPerK !== undefined && request.ratioTolerance === undefined) throw new InputError('--tracking', 'TCR tracking is a network figure', '--ratio-tol with --tracking, or no --tracking');
+    if (t.trackingPerK !== undefined && t.trackingPerK > 2 * t.tcrPerK * (1 + 1e-12)) {
+      throw new InputError('--tracking', `${Number((t.trackingPerK * 1e6).toPrecision(4))} ppm/K is more than twice the ${Number((t.tcrPerK * 1e6).toPrecision(4))} ppm/K --tcr`, 'a tracking figure at most twice --tcr (two members inside ±tcr differ by at most 2·tcr)');
+    }
+    settings.temperature = t;
+  }
   return request.pot
     ? pickAdjustable(request, request.pot, settings, allowed, window)
     : pickFixed(request, settings, allowed, window);
@@ -200,6 +213,7 @@ function pickFixed(request: DividerRequest, settings: DividerSettings, allowed: 
     tolerance: settings.tolerance,
     vrefTolerance: settings.vrefTolerance,
     ratioTolerance: settings.ratioTolerance,
+    temperature: settings.temperature,
     ...sourceLookup(allowed),
   };
   const all = ranked.map((r) => describeFixed(r.item.top, r.item.bottom, context));

@@ -49,6 +49,11 @@ export interface DescribeContext {
    * (src/tolerance/network-bands.ts). Absent: each resistor on its own at ±tolerance.
    */
   ratioTolerance?: number | undefined;
+  /**
+   * The resistors' TCR counted in the worst case at ambients 25 °C ± deltaT: each within ±tcrPerK, or, in a network,
+   * its shared TCR plus each part's own (trackingPerK, default 2·tcrPerK: independent). Absent: at 25 °C.
+   */
+  temperature?: { tcrPerK: number; trackingPerK?: number | undefined; deltaT: number } | undefined;
 }
 
 export function describeFixed(top: Leg, bottom: Leg, context: DescribeContext): DividerCandidate {
@@ -90,27 +95,49 @@ function legParts(leg: 'top' | 'bottom', l: Leg, current: number, voltage: numbe
 
 const legValue = (leg: Leg, r: (k: number) => number, at: number): number => (leg.parts.length === 1 ? r(at) : legOhms(leg.kind, r(at), r(at + 1)));
 
-/** Worst case: x = [Vref, top parts…, bottom parts…], each at ±its tolerance. */
+/**
+ * Worst case: x = [Vref, top parts…, bottom parts…, then with a temperature: ΔT, each part's α…], each part at ±its
+ * tolerance, R_k·(1 + α_k·ΔT) at temperature.
+ */
 function looseExtremes(top: Leg, bottom: Leg, context: DescribeContext): { min: number; max: number } {
-  const { vref, ifb, tolerance, vrefTolerance } = context;
-  const nominal = [vref, ...top.parts, ...bottom.parts];
-  const relative = [vrefTolerance, ...top.parts.map(() => tolerance), ...bottom.parts.map(() => tolerance)];
-  const lo = nominal.map((x, i) => x * (1 - relative[i]!));
-  const hi = nominal.map((x, i) => x * (1 + relative[i]!));
-  const nt = top.parts.length;
-  return cornerExtremes((x) => dividerVout(x[0]!, legValue(top, (k) => x[k]!, 1), legValue(bottom, (k) => x[k]!, 1 + nt), ifb), lo, hi);
-}
-
-/** Worst case with the resistors one network: x = [Vref, s, m for each part…], part k = R_k·(1 + s)·(1 + m_k). */
-function networkExtremes(top: Leg, bottom: Leg, context: DescribeContext, ratio: number): { min: number; max: number } {
-  const { vref, ifb, tolerance, vrefTolerance } = context;
-  const bands = networkBands({ tolerance, ratio, tcrPerK: 0, trackingPerK: 0 });
+  const { vref, ifb, tolerance, vrefTolerance, temperature } = context;
   const parts = [...top.parts, ...bottom.parts];
-  const lo = [vref * (1 - vrefTolerance), -bands.shared, ...parts.map(() => -bands.mismatch)];
-  const hi = [vref * (1 + vrefTolerance), bands.shared, ...parts.map(() => bands.mismatch)];
+  const n = parts.length;
+  const lo = [vref * (1 - vrefTolerance), ...parts.map((r) => r * (1 - tolerance))];
+  const hi = [vref * (1 + vrefTolerance), ...parts.map((r) => r * (1 + tolerance))];
+  if (temperature) {
+    lo.push(-temperature.deltaT, ...parts.map(() => -temperature.tcrPerK));
+    hi.push(temperature.deltaT, ...parts.map(() => temperature.tcrPerK));
+  }
   const nt = top.parts.length;
   return cornerExtremes((x) => {
-    const r = (k: number): number => parts[k]! * (1 + x[1]!) * (1 + x[2 + k]!);
+    const r = (k: number): number => (temperature ? x[1 + k]! * (1 + x[2 + n + k]! * x[1 + n]!) : x[1 + k]!);
+    return dividerVout(x[0]!, legValue(top, r, 0), legValue(bottom, r, nt), ifb);
+  }, lo, hi);
+}
+
+/**
+ * Worst case with the resistors one network: x = [Vref, s, m for each part…, then with a temperature: ΔT, a, t for
+ * each part…], part k = R_k·(1 + s)·(1 + m_k)·(1 + (a + t_k)·ΔT) (src/tolerance/network-bands.ts).
+ */
+function networkExtremes(top: Leg, bottom: Leg, context: DescribeContext, ratio: number): { min: number; max: number } {
+  const { vref, ifb, tolerance, vrefTolerance, temperature } = context;
+  const tcrPerK = temperature?.tcrPerK ?? 0;
+  const bands = networkBands({ tolerance, ratio, tcrPerK, trackingPerK: temperature?.trackingPerK ?? 2 * tcrPerK });
+  const parts = [...top.parts, ...bottom.parts];
+  const n = parts.length;
+  const lo = [vref * (1 - vrefTolerance), -bands.shared, ...parts.map(() => -bands.mismatch)];
+  const hi = [vref * (1 + vrefTolerance), bands.shared, ...parts.map(() => bands.mismatch)];
+  if (temperature) {
+    lo.push(-temperature.deltaT, -bands.sharedTcrPerK, ...parts.map(() => -bands.memberTcrPerK));
+    hi.push(temperature.deltaT, bands.sharedTcrPerK, ...parts.map(() => bands.memberTcrPerK));
+  }
+  const nt = top.parts.length;
+  return cornerExtremes((x) => {
+    const r = (k: number): number => {
+      const value = parts[k]! * (1 + x[1]!) * (1 + x[2 + k]!);
+      return temperature ? value * (1 + (x[3 + n]! + x[4 + n + k]!) * x[2 + n]!) : value;
+    };
     return dividerVout(x[0]!, legValue(top, r, 0), legValue(bottom, r, nt), ifb);
   }, lo, hi);
 }

@@ -36,7 +36,13 @@ export interface SenseRequest {
    * The gain resistors (diff R1–R4, noninv RF/RG) as one network: absolute tolerance and ratio tolerance, fractions
    * (src/tolerance/network-bands.ts). Absent: each at ±resistorTolerance on its own.
    */
-  gainNetwork?: { name: string; tolerance: number; ratio: number };
+  gainNetwork?: { name: string; tolerance: number; ratio: number; trackingPerK?: number };
+  /**
+   * The gain resistors' TCR counted in the quick worst case (diff): every resistor within ±tcrPerK (a network: its
+   * shared TCR and each member's own, from gainNetwork.trackingPerK, default 2·tcrPerK), at ambients 25 °C ± deltaT.
+   * Absent: the quick worst case is at 25 °C.
+   */
+  gainTcr?: { tcrPerK: number; deltaT: number };
   /** Amplifier supply rail, V, and how close to it the output can swing, V. */
   rail: number;
   headroom: number;
