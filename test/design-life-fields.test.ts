@@ -110,3 +110,26 @@ describe('--condition and --lots on the command line', () => {
     expect(r.stdout.split('\n')[0]).toMatch(/^examples\/charger-2s-liion\.json, as built: Monte Carlo 2,000 trials/);
   }, 120_000);
 });
+
+describe('every report says which condition it shows', () => {
+  it('spread HTML h1 and text heading, grades text heading, JSON and the HTML grade table, at end of life', async () => {
+    const { runSpread } = await import('../src/design/spread-study.js');
+    const { runGrades } = await import('../src/design/grade-study.js');
+    const { renderSpreadRunHtml } = await import('../src/report/spread-run-html.js');
+    const { renderSpreadRunText } = await import('../src/report/spread-run-text.js');
+    const { renderGradesText } = await import('../src/report/grades-text.js');
+    const { gradesJson } = await import('../src/report/grades-json.js');
+    const { gradesReportTables } = await import('../src/report/grades-tables.js');
+    const resolved = resolveDesign(validateDesign(baseDesign()));
+    const choice = { trials: 2000, seed: 1, workers: 1, progress: false, condition: 'end-of-life' as const };
+    const spread = await runSpread(resolved, choice);
+    expect(renderSpreadRunHtml(spread, { subject: 'd.json', version: '0' })).toContain('<h1>trimfree spread report: d.json, end of life</h1>');
+    expect(renderSpreadRunText(spread, { subject: 'd.json', version: '0' }).split('\n')[0]).toMatch(/^d\.json, end of life: Monte Carlo/);
+    const grades = await runGrades(resolved, choice, { targetYieldPct: 90, searchTrials: 1000, grades: ['1%', '0.1%'] });
+    expect(renderGradesText(grades, { subject: 'd.json', version: '0' }).split('\n')[0]).toMatch(/^d\.json, end of life: every resistor in each grade/);
+    expect((gradesJson(grades, '0') as { condition: string }).condition).toBe('end-of-life');
+    expect(gradesReportTables(grades)[0]!.title).toMatch(/, end of life$/);
+    // The drift parts were in the graded runs: the 0.1 % row's model carries the 0.1 % grade's allowances.
+    expect(grades.rows.find((r) => r.grade.name === '0.1%')!.result.outputs['vout']!.contributions.some((c) => c.part === 'RTOP load life')).toBe(true);
+  }, 120_000);
+});

@@ -107,3 +107,16 @@ describe('reel-lot model', () => {
     expect(two.overall).toEqual(one.overall);
   });
 });
+
+describe('the lot study in the work plan', () => {
+  it('spread --lots K counts K × trialsPerLot beside the spread\'s own trials (by hand: 1000 + 3 × 1000)', async () => {
+    const { planWork } = await import('../src/cli/work-budget.js');
+    const { resolveDesign } = await import('../src/design/resolve.js');
+    const { validateDesign } = await import('../src/design/load.js');
+    const { baseDesign } = await import('./design-fixture.js');
+    const resolved = resolveDesign(validateDesign(baseDesign()));
+    const plan = planWork(resolved, { spread: { trials: 1000, seed: 1, progress: false, lots: { count: 3, share: 0.5, trialsPerLot: 1000 } } }, 1);
+    expect(plan.estimate.trials).toBe(4000);
+    expect(plan.estimate.basis).toMatch(/3 lots × 1000 trials/);
+  });
+});

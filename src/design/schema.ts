@@ -103,7 +103,7 @@ const reference = z
   .strictObject({
     voltage: describe(voltage({ min: Number.MIN_VALUE, text: 'greater than 0 V' }), 'the regulator feedback reference Vref'),
     tolerance: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'initial tolerance of Vref (datasheet, over temperature if given so)'),
-    drift: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'long-term drift allowance of Vref').optional(),
+    drift: describe(percent({ max: 0.5, text: '0 % to 50 %' }), 'long-term drift allowance of Vref, counted when the design is analysed at end of life (analysis.condition, --condition)').optional(),
     tempco: describe(ppmPerK(), 'temperature coefficient bound of Vref, if the tolerance does not already cover temperature').optional(),
     distribution: z.enum(DISTRIBUTIONS).meta({ description: `how Vref spreads inside its tolerance: ${DISTRIBUTIONS.join(', ')} (default uniform; normal: tolerance = 3σ, cut off at the band; ${BINNED_TEXT})` }).optional(),
     sortedOut: sortedOut.optional(),
