@@ -63,4 +63,11 @@ describe('parasitic series resistance in the design file', () => {
     expect(r.nominal['ilimit']).toBeCloseTo((1 / 10) / 0.105, 9);
     expect(r.bom.map((l) => l.designator)).not.toContain('RS pads');
   });
+  it('with an "auto" shunt, says the picker chose it without the parasitic', () => {
+    const d = baseDesign();
+    d.current.shunt = { value: 'auto', rating: '1 W', parasitic: { value: '1m', tolerance: '30%' } };
+    d.current.gain = 'auto';
+    const notes = resolveDesign(validateDesign(d)).notes.join(' ');
+    expect(notes).toMatch(/Kelvin \(four-terminal\) sensing of the shunt removes most of it\. The current-sense picker chose RS without it/);
+  });
 });

@@ -148,7 +148,11 @@ export function resolveSense(design: CurrentDesign): ResolvedSense {
     const [lo, hi] = c.commonMode!;
     notes.push(`Common-mode voltage (current.commonMode) spreads over ${formatEngineering(lo, 'V', 4)}..${formatEngineering(hi, 'V', 4)} from unit to unit: drawn once per unit as the part Vcm (${c.commonModeDistribution ?? 'uniform'}), both ends in the worst case; the BOM's powers${picked ? ' and the picker\'s ranking' : ''} take ${formatEngineering(pickerCommonMode(c), 'V', 4)}.`);
   }
-  if (sense.shunt.parasitic) notes.push(shuntParasiticNote(sense.shunt.nominal, sense.shunt.parasitic));
+  if (sense.shunt.parasitic) {
+    const note = shuntParasiticNote(sense.shunt.nominal, sense.shunt.parasitic);
+    // The picker ranks shunts by their own value: it does not know the parasitic, so say where that leaves the limit.
+    notes.push(picked ? `${note} The current-sense picker chose ${DESIGNATORS.shunt} without it: give the shunt value, or move the threshold, to re-centre the limit.` : note);
+  }
   return { sense, parts, grades, ...(picked ? { picked } : {}), derating, notes };
 }
 
