@@ -245,6 +245,7 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
   let assignments = 0;
   let screenedCount = 0;
   let screenedRejected = 0;
+  let screenUnits = 0;
   // Known yields by grade names: exact (every unit counted) or, for an assignment stopped early, an upper bound.
   const known = new Map<string, { y: number; exact: boolean }>();
   const progress = progressFor('grade search');
@@ -277,8 +278,12 @@ export async function runGrades(resolved: ResolvedDesign, choice: AnalysisChoice
     const { key, model } = modelOf(lists, assignment);
     const cached = known.get(key);
     if (cached !== undefined) return cached.y < target;
+    // The screens share a budget as large as the evaluations' (MAX_SEARCH_EVALUATIONS × the search trials, in
+    // units); past it a screen says nothing, which only leaves more to the evaluations and their limit.
+    if (screenUnits >= MAX_SEARCH_EVALUATIONS * searchTrials) return false;
     const counted = sampleFor(model.parts.length).count(model, { maxFailures, maxUnits: SCREEN_UNITS });
     evaluations += counted.evaluations;
+    screenUnits += counted.evaluations / (model.ambient?.gridC.length ?? 1);
     screenedCount += 1;
     if (screenedCount % 16 === 0) await pause();
     if (counted.failures > maxFailures) screenedRejected += 1;
