@@ -40,24 +40,24 @@ describe('--workers is capped at the cores (was: 256 workers took 5.5 GB and 74 
 });
 
 describe('the trial budget counts the whole run', { timeout: 120_000 }, () => {
-  it('grades --trials 1e10 is refused: 4 grades × 2 passes + a re-run + the search is about 9e10 trials', () => {
+  it('grades --trials 1e10 is refused: 4 grades + a re-run + the search is about 5e10 trials', () => {
     expectOneLineError(
       runTrimfree(['grades', CHARGER, '--trials', '1e10']),
-      /^trimfree: --trials\/--search-trials: this run would evaluate about 9\.0e\+10 trials in all \(4 grades × 2 passes × 10000000000 trials \+ a 10000000000-trial re-run \+ at most 400 search evaluations × 20000 trials\), more than the 1e10 .*refused before any work/,
+      /^trimfree: --trials\/--search-trials: this run would evaluate about 5\.0e\+10 trials in all \(4 grades × 10000000000 trials \+ a 10000000000-trial re-run \+ at most 400 search evaluations × 20000 trials and as many in screens\), more than the 1e10 .*refused before any work/,
     );
   });
 
-  it('grades --trials 2e9 (2e9 per grade, 1.8e10 in all) is refused too, though each count alone is accepted', () => {
-    expectOneLineError(runTrimfree(['grades', CHARGER, '--trials', '2e9']), /about 1\.8e\+10 trials in all/);
+  it('grades --trials 3e9 (3e9 per grade, 1.5e10 in all) is refused too, though each count alone is accepted', () => {
+    expectOneLineError(runTrimfree(['grades', CHARGER, '--trials', '3e9']), /about 1\.5e\+10 trials in all/);
   });
 
-  it('--json carries workEstimate: the trials in all (by hand: 4 × 2 × 1000 + 1000 + 400 × 1000 = 409000) and seconds', () => {
+  it('--json carries workEstimate: the trials in all (by hand: 4 × 1000 + 1000 + 2 × 400 × 1000 = 805000) and seconds', () => {
     const r = runTrimfree(['grades', CHARGER, '--trials', '1000', '--search-trials', '1000', '--workers', '1', '--json']);
     expect(r.status, r.stderr).toBe(0);
     const estimate = (JSON.parse(r.stdout) as { workEstimate: { trials: number; estimatedSecondsOnOneThread: number; basis: string } }).workEstimate;
-    expect(estimate.trials).toBe(409_000);
-    // 409000 trials at 800000 a second on one thread.
-    expect(estimate.estimatedSecondsOnOneThread).toBe(Math.round(409_000 / 800_000));
+    expect(estimate.trials).toBe(805_000);
+    // 805000 trials at 800000 a second on one thread.
+    expect(estimate.estimatedSecondsOnOneThread).toBe(Math.round(805_000 / 800_000));
     expect(estimate.basis).toMatch(/measured on the charger example/);
     expect(r.stderr).not.toMatch(/will take about/);
   });

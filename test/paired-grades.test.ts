@@ -16,7 +16,7 @@ import { allowedFailures, runGrades } from '../src/design/grade-study.js';
 import { gradedModels, specWithGrades } from '../src/design/graded-models.js';
 import { GRADES, gradeCosts, type Grade } from '../src/design/grades.js';
 import type { ResolvedDesign } from '../src/design/resolve.js';
-import { cheapestGradeMix, type GradeOption } from '../src/pick/grade-mix.js';
+import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../src/pick/grade-mix.js';
 import { partFromTolerance } from '../src/tolerance/part.js';
 import { directSenseSupply } from './direct-supply-fixture.js';
 
@@ -232,6 +232,34 @@ describe('the search on paired trials against brute force', { timeout: 120_000 }
         },
       ),
       { numRuns: 200, seed: 21 },
+    );
+  });
+});
+
+describe('best single upgrade with counts that stop below a floor', () => {
+  it('property: the same best change as with every yield exact (the floors never prune the winner)', async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(fc.integer({ min: 0, max: 20_000 }), { minLength: 64, maxLength: 64 }),
+        fc.array(fc.integer({ min: 1, max: 9 }), { minLength: 9, maxLength: 9 }),
+        fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: 64, maxLength: 64 }),
+        async (table, costs, cut) => {
+          // Three parts × three grades; yields are counts out of 20 000 units (as the search's are).
+          const options: GradeOption[][] = [0, 1, 2].map((p) => [0, 1, 2].map((g) => ({ name: `g${g}`, cost: costs[p * 3 + g]!, tightness: g })));
+          const evaluate = (a: readonly number[]): number => table[a[0]! * 9 + a[1]! * 3 + a[2]!]! / 20_000;
+          let calls = 0;
+          // Below the floor: some value under it (what a count stopped early gives), else the exact yield.
+          const evaluateAbove = (a: readonly number[], floor: number): number => {
+            const y = evaluate(a);
+            return y < floor ? y + (floor - y) * cut[calls++ % cut.length]! * 0.999 : y;
+          };
+          const exact = await bestSingleUpgrade({ options, base: [0, 0, 0], evaluate });
+          const bounded = await bestSingleUpgrade({ options, base: [0, 0, 0], evaluate, evaluateAbove });
+          expect(bounded.best).toEqual(exact.best);
+          expect(bounded.baseYield).toBe(exact.baseYield);
+        },
+      ),
+      { numRuns: 300, seed: 23 },
     );
   });
 });

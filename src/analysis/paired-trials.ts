@@ -31,7 +31,7 @@ export const COLUMN_CACHE_BYTES = 128 * 2 ** 20;
 /** Units checked per call of the model (bounds scratch memory and makes early stops prompt). */
 export const PAIRED_BLOCK = 4096;
 /** At most this many earlier failures are kept to be checked first, HARD_BLOCK at a time (our choice). */
-const HARD_UNITS = 1024;
+const HARD_UNITS = 2048;
 const HARD_BLOCK = 64;
 
 export interface PairedSampleOptions {
@@ -180,8 +180,10 @@ export class PairedSample {
         seen += trials.length;
         evaluations += trials.length * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
-        // Too few failing among the hard units to reach the limit: the rest of them cannot decide either.
-        if (failed + (recent.length - seen) <= maxFailures) break;
+        // Stop looking here once the rest of the hard units cannot reach the limit, or, at the rate they have failed
+        // so far, would not (a guess that only saves time: the count below decides).
+        const rest = recent.length - seen;
+        if (failed + rest <= maxFailures || failed + (rest * failed) / seen <= maxFailures) break;
       }
       if (seen >= maxUnits) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
     }

@@ -58,13 +58,14 @@ export function planWork(resolved: ResolvedDesign, work: PlannedWork, threads: n
     const perGrade = work.grades.choice.trials;
     if (perGrade === 'auto') known = false;
     else {
-      // Each grade: the Monte Carlo run and the all-specs yield over the same trials; then the cheapest mix re-run.
+      // Each grade: one Monte Carlo run (its all-specs yield is the run's own count); then the cheapest mix re-run.
       parallel += work.grades.gradeCount * perGrade;
-      serial += work.grades.gradeCount * perGrade + perGrade;
-      parts.push(`${work.grades.gradeCount} grades × 2 passes × ${perGrade} trials + a ${perGrade}-trial re-run`);
+      serial += perGrade;
+      parts.push(`${work.grades.gradeCount} grades × ${perGrade} trials + a ${perGrade}-trial re-run`);
     }
-    serial += MAX_SEARCH_EVALUATIONS * work.grades.searchTrials;
-    parts.push(`at most ${MAX_SEARCH_EVALUATIONS} search evaluations × ${work.grades.searchTrials} trials`);
+    // The search: at most MAX_SEARCH_EVALUATIONS assignments, and screens within a budget of as many units.
+    serial += 2 * MAX_SEARCH_EVALUATIONS * work.grades.searchTrials;
+    parts.push(`at most ${MAX_SEARCH_EVALUATIONS} search evaluations × ${work.grades.searchTrials} trials and as many in screens`);
   }
   const trials = parallel + serial;
   if (trials > MAX_RUN_TRIALS) {

@@ -26,8 +26,9 @@ export const DEFAULT_TARGET_YIELD_PCT = 99.9;
 /** Assignments the search may evaluate in full before it gives up (and says so). A full evaluation that fails stops
  *  as soon as the failures pass what the target allows, so most cost a small part of the search trials. */
 export const MAX_SEARCH_EVALUATIONS = 400;
-/** Units a screen of a partial step of the search checks at most (our choice: a fifth of the default trials). */
-export const SCREEN_UNITS = 4096;
+/** Units a screen of a partial step of the search checks at most (our choice: measured on the LED example with all ten
+ *  grades, 2048 rejected as many steps as 4096 and 8192, and 1024 too few for the search to finish in its limit). */
+export const SCREEN_UNITS = 2048;
 
 /** The most failing units out of `trials` that still reach `target` (fraction), with the search's own comparison
  *  (yield = (100·inSpec/trials)/100 ≥ target), so a stop at more failures never changes a verdict. */
@@ -50,6 +51,8 @@ export interface SearchMethod {
   /** Assignments evaluated in full or until they failed, partial steps screened, models put together. */
   assignments: number;
   screened: number;
+  /** Of those screened: rejected (certainly below the target), and open (descended into). */
+  screenedRejected: number;
   /** Units of the one drawn sample every assignment was judged on (paired trials: common random numbers). */
   pairedTrials: number;
   /** Wall time of the whole grade study (side-by-side rows included), s. */
@@ -243,6 +246,8 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
   let evaluations = 0;
   let assignments = 0;
   let screenedCount = 0;
+  let screenedRejected = 0;
+  let screenUnits = 0;
   // Known yields by grade names: exact (every unit counted) or, for an assignment stopped early, an upper bound.
   const known = new Map<string, { y: number; exact: boolean }>();
   const progress = progressFor('grade search');
@@ -250,12 +255,16 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     const chosen = assignment.map((option, p) => lists[p]![option]!);
     return { key: chosen.map((g) => g.name).join(','), model: models.modelFor(chosen) };
   };
-  const evaluatorFor = (lists: Grade[][], exactOnly: boolean) => async (assignment: readonly number[]): Promise<number> => {
+  // The yield of an assignment when it reaches `floor` (a fraction), else an upper bound below it: the count stops
+  // once more units fail than `floor` allows. The search's floor is the target; the upgrade's, what a change must
+  // beat; -Infinity asks for the exact yield.
+  const yieldAbove = async (lists: Grade[][], assignment: readonly number[], floor: number): Promise<number> => {
     const { key, model } = modelOf(lists, assignment);
     const cached = known.get(key);
-    if (cached !== undefined && (cached.exact || !exactOnly)) return cached.y;
+    if (cached !== undefined && (cached.exact || cached.y < floor)) return cached.y;
     await pause();
-    const counted = sampleFor(model.parts.length).count(model, exactOnly ? {} : { maxFailures });
+    const limit = floor === -Infinity ? Infinity : allowedFailures(searchTrials, floor);
+    const counted = sampleFor(model.parts.length).count(model, { maxFailures: limit });
     evaluations += counted.evaluations;
     assignments += 1;
     // Stopped early: more failures than the target allows among the units counted, so the yield is below
@@ -265,14 +274,21 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     progress.update(assignments, MAX_SEARCH_EVALUATIONS);
     return y;
   };
+  const evaluatorFor = (lists: Grade[][], exactOnly: boolean) => (assignment: readonly number[]): Promise<number> =>
+    yieldAbove(lists, assignment, exactOnly ? -Infinity : target);
   const screenFor = (lists: Grade[][]) => async (assignment: readonly number[]): Promise<boolean> => {
     const { key, model } = modelOf(lists, assignment);
     const cached = known.get(key);
     if (cached !== undefined) return cached.y < target;
+    // The screens share a budget as large as the evaluations' (MAX_SEARCH_EVALUATIONS × the search trials, in
+    // units); past it a screen says nothing, which only leaves more to the evaluations and their limit.
+    if (screenUnits >= MAX_SEARCH_EVALUATIONS * searchTrials) return false;
     const counted = sampleFor(model.parts.length).count(model, { maxFailures, maxUnits: SCREEN_UNITS });
     evaluations += counted.evaluations;
+    screenUnits += counted.evaluations / (model.ambient?.gridC.length ?? 1);
     screenedCount += 1;
     if (screenedCount % 16 === 0) await pause();
+    if (counted.failures > maxFailures) screenedRejected += 1;
     return counted.failures > maxFailures;
   };
   let mix: GradeMixAnswer;
@@ -308,7 +324,12 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
       mix.verified = verified;
     }
     step('verify');
-    const up = await bestSingleUpgrade({ options: optionsOf(upgradeLists), base, evaluate: evaluatorFor(upgradeLists, true) });
+    const up = await bestSingleUpgrade({
+      options: optionsOf(upgradeLists),
+      base,
+      evaluate: evaluatorFor(upgradeLists, true),
+      evaluateAbove: (assignment, floor) => yieldAbove(upgradeLists, assignment, floor),
+    });
     step('upgrade');
     designedYieldPct = up.baseYield * 100;
     if (up.best) {
@@ -331,6 +352,7 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     seconds: end - searchStart,
     assignments,
     screened: screenedCount,
+    screenedRejected,
     pairedTrials: searchTrials,
     studySeconds: end - studyStart,
     steps,

@@ -185,14 +185,20 @@ export interface UpgradeRequest {
   /** The starting assignment (index into options[part]). */
   base: readonly number[];
   evaluate: (assignment: readonly number[]) => number | Promise<number>;
+  /**
+   * Optional: the yield when it is at least `floor`, else any value below `floor` (a count that may stop early).
+   * A change whose yield is below the floor it is given cannot be the best, so its exact yield is not needed.
+   */
+  evaluateAbove?: (assignment: readonly number[], floor: number) => number | Promise<number>;
 }
 
 export interface UpgradeResult {
   baseYield: number;
   /** The best single change, or null when no change raises the yield at a positive extra cost (or for free). */
   best: { part: number; option: number; yield: number; extraCost: number; yieldPerCost: number | null } | null;
-  /** Every single change tried (one part moved to one tighter grade). */
-  tried: Array<{ part: number; option: number; yield: number; extraCost: number }>;
+  /** Every single change tried (one part moved to one tighter grade); `below` when its yield is only known to be
+   *  under the floor it had to beat (then `yield` is an upper bound). */
+  tried: Array<{ part: number; option: number; yield: number; extraCost: number; below?: true }>;
 }
 
 /**
@@ -213,8 +219,20 @@ export async function bestSingleUpgrade(request: UpgradeRequest): Promise<Upgrad
       if (option.tightness <= current.tightness) continue;
       const next = base.slice();
       next[part] = index;
-      const y = await evaluate(next);
       const extraCost = option.cost - current.cost;
+      // What this change must exceed to be the best so far (gain > 0, and gain / cost above the best score), less a
+      // slack far below one unit in any trial count, so rounding never prunes a change that would win.
+      const floor: number = (extraCost <= 0 || best === null ? baseYield : baseYield + bestScore * extraCost) - FLOOR_SLACK;
+      if (request.evaluateAbove && floor > 1) {
+        // No yield reaches it (a free change already won, or the score needs more than every unit): 1 bounds it.
+        tried.push({ part, option: index, yield: 1, extraCost, below: true });
+        continue;
+      }
+      const y: number = request.evaluateAbove ? await request.evaluateAbove(next, floor) : await evaluate(next);
+      if (request.evaluateAbove && y < floor) {
+        tried.push({ part, option: index, yield: y, extraCost, below: true });
+        continue;
+      }
       tried.push({ part, option: index, yield: y, extraCost });
       const gain = y - baseYield;
       if (gain <= 0) continue;
@@ -357,6 +375,9 @@ function costAndRank(options: GradeOption[][], sorted: number[][], assignment: r
   });
   return { cost, tightness, rank };
 }
+
+/** Slack below an upgrade's floor (yields are multiples of 1/trials, far coarser). */
+const FLOOR_SLACK = 1e-9;
 
 function compareRanks(a: number[], b: number[]): number {
   for (let i = 0; i < a.length; i += 1) if (a[i] !== b[i]) return b[i] - a[i];

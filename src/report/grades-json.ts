@@ -58,6 +58,7 @@ export function gradesJson(run: GradesRun, version: string): unknown {
       counts: 'model evaluations (every output for one unit at one ambient) and wall time of the cheapest-mix search, the best upgrade and the re-run of the answer',
       assignments: run.method.assignments,
       screened: run.method.screened,
+      screenedRejected: run.method.screenedRejected,
       pairedTrials: run.method.pairedTrials,
       studySeconds: run.method.studySeconds,
       steps: run.method.steps,
