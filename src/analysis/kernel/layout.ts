@@ -12,7 +12,7 @@ import { partHigh, partLow, type Part } from '../../tolerance/part.js';
 /** Fields per part descriptor (f64), and their meaning by kind: see assembly/chunk-kernel.ts drawParts. */
 export const DESCRIPTOR_FIELDS = 8;
 /** i32 slots of the wiring table and f64 slots of the parameter table (assembly/chunk-kernel.ts L_* and P_*). */
-export const LAYOUT_SLOTS = 62;
+export const LAYOUT_SLOTS = 63;
 export const PARAMETER_SLOTS = 5;
 export const P_FIXED_T = 4;
 const P_WIPER_TOP = 0;
@@ -37,6 +37,7 @@ const L_AMP = 42;
 const L_GAIN = 46;
 const L_SHUNT = 58;
 const L_SELF_HEATING = 61;
+const L_ZERO = 62;
 /** Offsets inside a leg's slots: resistor a, hasB, resistor b, parallel, potentiometer. */
 const LEG_HAS_B = 3;
 const LEG_POT = 8;
@@ -167,6 +168,7 @@ export function kernelLayout(spec: SupplySpec, model: Model): KernelLayout {
     parameters[P_THETA] = theta;
     put(L_SELF_HEATING, theta > 0 && sense.shunt.tcrPerK ? 1 : 0);
   } else put(L_SENSE, 0);
+  put(L_ZERO, zero);
   const unused = parts.filter((_, i) => !used.has(i)).map((p) => p.name);
   if (unused.length > 0) throw new Error(`wasm kernel: no role for part${unused.length > 1 ? 's' : ''} ${unused.join(', ')}`);
   const descriptors = new Float64Array(DESCRIPTOR_FIELDS * parts.length);

@@ -17,6 +17,7 @@ export interface KernelExports {
   markInside(x: number, n: number, lo: number, hi: number, pass: number): void;
   markAll(rows: number, count: number, rowStride: number, n: number, all: number): void;
   countOnes(flags: number, n: number): number;
+  countAllInside(rows: number, count: number, n: number): number;
   exactLog(x: number): number;
 }
 

@@ -43,6 +43,8 @@ export class WasmChunkRunner {
   private readonly counts: number;
   private readonly ambientCounts: number;
   private readonly passRows: number;
+  /** countAllInside's table: each checked output's drawn column and window. */
+  private readonly windowRows: number;
   private readonly all: number;
   private readonly checked: CheckedOutput[];
   private readonly gridC: number[] | null;
@@ -84,6 +86,7 @@ export class WasmChunkRunner {
     this.counts = arena.take(4 * this.countStride * outputs);
     this.ambientCounts = arena.take(4 * this.countStride * outputs * (this.gridC?.length ?? 0));
     this.passRows = arena.take(size * this.checked.length);
+    this.windowRows = arena.take(24 * this.checked.length);
     this.all = arena.take(size);
     const memory = this.k.memory;
     const have = memory.buffer.byteLength;
@@ -93,6 +96,12 @@ export class WasmChunkRunner {
     new Int32Array(buffer, this.lay, tables.layout.length).set(tables.layout);
     new Float64Array(buffer, this.par, tables.parameters.length).set(tables.parameters);
     // The column of zeros (absent parts) is never written: a fresh memory is zero.
+    const rows = new DataView(buffer, this.windowRows, 24 * this.checked.length);
+    this.checked.forEach((c, i) => {
+      rows.setUint32(24 * i, this.outs + c.index * this.stride, true);
+      rows.setFloat64(24 * i + 8, c.lo, true);
+      rows.setFloat64(24 * i + 16, c.hi, true);
+    });
   }
 
   run(k: number): ChunkSummary {
@@ -109,10 +118,11 @@ export class WasmChunkRunner {
     counts.fill(0);
     const outputs = model.outputs.map((_, o) => this.reduce(o, this.outs + o * this.stride, n, this.counts + 4 * o * this.countStride, config.keepSamples, config.chunkIntervals));
     // The per-unit check (src/analysis/unit-check.ts): pass rows start at 1, each ambient ands its flags in.
-    const rowBytes = config.chunkSize;
-    new Uint8Array(buffer, this.passRows, rowBytes * this.checked.length).fill(1);
     let ambient: OutputChunk[][] | null = null;
+    let allInSpec: number;
     if (this.gridC) {
+      const rowBytes = config.chunkSize;
+      new Uint8Array(buffer, this.passRows, rowBytes * this.checked.length).fill(1);
       ambient = [];
       const stride = this.countStride * outputCount;
       new Uint32Array(buffer, this.ambientCounts, stride * this.gridC.length).fill(0);
@@ -124,12 +134,14 @@ export class WasmChunkRunner {
         const base = this.ambientCounts + 4 * g * stride;
         ambient!.push(model.outputs.map((_, o) => this.reduce(o, this.ambientOuts + o * this.stride, n, base + 4 * o * this.countStride, false, false)));
       });
+      this.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = kernel.countOnes(this.passRows + i * rowBytes, n)));
+      kernel.markAll(this.passRows, this.checked.length, rowBytes, n, this.all);
+      allInSpec = kernel.countOnes(this.all, n);
     } else {
-      this.checked.forEach((c, i) => kernel.markInside(this.outs + c.index * this.stride, n, c.lo, c.hi, this.passRows + i * rowBytes));
+      // Judged as drawn: a unit meets a window when its drawn value is inside, the reduction's own in-spec count.
+      this.checked.forEach((c) => (outputs[c.index]!.unitInSpec = outputs[c.index]!.inSpec));
+      allInSpec = kernel.countAllInside(this.windowRows, this.checked.length, n);
     }
-    this.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = kernel.countOnes(this.passRows + i * rowBytes, n)));
-    kernel.markAll(this.passRows, this.checked.length, rowBytes, n, this.all);
-    const allInSpec = kernel.countOnes(this.all, n);
     if (!this.reuse) this.detachCounts(outputs, ambient);
     return { k, outputs, allInSpec, ambient };
   }
