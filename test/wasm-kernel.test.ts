@@ -54,9 +54,21 @@ function withoutKernelNote(value: unknown): string {
 
 const THREE_CHUNKS = 2 * 65_536 + 5_000;
 
+/** Examples that use a field the kernel does not implement yet (kernelSupports declines them), with the field. */
+const KERNEL_DECLINES: Record<string, string> = {
+  'led-driver-highside-network.json': 'networks (resistor network draws: shared and per-member parts)',
+};
+
 describe('every example: the same analysis on the wasm kernel as on the JavaScript reference', { timeout: 240_000 }, () => {
   for (const { name, spec } of exampleSpecs()) {
     it(`${name}: per unit and at a random ambient (${THREE_CHUNKS} trials), and adaptive`, async () => {
+      if (KERNEL_DECLINES[name] !== undefined) {
+        // A design the kernel does not implement runs on the reference under auto, and forcing wasm is refused.
+        expect(kernelSupports(spec)).toBe(false);
+        expect(chooseKernel('auto', { kind: 'supply', spec })).toBe('js');
+        expect(() => chooseKernel('wasm', { kind: 'supply', spec })).toThrow(InputError);
+        return;
+      }
       expect(kernelSupports(spec)).toBe(true);
       const runs = [
         { trials: THREE_CHUNKS, seed: 11, workers: 1, perUnit: true },
