@@ -1,7 +1,7 @@
 // exactLog (src/tolerance/exact-log.ts), the logarithm both Monte Carlo kernels use, against outside references:
 // V8's Math.log (a port of the same fdlibm routine, so the same bits are expected, not just a close value), the
 // identities log(1) = 0, log(2^k) = k·ln 2, log(x·y) = log x + log y, and IEEE 754's special values. Then its
-// AssemblyScript twin (assembly/exact-log.ts, in the built kernel) against it, bit for bit.
+// AssemblyScript twin (src/analysis/kernel/assembly/exact-log.ts, in the built kernel) against it, bit for bit.
 import { beforeAll, describe, expect, it } from 'vitest';
 import seedrandom from 'seedrandom';
 import { exactLog } from '../src/tolerance/exact-log.js';
@@ -59,7 +59,7 @@ describe('exactLog', () => {
   });
 });
 
-describe('the WebAssembly kernel’s exactLog (assembly/exact-log.ts)', () => {
+describe('the WebAssembly kernel’s exactLog (src/analysis/kernel/assembly/exact-log.ts)', () => {
   let kernel: KernelExports;
   beforeAll(() => {
     ensureKernelBuilt();

@@ -1,4 +1,4 @@
-// The WebAssembly chunk kernel (assembly/chunk-kernel.ts) against the JavaScript reference (src/analysis/chunk.ts,
+// The WebAssembly chunk kernel (src/analysis/kernel/assembly/chunk-kernel.ts) against the JavaScript reference (src/analysis/chunk.ts,
 // the readable version the engine keeps):
 // - every example (examples/*.json resolved as `design` does, the adjustable one at both ends of its pot, and
 //   examples/engine/*.json) gives the same analysis JSON on both kernels, per unit and at a random ambient, for a
@@ -263,7 +263,7 @@ describe('chooseKernel: from the spec only', () => {
 });
 
 describe('the built kernel is rebuilt from its source', () => {
-  it('two builds of assembly/chunk-kernel.ts give the same bytes, and those of dist/', { timeout: 240_000 }, () => {
+  it('two builds of src/analysis/kernel/assembly/chunk-kernel.ts give the same bytes, and those of dist/', { timeout: 240_000 }, () => {
     const dir = mkdtempSync(join(tmpdir(), 'trimfree-kernel-'));
     try {
       const a = join(dir, 'a.wasm');

@@ -99,7 +99,7 @@ export function gradesBenchTable(result: GradesBenchResult): string {
     `${'command'.padEnd(72)}${'wall s'.padStart(9)}${'CPU s'.padStart(9)}`,
     ...[result.spread, result.grades].map((c) => `${c.name.padEnd(72)}${c.wallSeconds.toFixed(2).padStart(9)}${(c.cpuSeconds === null ? '–' : c.cpuSeconds.toFixed(2)).padStart(9)}`),
     `grades / spread: wall ${result.wallRatio.toFixed(2)}×, CPU ${result.cpuRatio === null ? '–' : `${result.cpuRatio.toFixed(2)}×`}`,
-    `search: ${result.search.evaluations.toExponential(3)} model evaluations in ${result.search.seconds.toFixed(2)} s (${result.search.assignments} assignments evaluated, ${result.search.screened} screened); whole study ${result.search.studySeconds.toFixed(2)} s; ${result.search.found ? `cheapest mix costs ${Number(result.search.cost.toPrecision(6))}` : 'no mix found'}`,
+    `search: ${result.search.evaluations.toExponential(3)} model evaluations in ${result.search.seconds.toFixed(2)} s (${result.search.assignments} assignments evaluated, ${result.search.screened} screened); whole study ${result.search.studySeconds.toFixed(2)} s; ${result.search.found ? `cheapest mix costs ${Number((result.search.cost ?? 0).toPrecision(6))}` : 'no mix found'}`,
   ];
   return `${lines.join('\n')}\n`;
 }

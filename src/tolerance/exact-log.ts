@@ -1,5 +1,5 @@
 // Natural logarithm written out in IEEE 754 double arithmetic only (+, −, ×, ÷ and integer operations on the
-// bits), so the Monte Carlo engine's JavaScript path and its WebAssembly kernel (assembly/exact-log.ts, the same
+// bits), so the Monte Carlo engine's JavaScript path and its WebAssembly kernel (src/analysis/kernel/assembly/exact-log.ts, the same
 // operations in the same order) give the same bits on any machine: WebAssembly has no log instruction, and a
 // JavaScript engine's Math.log is not bound by any standard to one result.
 //

@@ -1,5 +1,5 @@
 // Which kernel computes a run's chunks: the JavaScript reference (src/analysis/chunk.ts) or the WebAssembly kernel
-// (assembly/chunk-kernel.ts through wasm-runner.ts). `auto` takes the WebAssembly kernel for every supply spec it
+// (src/analysis/kernel/assembly/chunk-kernel.ts through wasm-runner.ts). `auto` takes the WebAssembly kernel for every supply spec it
 // implements (kernelSupports) and the reference otherwise; the choice depends only on the spec, never on the
 // machine, and both give the same numbers (test/wasm-kernel.test.ts).
 import { InputError } from '../../errors.js';

@@ -1,4 +1,4 @@
-// The tables the WebAssembly kernel (assembly/chunk-kernel.ts) reads: one descriptor per part (how its uniforms
+// The tables the WebAssembly kernel (src/analysis/kernel/assembly/chunk-kernel.ts) reads: one descriptor per part (how its uniforms
 // become values: the parameters partFromUnit in src/tolerance/sample.ts computes, computed here the same way, so
 // Φ and the other per-part constants are the reference's own bits) and the supply's wiring (which part column
 // plays which role in src/analysis/models/supply.ts). Parts are found by the names buildSupplyModel gives them; a
@@ -9,9 +9,9 @@ import type { ReferenceSpec, ResistorSpec, SupplySpec } from '../models/supply.j
 import { DEFAULT_K, normalCdf } from '../../tolerance/distributions/normal.js';
 import { partHigh, partLow, type Part } from '../../tolerance/part.js';
 
-/** Fields per part descriptor (f64), and their meaning by kind: see assembly/chunk-kernel.ts drawParts. */
+/** Fields per part descriptor (f64), and their meaning by kind: see src/analysis/kernel/assembly/chunk-kernel.ts drawParts. */
 export const DESCRIPTOR_FIELDS = 8;
-/** i32 slots of the wiring table and f64 slots of the parameter table (assembly/chunk-kernel.ts L_* and P_*). */
+/** i32 slots of the wiring table and f64 slots of the parameter table (src/analysis/kernel/assembly/chunk-kernel.ts L_* and P_*). */
 export const LAYOUT_SLOTS = 63;
 export const PARAMETER_SLOTS = 5;
 export const P_FIXED_T = 4;
@@ -20,7 +20,7 @@ const P_WIPER_BOTTOM = 1;
 const P_COMMON_MODE = 2;
 const P_THETA = 3;
 
-// Wiring table slots: the L_* constants of assembly/chunk-kernel.ts (a resistor or reference takes three slots:
+// Wiring table slots: the L_* constants of src/analysis/kernel/assembly/chunk-kernel.ts (a resistor or reference takes three slots:
 // value, drift, tempco or TCR; an absent one holds the column of zeros).
 const L_T = 0;
 const L_REF = 1;

@@ -1,4 +1,4 @@
-// The compiled kernel (assembly/chunk-kernel.ts → dist/src/analysis/kernel/chunk-kernel.wasm, built by
+// The compiled kernel (src/analysis/kernel/assembly/chunk-kernel.ts → dist/src/analysis/kernel/chunk-kernel.wasm, built by
 // `npm run build:kernel`, which `npm ci`, `npm test` and `npm run bench` run). Compiled once per thread and
 // instantiated once per chunk runner, each instance with its own memory.
 import { existsSync, readFileSync } from 'node:fs';

@@ -16,7 +16,7 @@ import { instantiateKernel, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
 const RESULT_FIELDS = 9;
-/** One group of assembly/chunk-kernel.ts generate: four states (4 × i32x4), four columns, four lo, four width. */
+/** One group of src/analysis/kernel/assembly/chunk-kernel.ts generate: four states (4 × i32x4), four columns, four lo, four width. */
 const GROUP_BYTES = 144;
 
 /** Bump allocation of the kernel's memory, 16-byte aligned (SIMD loads). */
@@ -147,7 +147,7 @@ export class WasmChunkRunner {
   }
 
   /**
-   * The groups table of assembly/chunk-kernel.ts generate: part i's stream starts i·n steps into the chunk's
+   * The groups table of src/analysis/kernel/assembly/chunk-kernel.ts generate: part i's stream starts i·n steps into the chunk's
    * (xor128-jump.ts), four drawing parts per group, a short last group padded with the spare column.
    */
   private startStreams(state: Int32Array, n: number): void {
