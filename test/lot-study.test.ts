@@ -120,3 +120,22 @@ describe('the lot study in the work plan', () => {
     expect(plan.estimate.basis).toMatch(/3 lots × 1000 trials/);
   });
 });
+
+describe('networks in the lot study', () => {
+  it('a network’s members get no reel (their values come from the network’s own draws), and the notes say so', async () => {
+    // Two equal 10k bottom resistors would share a reel; as members of RN1 they must not (a reel offset moves the
+    // member's nominal while the network's band stays whole, which would widen the member's spread).
+    const s: SupplySpec = {
+      ...spec(),
+      divider: {
+        top: { resistors: [{ name: 'RTOP', nominal: RT, tolerance: T }] },
+        bottom: { resistors: [{ name: 'RBOT_A', nominal: RB, tolerance: T }, { name: 'RBOT_B', nominal: RB, tolerance: T }], arrangement: 'series' },
+      },
+    };
+    expect(reelsOf(s).map((r) => r.name)).toEqual(['RTOP', 'RBOT_A+RBOT_B']);
+    const networked: SupplySpec = { ...s, networks: [{ name: 'RN1', members: ['RBOT_A', 'RBOT_B'], tolerance: T, ratio: T / 2 }] };
+    expect(reelsOf(networked).map((r) => r.name)).toEqual(['RTOP']);
+    const study = await lotStudy(networked, { seed: '5', count: 2, share: SHARE, trialsPerLot: 2000, workers: 1 });
+    expect(study.notes.join(' ')).toMatch(/members of RN1 \(a network's lot-to-lot spread is not modelled\)/);
+  });
+});

@@ -74,11 +74,16 @@ export interface LotStudyResult {
   notes: string[];
 }
 
-/** Groups the supply's fixed resistors into reels: same kind, nominal value and tolerance. */
+/**
+ * Groups the supply's fixed resistors into reels: same kind, nominal value and tolerance. A resistor network's
+ * members are left out: their values come from the network's own shared and per-member draws, which a reel offset
+ * on the member's nominal would widen rather than narrow.
+ */
 export function reelsOf(spec: SupplySpec): Reel[] {
   const byKey = new Map<string, Reel>();
+  const inNetwork = new Set((spec.networks ?? []).flatMap((n) => n.members));
   for (const { r, kind } of specResistors(spec)) {
-    if (kind === 'potentiometer' || !(r.tolerance > 0)) continue;
+    if (kind === 'potentiometer' || !(r.tolerance > 0) || inNetwork.has(r.name)) continue;
     const key = `${kind}\u0000${r.nominal}\u0000${r.tolerance}`;
     const reel = byKey.get(key);
     if (reel) {
@@ -168,7 +173,7 @@ export async function lotStudy(spec: SupplySpec, options: LotStudyOptions): Prom
   }
   const notes = [
     `Reel-lot model: ${count} lots of ${trialsPerLot.toLocaleString('en-US')} units; parts of one value, tolerance and kind share a reel (${reels.map((r) => r.name).join(', ')}), whose lot offset is drawn uniformly within ±${Math.round(share * 100)} % of the band (common practice), and each unit draws within the remaining ±${Math.round((1 - share) * 100)} % about it.`,
-    `Lot offsets from the stream seeded "${seed}:lots"; lot k's units from the engine seeded "${seed}:lot k" (the same for any worker count). Potentiometers, references, offsets and bias currents are drawn per unit.`,
+    `Lot offsets from the stream seeded "${seed}:lots"; lot k's units from the engine seeded "${seed}:lot k" (the same for any worker count). Potentiometers, references, offsets and bias currents are drawn per unit${(spec.networks ?? []).length > 0 ? `, and so are the members of ${(spec.networks ?? []).map((n) => n.name).join(', ')} (a network's lot-to-lot spread is not modelled)` : ''}.`,
     'Overall yield: every unit of every lot, with a Wilson interval over units (it does not allow for the lot-to-lot spread; the worst lot shows that).',
     'Pooled over lots, each part spreads as its lot offset plus its unit draw (for a uniform part a trapezoid, narrower in σ than the whole band drawn uniformly), so the overall yield need not equal the main analysis\'s.',
   ];
