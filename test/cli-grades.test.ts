@@ -112,6 +112,8 @@ describe('trimfree grades (subprocess)', { timeout: 120_000 }, () => {
       const json = grades(file, '--trials', '20000', '--search-trials', '4000', '--json');
       expect(json.status).toBe(0);
       expect(json.stdout).not.toMatch(/NaN|Infinity/);
+      // Costs are sums of decimal figures: no binary tail (e.g. 67.80000000000001) reaches the JSON.
+      for (const m of json.stdout.matchAll(/"\w*[cC]ost\w*": *(-?[0-9.eE+-]+)/g)) expect(m[1]!.replace(/^-?0?\.?0*|[eE].*$|\./g, '').length).toBeLessThanOrEqual(12);
       const parsed = JSON.parse(json.stdout) as { grades: Array<{ grade: string; allSpecsYieldPct: number }>; cheapest: { found: boolean; method: string } };
       expect(parsed.grades.map((g) => g.grade)).toEqual(['5%', '1%', '0.5%', '0.1%']);
       expect(parsed.cheapest.method).toMatch(/cheapest/);

@@ -7,7 +7,24 @@ import { gradesSource } from '../design/grades.js';
 import { specOutputs } from './grades-cells.js';
 import { GRADING_NOTE, searchMethod } from './grades-notes.js';
 
+/**
+ * Relative costs are sums of the user's per-grade figures, so binary floating point leaves tails such as
+ * 67.80000000000001; every number under a key naming a cost is given to 12 significant digits.
+ */
+function withRoundCosts(value: unknown, key = ''): unknown {
+  if (typeof value === 'number') return /cost/i.test(key) && Number.isFinite(value) ? Number(value.toPrecision(12)) : value;
+  if (Array.isArray(value)) return value.map((v) => withRoundCosts(v, key));
+  if (value !== null && typeof value === 'object') {
+    return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, withRoundCosts(v, /cost/i.test(key) ? key : k)]));
+  }
+  return value;
+}
+
 export function gradesJson(run: GradesRun, version: string): unknown {
+  return withRoundCosts(gradesDocument(run, version));
+}
+
+function gradesDocument(run: GradesRun, version: string): unknown {
   const names = specOutputs(run);
   return {
     seed: run.rows[0]!.result.seed,
