@@ -7,11 +7,15 @@ import { PROJECT_ROOT } from '../../project-root.js';
 
 export const KERNEL_WASM = join(PROJECT_ROOT, 'dist', 'src', 'analysis', 'kernel', 'chunk-kernel.wasm');
 
+/** Bytes at the start of the kernel's memory that the kernel keeps for itself (chunk-kernel.ts KERNEL_SCRATCH): lay
+ *  nothing there. */
+export const KERNEL_SCRATCH_BYTES = 1024;
+
 /** The kernel's exports (addresses are byte offsets into `memory`). */
 export interface KernelExports {
   memory: WebAssembly.Memory;
-  generate(groups: number, count: number, n: number): void;
-  transform(desc: number, parts: number, cols: number, stride: number, n: number): void;
+  generate(groups: number, count: number, n: number, offset: number): void;
+  transform(desc: number, parts: number, cols: number, stride: number, n: number, tails: number): void;
   evaluate(lay: number, par: number, cols: number, stride: number, n: number, out: number, fixedT: number): void;
   reduce(x: number, n: number, lo: number, scale: number, bins: number, counts: number, specLo: number, specHi: number, res: number): void;
   markInside(x: number, n: number, lo: number, hi: number, pass: number): void;

@@ -12,16 +12,20 @@ import { OrderStatistics } from '../statistics/order-statistics.js';
 import { checkedOutputs, type CheckedOutput } from '../unit-check.js';
 import { kernelLayout, P_FIXED_T } from './layout.js';
 import { applyBitMatrix, jumpMatrix } from './xor128-jump.js';
-import { instantiateKernel, type KernelExports } from './wasm-module.js';
+import { instantiateKernel, KERNEL_SCRATCH_BYTES, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
 const RESULT_FIELDS = 9;
 /** One group of src/analysis/kernel/assembly/chunk-kernel.ts generate: four states (4 × i32x4), four columns, four lo, four width. */
 const GROUP_BYTES = 144;
+/** Trials drawn, transformed and evaluated at a time within a chunk (even, so only a chunk's last block is odd;
+ *  our choice: a block's part and output columns, about 0.4 MB for 20 parts and 5 outputs at 3 ambients, fit the
+ *  1 MB L2 cache of the machine the bench figures come from). */
+export const KERNEL_BLOCK = 2048;
 
 /** Bump allocation of the kernel's memory, 16-byte aligned (SIMD loads). */
 class Arena {
-  top = 0;
+  top = KERNEL_SCRATCH_BYTES;
   take(bytes: number): number {
     const at = this.top;
     this.top += Math.ceil(bytes / 16) * 16;
@@ -53,6 +57,8 @@ export class WasmChunkRunner {
   private readonly drawing: number[];
   private readonly groups: number;
   private readonly spare: number;
+  /** Scratch of transform's normal passes: the steps with a tail value, 32 bytes each. */
+  private readonly tails: number;
   private readonly descriptors: Float64Array;
 
   /** With `reuse`, the summary's counts are views of the kernel's memory, valid until the next run (as ChunkRunner's). */
@@ -81,8 +87,9 @@ export class WasmChunkRunner {
     this.groups = arena.take(GROUP_BYTES * Math.ceil(this.drawing.length / 4));
     this.descriptors = tables.descriptors;
     this.spare = arena.take(this.stride);
+    this.tails = arena.take(16 * (KERNEL_BLOCK + 2));
     this.outs = arena.take(this.stride * outputs);
-    this.ambientOuts = arena.take(this.stride * outputs);
+    this.ambientOuts = arena.take(this.stride * outputs * (this.gridC?.length ?? 0));
     this.counts = arena.take(4 * this.countStride * outputs);
     this.ambientCounts = arena.take(4 * this.countStride * outputs * (this.gridC?.length ?? 0));
     this.passRows = arena.take(size * this.checked.length);
@@ -108,31 +115,43 @@ export class WasmChunkRunner {
     const { config, model } = this;
     const kernel = this.k;
     const n = chunkLength(config, k);
-    this.startStreams(chunkState(config.seed, k), n);
-    kernel.generate(this.groups, Math.ceil(this.drawing.length / 4), n);
-    kernel.transform(this.desc, this.parts, this.cols, this.stride, n);
-    kernel.evaluate(this.lay, this.par, this.cols, this.stride, n, this.outs, 0);
     const buffer = kernel.memory.buffer;
     const outputCount = model.outputs.length;
+    const rowBytes = config.chunkSize;
+    const ambientSet = this.stride * outputCount;
+    if (this.gridC) new Uint8Array(buffer, this.passRows, rowBytes * this.checked.length).fill(1);
+    const parameters = new Float64Array(buffer, this.par + 8 * P_FIXED_T, 1);
+    // Block by block (KERNEL_BLOCK trials): a block's part columns stay in cache from their draw to their last
+    // evaluation. Every operation is per trial, and the streams go on where the last block stopped, so the bits
+    // are those of the whole chunk at once; the reductions below run over whole columns, in trial order.
+    this.startStreams(chunkState(config.seed, k), n);
+    for (let start = 0; start < n; start += KERNEL_BLOCK) {
+      const m = Math.min(KERNEL_BLOCK, n - start);
+      const off = 8 * start;
+      kernel.generate(this.groups, Math.ceil(this.drawing.length / 4), m, off);
+      kernel.transform(this.desc, this.parts, this.cols + off, this.stride, m, this.tails);
+      kernel.evaluate(this.lay, this.par, this.cols + off, this.stride, m, this.outs + off, 0);
+      // The per-unit check (src/analysis/unit-check.ts): pass rows start at 1, each ambient ands its flags in.
+      this.gridC?.forEach((t, g) => {
+        parameters[0] = t;
+        const outs = this.ambientOuts + g * ambientSet;
+        kernel.evaluate(this.lay, this.par, this.cols + off, this.stride, m, outs + off, 1);
+        this.checked.forEach((c, i) => kernel.markInside(outs + c.index * this.stride + off, m, c.lo, c.hi, this.passRows + i * rowBytes + start));
+      });
+    }
     const counts = new Uint32Array(buffer, this.counts, this.countStride * outputCount);
     counts.fill(0);
     const outputs = model.outputs.map((_, o) => this.reduce(o, this.outs + o * this.stride, n, this.counts + 4 * o * this.countStride, config.keepSamples, config.chunkIntervals));
-    // The per-unit check (src/analysis/unit-check.ts): pass rows start at 1, each ambient ands its flags in.
     let ambient: OutputChunk[][] | null = null;
     let allInSpec: number;
     if (this.gridC) {
-      const rowBytes = config.chunkSize;
-      new Uint8Array(buffer, this.passRows, rowBytes * this.checked.length).fill(1);
       ambient = [];
       const stride = this.countStride * outputCount;
       new Uint32Array(buffer, this.ambientCounts, stride * this.gridC.length).fill(0);
-      const parameters = new Float64Array(buffer, this.par + 8 * P_FIXED_T, 1);
-      this.gridC.forEach((t, g) => {
-        parameters[0] = t;
-        kernel.evaluate(this.lay, this.par, this.cols, this.stride, n, this.ambientOuts, 1);
-        this.checked.forEach((c, i) => kernel.markInside(this.ambientOuts + c.index * this.stride, n, c.lo, c.hi, this.passRows + i * rowBytes));
+      this.gridC.forEach((_, g) => {
+        const outs = this.ambientOuts + g * ambientSet;
         const base = this.ambientCounts + 4 * g * stride;
-        ambient!.push(model.outputs.map((_, o) => this.reduce(o, this.ambientOuts + o * this.stride, n, base + 4 * o * this.countStride, false, false)));
+        ambient!.push(model.outputs.map((_, o) => this.reduce(o, outs + o * this.stride, n, base + 4 * o * this.countStride, false, false)));
       });
       this.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = kernel.countOnes(this.passRows + i * rowBytes, n)));
       kernel.markAll(this.passRows, this.checked.length, rowBytes, n, this.all);

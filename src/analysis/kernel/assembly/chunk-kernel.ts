@@ -24,20 +24,22 @@ const TWO_TO_MINUS_32: f64 = 2.3283064365386963e-10;
  * uniform part's values at once (fillXor128Affine's expression), the bare uniform for any other part (lo 0, width
  * 1: 0 + 1·u = u exactly). The caller starts each part at its own stretch of the chunk's stream
  * (src/analysis/kernel/xor128-jump.ts), so the values are those of the one sequential stream. XOR is associative,
- * so the order of the step's XORs does not change a bit.
+ * so the order of the step's XORs does not change a bit. Values go to column + `offset` bytes on, and each group's
+ * states are stored back, so the next call goes on where this one stopped: a chunk drawn block by block (the caller
+ * keeps a block's columns in cache through transform and evaluate) gives the bits of one call over the chunk.
  */
-export function generate(groups: usize, count: i32, n: i32): void {
-  const scale = f64x2.splat(TWO_TO_MINUS_32);
+export function generate(groups: usize, count: i32, n: i32, offset: usize): void {
+  const scale = kept(0, TWO_TO_MINUS_32);
   for (let q = 0; q < count; q++) {
     const g = groups + <usize>q * 144;
     let x = v128.load(g);
     let y = v128.load(g, 16);
     let z = v128.load(g, 32);
     let w = v128.load(g, 48);
-    const c0 = <usize>load<u32>(g, 64);
-    const c1 = <usize>load<u32>(g, 68);
-    const c2 = <usize>load<u32>(g, 72);
-    const c3 = <usize>load<u32>(g, 76);
+    const c0 = <usize>load<u32>(g, 64) + offset;
+    const c1 = <usize>load<u32>(g, 68) + offset;
+    const c2 = <usize>load<u32>(g, 72) + offset;
+    const c3 = <usize>load<u32>(g, 76) + offset;
     const lo01 = v128.load(g, 80);
     const lo23 = v128.load(g, 96);
     const width01 = v128.load(g, 112);
@@ -56,6 +58,10 @@ export function generate(groups: usize, count: i32, n: i32): void {
       store<f64>(c2 + off, f64x2.extract_lane(high, 0));
       store<f64>(c3 + off, f64x2.extract_lane(high, 1));
     }
+    v128.store(g, x);
+    v128.store(g, y, 16);
+    v128.store(g, z, 32);
+    v128.store(g, w, 48);
   }
 }
 
@@ -131,9 +137,10 @@ const BINNED = 5;
 
 /**
  * In place, each part's column from its uniforms (left there by generate) to its values; a constant part's column
- * is filled (its stretch of the stream is skipped by the caller's jump, as skipXor128 does).
+ * is filled (its stretch of the stream is skipped by the caller's jump, as skipXor128 does). `tails` is scratch
+ * for the normal passes: 16·n + 32 bytes (32 per step of two values).
  */
-export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n: i32): void {
+export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n: i32, tails: usize): void {
   for (let i = 0; i < parts; i++) {
     const d = desc + (<usize>i << 6);
     const kind = <i32>load<f64>(d);
@@ -148,55 +155,91 @@ export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n
     if (kind == CONSTANT) {
       for (let j = 0; j < n; j++) store<f64>(out + (<usize>j << 3), a);
     } else if (kind == AFFINE) continue; // drawn and scaled by generate
-    else if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity);
-    else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g);
+    else if (kind == NORMAL) normalPass(out, n, 0, 1, a, b, -Infinity, Infinity, tails);
+    else if (kind == TRUNCATED) normalPass(out, n, a, b, c, e, f, g, tails);
     else if (kind == TRIANGULAR) triangularPass(out, n, a, b, c, e, f);
-    else binnedPass(out, n, a, b, c, e, f, g, h);
+    else binnedPass(out, n, a, b, c, e, f, g, h, tails);
   }
 }
 
 /**
  * u → clamp(mean + sigma·Φ⁻¹(pLo + span·u), lo, hi) in place (a plain normal: pLo 0, span 1, lo −∞, hi +∞, which
- * give u and no clamp, to the bit). Two values per SIMD step through the central rational function; a step with a
- * tail value (about one in twenty) redoes its two values with the scalar normalQuantile, as the reference's tail
- * pass redoes its tail draws. clampBoth is the reference's `x < lo ? lo : x > hi ? hi : x`, lane by lane.
+ * give u and no clamp, to the bit). Two values per SIMD step through the central rational function, for every
+ * step; a step with a tail value (about one in ten) is listed in `tails` (its p and its index, 32 bytes, written at
+ * every step and kept by advancing the count), and the second loop redoes the listed steps' two values with the
+ * scalar normalQuantile, as the reference's tail pass redoes its tail draws. The first loop has no data-dependent
+ * branch. clampBoth is the reference's `x < lo ? lo : x > hi ? hi : x`, lane by lane.
  */
-function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
-  const vLo = f64x2.splat(pLo);
-  const vSpan = f64x2.splat(span);
-  const vMean = f64x2.splat(mean);
-  const vSigma = f64x2.splat(sigma);
-  const low = f64x2.splat(P_LOW);
-  const high = f64x2.splat(P_HIGH);
-  const half = f64x2.splat(0.5);
-  const bandLo = f64x2.splat(lo);
-  const bandHi = f64x2.splat(hi);
+function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64, tails: usize): void {
+  // Every constant of the loop read once from memory before it (see `kept`).
+  const vLo = kept(0, pLo);
+  const vSpan = kept(1, span);
+  const vMean = kept(2, mean);
+  const vSigma = kept(3, sigma);
+  const low = kept(4, P_LOW);
+  const high = kept(5, P_HIGH);
+  const half = kept(6, 0.5);
+  const bandLo = kept(7, lo);
+  const bandHi = kept(8, hi);
+  const a1 = kept(9, A1), a2 = kept(10, A2), a3 = kept(11, A3), a4 = kept(12, A4), a5 = kept(13, A5), a6 = kept(14, A6);
+  const b1 = kept(15, B1), b2 = kept(16, B2), b3 = kept(17, B3), b4 = kept(18, B4), b5 = kept(19, B5), one = kept(20, 1);
+  let count: usize = 0;
   for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
     const p = f64x2.add(vLo, f64x2.mul(vSpan, v128.load(at)));
     // Central region P_LOW ≤ p ≤ P_HIGH in both lanes?
     const central = v128.and(f64x2.ge(p, low), f64x2.le(p, high));
-    let x: v128;
-    if (i64x2.all_true(central)) {
-      const q = f64x2.sub(p, half);
-      const r = f64x2.mul(q, q);
-      const num = f64x2.mul(poly6(r, A1, A2, A3, A4, A5, A6), q);
-      const den = poly6(r, B1, B2, B3, B4, B5, 1);
-      x = f64x2.add(vMean, f64x2.mul(vSigma, f64x2.div(num, den)));
-    } else {
-      x = f64x2(normalQuantile(f64x2.extract_lane(p, 0), mean, sigma), normalQuantile(f64x2.extract_lane(p, 1), mean, sigma));
-    }
+    const q = f64x2.sub(p, half);
+    const r = f64x2.mul(q, q);
+    const num = f64x2.mul(poly6(r, a1, a2, a3, a4, a5, a6), q);
+    const den = poly6(r, b1, b2, b3, b4, b5, one);
+    v128.store(at, clampBoth(f64x2.add(vMean, f64x2.mul(vSigma, f64x2.div(num, den))), bandLo, bandHi));
+    const entry = tails + (count << 5);
+    v128.store(entry, p);
+    store<i32>(entry, j, 16);
+    count += <usize>!i64x2.all_true(central);
+  }
+  for (let t: usize = 0; t < count; t++) {
+    const entry = tails + (t << 5);
+    const p = v128.load(entry);
+    const at = buf + (<usize>load<i32>(entry, 16) << 3);
+    const x = f64x2(normalQuantile(f64x2.extract_lane(p, 0), mean, sigma), normalQuantile(f64x2.extract_lane(p, 1), mean, sigma));
     v128.store(at, clampBoth(x, bandLo, bandHi));
   }
 }
 
 /** ((((c1·r + c2)·r + c3)·r + c4)·r + c5)·r + c6, Horner's scheme as the reference writes it. */
-@inline function poly6(r: v128, c1: f64, c2: f64, c3: f64, c4: f64, c5: f64, c6: f64): v128 {
-  let v = f64x2.add(f64x2.mul(f64x2.splat(c1), r), f64x2.splat(c2));
-  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c3));
-  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c4));
-  v = f64x2.add(f64x2.mul(v, r), f64x2.splat(c5));
-  return f64x2.add(f64x2.mul(v, r), f64x2.splat(c6));
+@inline function poly6(r: v128, c1: v128, c2: v128, c3: v128, c4: v128, c5: v128, c6: v128): v128 {
+  let v = f64x2.add(f64x2.mul(c1, r), c2);
+  v = f64x2.add(f64x2.mul(v, r), c3);
+  v = f64x2.add(f64x2.mul(v, r), c4);
+  v = f64x2.add(f64x2.mul(v, r), c5);
+  return f64x2.add(f64x2.mul(v, r), c6);
+}
+
+/**
+ * The kernel's own scratch: bytes 0 … KERNEL_SCRATCH_BYTES − 1 of the memory, which callers never lay anything in
+ * (src/analysis/kernel/wasm-module.ts KERNEL_SCRATCH_BYTES). Only `kept` writes there, and reads back at once.
+ */
+const KERNEL_SCRATCH: usize = 0;
+
+/**
+ * c in both lanes, written to slot `slot` (0 … 63) of the scratch and read back. The compiler cannot see through
+ * the memory, so the value stays one loop-invariant local; a splat or a constant written inside a loop is rebuilt
+ * there at every step by the engine's code generator (V8 11: three instructions per constant per step, which made
+ * the normal pass 30 % slower).
+ */
+@inline function kept(slot: usize, c: f64): v128 {
+  const at = KERNEL_SCRATCH + (slot << 4);
+  v128.store(at, f64x2.splat(c));
+  return v128.load(at);
+}
+
+/** kept for four i32 lanes. */
+@inline function keptI32(slot: usize, c: i32): v128 {
+  const at = KERNEL_SCRATCH + (slot << 4);
+  v128.store(at, i32x4.splat(c));
+  return v128.load(at);
 }
 
 @inline function clampBoth(x: v128, lo: v128, hi: v128): v128 {
@@ -205,12 +248,12 @@ function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f
 
 /** u < split ? lo + √(u·left) : hi − √((1 − u)·right), both sides computed, each lane picking its own. */
 function triangularPass(buf: usize, n: i32, lo: f64, hi: f64, split: f64, left: f64, right: f64): void {
-  const vLo = f64x2.splat(lo);
-  const vHi = f64x2.splat(hi);
-  const vSplit = f64x2.splat(split);
-  const vLeft = f64x2.splat(left);
-  const vRight = f64x2.splat(right);
-  const one = f64x2.splat(1);
+  const vLo = kept(0, lo);
+  const vHi = kept(1, hi);
+  const vSplit = kept(2, split);
+  const vLeft = kept(3, left);
+  const vRight = kept(4, right);
+  const one = kept(5, 1);
   for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
     const u = v128.load(at);
@@ -221,17 +264,17 @@ function triangularPass(buf: usize, n: i32, lo: f64, hi: f64, split: f64, left: 
 }
 
 /** u → the probability on the low or the high piece (binned.ts), then the normal pass with the band's clamp. */
-function binnedPass(buf: usize, n: i32, lowStart: f64, pieceMass: f64, highStart: f64, mean: f64, sigma: f64, lo: f64, hi: f64): void {
-  const twice = f64x2.splat(2 * pieceMass);
-  const mass = f64x2.splat(pieceMass);
-  const vLow = f64x2.splat(lowStart);
-  const vHigh = f64x2.splat(highStart);
+function binnedPass(buf: usize, n: i32, lowStart: f64, pieceMass: f64, highStart: f64, mean: f64, sigma: f64, lo: f64, hi: f64, tails: usize): void {
+  const twice = kept(0, 2 * pieceMass);
+  const mass = kept(1, pieceMass);
+  const vLow = kept(2, lowStart);
+  const vHigh = kept(3, highStart);
   for (let j = 0; j < n; j += 2) {
     const at = buf + (<usize>j << 3);
     const v = f64x2.mul(twice, v128.load(at));
     v128.store(at, v128.bitselect(f64x2.add(vLow, v), f64x2.add(vHigh, f64x2.sub(v, mass)), f64x2.lt(v, mass)));
   }
-  normalPass(buf, n, 0, 1, mean, sigma, lo, hi);
+  normalPass(buf, n, 0, 1, mean, sigma, lo, hi, tails);
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -303,8 +346,7 @@ let zeroColumn: usize = 0;
  * value·(1 + drift)·(1 + coefficient·ΔT): scaledColumn of supply.ts, which leaves out the factor of a part that is
  * absent (here: the column of zeros), as this does. The test is the same for every trial, so it predicts perfectly.
  */
-@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: v128): v128 {
-  const one = f64x2.splat(1);
+@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: v128, one: v128): v128 {
   let r = at(v, off);
   if (d != zeroColumn) r = mul(r, add(one, at(d, off)));
   if (c != zeroColumn) r = mul(r, add(one, mul(at(c, off), dT)));
@@ -321,8 +363,9 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
   colStride = stride;
   zeroColumn = col(lay, L_ZERO);
   const tCol = col(lay, L_T);
-  const tFixed = f64x2.splat(load<f64>(par, P_FIXED_T << 3));
-  const room = f64x2.splat(REFERENCE_TEMPERATURE_C);
+  const tFixed = kept(0, load<f64>(par, P_FIXED_T << 3));
+  const room = kept(1, REFERENCE_TEMPERATURE_C);
+  const one = kept(2, 1);
   const refV = col(lay, L_REF), refD = col(lay, L_REF + 1), refC = col(lay, L_REF + 2);
   const taV = col(lay, L_TOP), taD = col(lay, L_TOP + 1), taC = col(lay, L_TOP + 2);
   const topHasB = load<i32>(lay, (L_TOP + 3) << 2);
@@ -334,17 +377,17 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
   const bbV = col(lay, L_BOTTOM + 4), bbD = col(lay, L_BOTTOM + 5), bbC = col(lay, L_BOTTOM + 6);
   const bottomParallel = load<i32>(lay, (L_BOTTOM + 7) << 2);
   const bpV = col(lay, L_BOTTOM + 8), bpD = col(lay, L_BOTTOM + 9), bpC = col(lay, L_BOTTOM + 10);
-  const wiperTop = f64x2.splat(load<f64>(par, P_WIPER_TOP << 3));
-  const wiperBottom = f64x2.splat(load<f64>(par, P_WIPER_BOTTOM << 3));
+  const wiperTop = kept(3, load<f64>(par, P_WIPER_TOP << 3));
+  const wiperBottom = kept(4, load<f64>(par, P_WIPER_BOTTOM << 3));
   const ifb = col(lay, L_IFB);
   const vout = out;
   const dividerCurrent = out + stride;
   for (let j = 0; j < n; j += 2) {
     const off = <usize>j << 3;
     const dT = sub(fixedT != 0 ? tFixed : at(tCol, off), room);
-    const v = scaled(refV, refD, refC, off, dT);
-    const top = leg(taV, taD, taC, topHasB, tbV, tbD, tbC, topParallel, tpV, tpD, tpC, wiperTop, off, dT);
-    const bottom = leg(baV, baD, baC, bottomHasB, bbV, bbD, bbC, bottomParallel, bpV, bpD, bpC, wiperBottom, off, dT);
+    const v = scaled(refV, refD, refC, off, dT, one);
+    const top = leg(taV, taD, taC, topHasB, tbV, tbD, tbC, topParallel, tpV, tpD, tpC, wiperTop, off, dT, one);
+    const bottom = leg(baV, baD, baC, bottomHasB, bbV, bbD, bbC, bottomParallel, bpV, bpD, bpC, wiperBottom, off, dT, one);
     // dividerVout (src/circuits/divider.ts): Vref + Rtop·(Vref/Rbottom + Ifb); divider current Vref/Rbottom.
     v128.store(vout + off, add(v, mul(top, add(div(v, bottom), at(ifb, off)))));
     v128.store(dividerCurrent + off, div(v, bottom));
@@ -353,14 +396,14 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
 }
 
 /** One divider leg: a, or a ∥ b, or a + b, then + wiper·pot (a missing pot is the zero column and wiper 0). */
-@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: v128, off: usize, dT: v128): v128 {
-  const a = scaled(aV, aD, aC, off, dT);
+@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: v128, off: usize, dT: v128, one: v128): v128 {
+  const a = scaled(aV, aD, aC, off, dT, one);
   let r = a;
   if (hasB != 0) {
-    const b = scaled(bV, bD, bC, off, dT);
+    const b = scaled(bV, bD, bC, off, dT, one);
     r = parallel != 0 ? div(mul(a, b), add(a, b)) : add(a, b);
   }
-  return add(r, mul(wiper, scaled(pV, pD, pC, off, dT)));
+  return add(r, mul(wiper, scaled(pV, pD, pC, off, dT, one)));
 }
 
 /**
@@ -383,11 +426,13 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
   const g3V = col(lay, L_GAIN + 9), g3D = col(lay, L_GAIN + 10), g3C = col(lay, L_GAIN + 11);
   const shV = col(lay, L_SHUNT), shD = col(lay, L_SHUNT + 1), shC = col(lay, L_SHUNT + 2);
   const selfHeating = load<i32>(lay, L_SELF_HEATING << 2);
-  const commonMode = f64x2.splat(load<f64>(par, P_COMMON_MODE << 3));
-  const theta = f64x2.splat(load<f64>(par, P_THETA << 3));
-  const room = f64x2.splat(REFERENCE_TEMPERATURE_C);
-  const one = f64x2.splat(1);
-  const zero = f64x2.splat(0);
+  const commonMode = kept(0, load<f64>(par, P_COMMON_MODE << 3));
+  const theta = kept(1, load<f64>(par, P_THETA << 3));
+  const room = kept(2, REFERENCE_TEMPERATURE_C);
+  const one = kept(3, 1);
+  const zero = kept(4, 0);
+  const four = kept(5, 4);
+  const two = kept(6, 2);
   const limitOut = out;
   const lossOut = out + stride;
   const ampOut = out + 2 * stride;
@@ -395,15 +440,15 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
     const off = <usize>j << 3;
     const dT = sub(useFixed ? tFixed : at(tCol, off), room);
     let threshold: v128;
-    if (thMode == 0) threshold = scaled(thV, thD, thC, off, dT);
+    if (thMode == 0) threshold = scaled(thV, thD, thC, off, dT, one);
     else {
-      const source = thMode == 1 ? scaled(refV, refD, refC, off, dT) : scaled(sV, sD, sC, off, dT);
-      const rt = scaled(ttV, ttD, ttC, off, dT);
-      const rb = scaled(tbV, tbD, tbC, off, dT);
+      const source = thMode == 1 ? scaled(refV, refD, refC, off, dT, one) : scaled(sV, sD, sC, off, dT, one);
+      const rt = scaled(ttV, ttD, ttC, off, dT, one);
+      const rb = scaled(tbV, tbD, tbC, off, dT, one);
       threshold = div(mul(source, rb), add(rt, rb));
     }
     const compareOffset = at(compare, off);
-    const rAmbient = scaled(shV, shD, shC, off, dT);
+    const rAmbient = scaled(shV, shD, shC, off, dT, one);
     let shunt = rAmbient;
     let current: v128;
     let signal: v128;
@@ -411,7 +456,7 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
       // src/circuits/sense/direct.ts
       current = div(sub(threshold, compareOffset), shunt);
       if (selfHeating != 0) {
-        shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+        shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient), four, two);
         current = div(sub(threshold, compareOffset), shunt);
       }
       signal = mul(current, shunt);
@@ -420,22 +465,22 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
       const biasCurrent = at(ampBias, off);
       if (kind == SENSE_NONINV) {
         // src/circuits/sense/noninv.ts
-        const feedback = scaled(g0V, g0D, g0C, off, dT);
-        const ground = scaled(g1V, g1D, g1C, off, dT);
+        const feedback = scaled(g0V, g0D, g0C, off, dT, one);
+        const ground = scaled(g1V, g1D, g1C, off, dT, one);
         const gain = add(one, div(feedback, ground));
         const drive = sub(sub(threshold, compareOffset), mul(biasCurrent, feedback));
         current = div(sub(div(drive, gain), amplifierOffset), shunt);
         if (selfHeating != 0) {
-          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient), four, two);
           current = div(sub(div(drive, gain), amplifierOffset), shunt);
         }
         signal = add(mul(gain, add(mul(current, shunt), amplifierOffset)), mul(biasCurrent, feedback));
       } else {
         // src/circuits/sense/diff.ts
-        const r1 = scaled(g0V, g0D, g0C, off, dT);
-        const r2 = scaled(g1V, g1D, g1C, off, dT);
-        const r3 = scaled(g2V, g2D, g2C, off, dT);
-        const r4 = scaled(g3V, g3D, g3C, off, dT);
+        const r1 = scaled(g0V, g0D, g0C, off, dT, one);
+        const r2 = scaled(g1V, g1D, g1C, off, dT, one);
+        const r3 = scaled(g2V, g2D, g2C, off, dT, one);
+        const r4 = scaled(g3V, g3D, g3C, off, dT, one);
         const ratio = div(r2, r1);
         const plusGain = mul(div(r4, add(r3, r4)), add(one, ratio));
         const sourceAtPlus = div(mul(r3, r4), add(r3, r4));
@@ -444,7 +489,7 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
         const drive = sub(sub(sub(threshold, compareOffset), commonModeOut), offsetTerm);
         current = div(drive, mul(plusGain, shunt));
         if (selfHeating != 0) {
-          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient));
+          shunt = hotShunt(rAmbient, mul(at(shV, off), add(one, at(shD, off))), at(shC, off), theta, mul(current, rAmbient), four, two);
           current = div(drive, mul(plusGain, shunt));
         }
         const vp = add(commonMode, mul(current, shunt));
@@ -458,9 +503,9 @@ function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize
 }
 
 /** supply.ts hotShunt: the self-heated shunt, (R_amb + √(R_amb² + 4·R25·α·θ·K²))/2. */
-@inline function hotShunt(rAmbient: v128, r25: v128, alpha: v128, theta: v128, k: v128): v128 {
-  const inside = add(mul(rAmbient, rAmbient), mul(mul(mul(mul(mul(f64x2.splat(4), r25), alpha), theta), k), k));
-  return div(add(rAmbient, f64x2.sqrt(inside)), f64x2.splat(2));
+@inline function hotShunt(rAmbient: v128, r25: v128, alpha: v128, theta: v128, k: v128, four: v128, two: v128): v128 {
+  const inside = add(mul(rAmbient, rAmbient), mul(mul(mul(mul(mul(four, r25), alpha), theta), k), k));
+  return div(add(rAmbient, f64x2.sqrt(inside)), two);
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -471,27 +516,37 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
   const above = bins + 1;
   const binsF = <f64>bins;
   // Two values per step. The sum adds them one at a time in trial order (as the reference does); min and max run
-  // per lane and join at the end, which gives the same result in any order (IEEE 754 minimum/maximum: a NaN wins,
-  // −0 below +0); the window counts are whole numbers, added per lane.
+  // per lane and join at the end (checked below where a NaN or a zero could make the order matter); the window
+  // counts are whole numbers, added per lane.
   let minLanes = f64x2.splat(Infinity);
   let maxLanes = f64x2.splat(-Infinity);
   let insideLanes = i64x2.splat(0);
   let belowLanes = i64x2.splat(0);
-  const vLo = f64x2.splat(lo);
-  const vScale = f64x2.splat(scale);
-  const vSpecLo = f64x2.splat(specLo);
-  const vSpecHi = f64x2.splat(specHi);
+  const vLo = kept(0, lo);
+  const vScale = kept(1, scale);
+  const vSpecLo = kept(2, specLo);
+  const vSpecHi = kept(3, specHi);
+  const vBins = kept(4, binsF);
+  const minusOne = kept(5, -1);
+  const zero = kept(6, 0);
+  const oneI = keptI32(7, 1);
   let sum: f64 = 0;
   const pairs = n & ~1;
   for (let j = 0; j < pairs; j += 2) {
     const v = v128.load(x + (<usize>j << 3));
-    minLanes = f64x2.min(minLanes, v);
-    maxLanes = f64x2.max(maxLanes, v);
+    minLanes = f64x2.pmin(minLanes, v);
+    maxLanes = f64x2.pmax(maxLanes, v);
     sum += f64x2.extract_lane(v, 0);
     sum += f64x2.extract_lane(v, 1);
+    // countBin two lanes at once: t < 0 becomes −1 and t ≥ bins becomes bins (a NaN stays NaN: both tests false),
+    // so the saturating truncation plus one gives countBin's bin in each lane (−1 → 0, bins → bins + 1, NaN → 1).
     const t = f64x2.mul(f64x2.sub(v, vLo), vScale);
-    countBin(counts, f64x2.extract_lane(t, 0), binsF, above);
-    countBin(counts, f64x2.extract_lane(t, 1), binsF, above);
+    const clamped = v128.bitselect(minusOne, v128.bitselect(vBins, t, f64x2.ge(t, vBins)), f64x2.lt(t, zero));
+    const bin = i32x4.add(i32x4.trunc_sat_f64x2_s_zero(clamped), oneI);
+    const slot0 = counts + (<usize>i32x4.extract_lane(bin, 0) << 2);
+    store<u32>(slot0, load<u32>(slot0) + 1);
+    const slot1 = counts + (<usize>i32x4.extract_lane(bin, 1) << 2);
+    store<u32>(slot1, load<u32>(slot1) + 1);
     // A true comparison is all ones (−1 as an integer): subtracting it counts one.
     insideLanes = i64x2.sub(insideLanes, v128.and(f64x2.ge(v, vSpecLo), f64x2.le(v, vSpecHi)));
     belowLanes = i64x2.sub(belowLanes, f64x2.lt(v, vSpecLo));
@@ -511,11 +566,22 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
   }
   let nonFinite: i32 = 0;
   if (!isFinite(sum)) for (let j = 0; j < n; j++) nonFinite += <i32>!isFinite(load<f64>(x + (<usize>j << 3)));
+  // pmin and pmax (b < a ? b : a, one instruction each) agree with Math.min and Math.max except where a NaN or a
+  // zero of either sign takes part; then the column's min and max are found again the reference's way.
+  if (nonFinite != 0 || min == 0 || max == 0) {
+    min = Infinity;
+    max = -Infinity;
+    for (let j = 0; j < n; j++) {
+      const v = load<f64>(x + (<usize>j << 3));
+      min = Math.min(min, v);
+      max = Math.max(max, v);
+    }
+  }
   const mean = n > 0 ? sum / <f64>n : 0;
   // Σ(x − mean)² and Σ(x − mean), each in trial order (the subtraction two lanes at a time).
   let sq: f64 = 0;
   let dev: f64 = 0;
-  const vMean = f64x2.splat(mean);
+  const vMean = kept(8, mean);
   for (let j = 0; j < pairs; j += 2) {
     const d = f64x2.sub(v128.load(x + (<usize>j << 3)), vMean);
     const d0 = f64x2.extract_lane(d, 0);
@@ -574,8 +640,22 @@ export function markAll(rows: usize, count: i32, rowStride: usize, n: i32, all: 
  * pass): `count` rows of 24 bytes at `rows`, each the output's column address (u32, 4 bytes unused) and lo, hi.
  */
 export function countAllInside(rows: usize, count: i32, n: i32): i32 {
-  let total = 0;
-  for (let j = 0; j < n; j++) {
+  // Two units per step: each lane is all ones while the unit is inside every window so far; subtracting the
+  // final mask (−1 per unit inside) counts them. The odd last unit, if any, one at a time as below.
+  let lanes = i64x2.splat(0);
+  const pairs = n & ~1;
+  for (let j = 0; j < pairs; j += 2) {
+    const off = <usize>j << 3;
+    let all = i64x2.splat(-1);
+    for (let c = 0; c < count; c++) {
+      const row = rows + <usize>c * 24;
+      const v = v128.load(<usize>load<u32>(row) + off);
+      all = v128.and(all, v128.and(f64x2.ge(v, f64x2.splat(load<f64>(row, 8))), f64x2.le(v, f64x2.splat(load<f64>(row, 16)))));
+    }
+    lanes = i64x2.sub(lanes, all);
+  }
+  let total = <i32>(i64x2.extract_lane(lanes, 0) + i64x2.extract_lane(lanes, 1));
+  for (let j = pairs; j < n; j++) {
     const off = <usize>j << 3;
     let all: i32 = 1;
     for (let c = 0; c < count; c++) {
