@@ -9,7 +9,7 @@ export const KERNEL_WASM = join(PROJECT_ROOT, 'dist', 'src', 'analysis', 'kernel
 
 /** Bytes at the start of the kernel's memory that the kernel keeps for itself (chunk-kernel.ts KERNEL_SCRATCH): lay
  *  nothing there. */
-export const KERNEL_SCRATCH_BYTES = 1024;
+export const KERNEL_SCRATCH_BYTES = 2048;
 
 /** The kernel's exports (addresses are byte offsets into `memory`). */
 export interface KernelExports {

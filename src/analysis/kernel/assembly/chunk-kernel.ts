@@ -218,8 +218,9 @@ function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f
 }
 
 /**
- * The kernel's own scratch: bytes 0 … KERNEL_SCRATCH_BYTES − 1 of the memory, which callers never lay anything in
- * (src/analysis/kernel/wasm-module.ts KERNEL_SCRATCH_BYTES). Only `kept` writes there, and reads back at once.
+ * The kernel's own scratch: bytes 0 … KERNEL_SCRATCH_BYTES − 1 (2048) of the memory, which callers never lay
+ * anything in (src/analysis/kernel/wasm-module.ts KERNEL_SCRATCH_BYTES): bytes 0 … 1023 for `kept`, which reads
+ * back at once, then evaluate's column and presence tables (COLUMN_TABLE, PRESENT_TABLE).
  */
 const KERNEL_SCRATCH: usize = 0;
 
@@ -313,13 +314,19 @@ const SENSE_NONINV = 2;
 
 const REFERENCE_TEMPERATURE_C: f64 = 25;
 
-// Column pointers of one evaluation (globals: set once per call, read before the loop).
-let cols: usize = 0;
-let colStride: usize = 0;
-let zeroColumn: usize = 0;
+// The columns of one evaluation, by layout slot: evaluate writes each slot's column address (cols + index·stride)
+// to the scratch's column table, and a byte saying whether the part is there (not the column of zeros) to its
+// presence table; the loops read both from there, one load per use. (As locals, V8 recomputed each address from
+// spilled values at every step, four instructions a column.)
+const COLUMN_TABLE: usize = KERNEL_SCRATCH + 1024;
+const PRESENT_TABLE: usize = KERNEL_SCRATCH + 1280;
 
-@inline function col(lay: usize, slot: i32): usize {
-  return cols + <usize>load<i32>(lay + (<usize>slot << 2)) * colStride;
+@inline function colAt(slot: i32): usize {
+  return <usize>load<u32>(COLUMN_TABLE + (<usize>slot << 2));
+}
+
+@inline function has(slot: i32): bool {
+  return load<u8>(PRESENT_TABLE + <usize>slot) != 0;
 }
 
 // Two trials per SIMD step: every f64x2 operation gives in each lane the bits of the scalar operation (IEEE 754
@@ -338,18 +345,19 @@ let zeroColumn: usize = 0;
 @inline function div(a: v128, b: v128): v128 {
   return f64x2.div(a, b);
 }
-@inline function at(column: usize, off: usize): v128 {
-  return v128.load(column + off);
+/** Slot's column at byte offset off (two trials). */
+@inline function at(slot: i32, off: usize): v128 {
+  return v128.load(colAt(slot) + off);
 }
 
 /**
  * value·(1 + drift)·(1 + coefficient·ΔT): scaledColumn of supply.ts, which leaves out the factor of a part that is
  * absent (here: the column of zeros), as this does. The test is the same for every trial, so it predicts perfectly.
  */
-@inline function scaled(v: usize, d: usize, c: usize, off: usize, dT: v128, one: v128): v128 {
+@inline function scaled(v: i32, d: i32, c: i32, off: usize, dT: v128, one: v128): v128 {
   let r = at(v, off);
-  if (d != zeroColumn) r = mul(r, add(one, at(d, off)));
-  if (c != zeroColumn) r = mul(r, add(one, mul(at(c, off), dT)));
+  if (has(d)) r = mul(r, add(one, at(d, off)));
+  if (has(c)) r = mul(r, add(one, mul(at(c, off), dT)));
   return r;
 }
 
@@ -359,27 +367,30 @@ let zeroColumn: usize = 0;
  * ambient par[P_FIXED_T] instead of its drawn one (the per-unit check of src/analysis/unit-check.ts).
  */
 export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize, n: i32, out: usize, fixedT: i32): void {
-  cols = partCols;
-  colStride = stride;
-  zeroColumn = col(lay, L_ZERO);
-  const tCol = col(lay, L_T);
+  const zeroIndex = load<i32>(lay, L_ZERO << 2);
+  for (let slot = 0; slot <= L_ZERO; slot++) {
+    const index = load<i32>(lay + (<usize>slot << 2));
+    store<u32>(COLUMN_TABLE + (<usize>slot << 2), <u32>(partCols + <usize>index * stride));
+    store<u8>(PRESENT_TABLE + <usize>slot, <u8>(index != zeroIndex));
+  }
+  const tCol = L_T;
   const tFixed = kept(0, load<f64>(par, P_FIXED_T << 3));
   const room = kept(1, REFERENCE_TEMPERATURE_C);
   const one = kept(2, 1);
-  const refV = col(lay, L_REF), refD = col(lay, L_REF + 1), refC = col(lay, L_REF + 2);
-  const taV = col(lay, L_TOP), taD = col(lay, L_TOP + 1), taC = col(lay, L_TOP + 2);
+  const refV = L_REF, refD = L_REF + 1, refC = L_REF + 2;
+  const taV = L_TOP, taD = L_TOP + 1, taC = L_TOP + 2;
   const topHasB = load<i32>(lay, (L_TOP + 3) << 2);
-  const tbV = col(lay, L_TOP + 4), tbD = col(lay, L_TOP + 5), tbC = col(lay, L_TOP + 6);
+  const tbV = L_TOP + 4, tbD = L_TOP + 5, tbC = L_TOP + 6;
   const topParallel = load<i32>(lay, (L_TOP + 7) << 2);
-  const tpV = col(lay, L_TOP + 8), tpD = col(lay, L_TOP + 9), tpC = col(lay, L_TOP + 10);
-  const baV = col(lay, L_BOTTOM), baD = col(lay, L_BOTTOM + 1), baC = col(lay, L_BOTTOM + 2);
+  const tpV = L_TOP + 8, tpD = L_TOP + 9, tpC = L_TOP + 10;
+  const baV = L_BOTTOM, baD = L_BOTTOM + 1, baC = L_BOTTOM + 2;
   const bottomHasB = load<i32>(lay, (L_BOTTOM + 3) << 2);
-  const bbV = col(lay, L_BOTTOM + 4), bbD = col(lay, L_BOTTOM + 5), bbC = col(lay, L_BOTTOM + 6);
+  const bbV = L_BOTTOM + 4, bbD = L_BOTTOM + 5, bbC = L_BOTTOM + 6;
   const bottomParallel = load<i32>(lay, (L_BOTTOM + 7) << 2);
-  const bpV = col(lay, L_BOTTOM + 8), bpD = col(lay, L_BOTTOM + 9), bpC = col(lay, L_BOTTOM + 10);
+  const bpV = L_BOTTOM + 8, bpD = L_BOTTOM + 9, bpC = L_BOTTOM + 10;
   const wiperTop = kept(3, load<f64>(par, P_WIPER_TOP << 3));
   const wiperBottom = kept(4, load<f64>(par, P_WIPER_BOTTOM << 3));
-  const ifb = col(lay, L_IFB);
+  const ifb = L_IFB;
   const vout = out;
   const dividerCurrent = out + stride;
   for (let j = 0; j < n; j += 2) {
@@ -392,11 +403,11 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
     v128.store(vout + off, add(v, mul(top, add(div(v, bottom), at(ifb, off)))));
     v128.store(dividerCurrent + off, div(v, bottom));
   }
-  if (load<i32>(lay, L_SENSE << 2) != SENSE_NONE) evaluateSense(lay, par, n, out + 2 * stride, stride, fixedT != 0, tFixed, tCol, refV, refD, refC);
+  if (load<i32>(lay, L_SENSE << 2) != SENSE_NONE) evaluateSense(lay, par, n, out + 2 * stride, stride, fixedT != 0, tFixed);
 }
 
 /** One divider leg: a, or a ∥ b, or a + b, then + wiper·pot (a missing pot is the zero column and wiper 0). */
-@inline function leg(aV: usize, aD: usize, aC: usize, hasB: i32, bV: usize, bD: usize, bC: usize, parallel: i32, pV: usize, pD: usize, pC: usize, wiper: v128, off: usize, dT: v128, one: v128): v128 {
+@inline function leg(aV: i32, aD: i32, aC: i32, hasB: i32, bV: i32, bD: i32, bC: i32, parallel: i32, pV: i32, pD: i32, pC: i32, wiper: v128, off: usize, dT: v128, one: v128): v128 {
   const a = scaled(aV, aD, aC, off, dT, one);
   let r = a;
   if (hasB != 0) {
@@ -410,21 +421,23 @@ export function evaluate(lay: usize, par: usize, partCols: usize, stride: usize,
  * The sense path (supply.ts senseBlock and src/circuits/sense/*): the limit current, found again with the shunt at
  * its self-heated resistance when it heats itself, the shunt loss there and the amplifier output there.
  */
-function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize, useFixed: bool, tFixed: v128, tCol: usize, refV: usize, refD: usize, refC: usize): void {
+function evaluateSense(lay: usize, par: usize, n: i32, out: usize, stride: usize, useFixed: bool, tFixed: v128): void {
+  const tCol = L_T;
+  const refV = L_REF, refD = L_REF + 1, refC = L_REF + 2;
   const kind = load<i32>(lay, L_SENSE << 2);
   const thMode = load<i32>(lay, L_TH_MODE << 2);
-  const thV = col(lay, L_TH_FIXED), thD = col(lay, L_TH_FIXED + 1), thC = col(lay, L_TH_FIXED + 2);
-  const sV = col(lay, L_TH_SOURCE), sD = col(lay, L_TH_SOURCE + 1), sC = col(lay, L_TH_SOURCE + 2);
-  const ttV = col(lay, L_TH_TOP), ttD = col(lay, L_TH_TOP + 1), ttC = col(lay, L_TH_TOP + 2);
-  const tbV = col(lay, L_TH_BOTTOM), tbD = col(lay, L_TH_BOTTOM + 1), tbC = col(lay, L_TH_BOTTOM + 2);
-  const compare = col(lay, L_COMPARE);
-  const ampOffset = col(lay, L_AMP), ampDrift = col(lay, L_AMP + 1), ampBias = col(lay, L_AMP + 2);
+  const thV = L_TH_FIXED, thD = L_TH_FIXED + 1, thC = L_TH_FIXED + 2;
+  const sV = L_TH_SOURCE, sD = L_TH_SOURCE + 1, sC = L_TH_SOURCE + 2;
+  const ttV = L_TH_TOP, ttD = L_TH_TOP + 1, ttC = L_TH_TOP + 2;
+  const tbV = L_TH_BOTTOM, tbD = L_TH_BOTTOM + 1, tbC = L_TH_BOTTOM + 2;
+  const compare = L_COMPARE;
+  const ampOffset = L_AMP, ampDrift = L_AMP + 1, ampBias = L_AMP + 2;
   const ampHasDrift = load<i32>(lay, (L_AMP + 3) << 2);
-  const g0V = col(lay, L_GAIN), g0D = col(lay, L_GAIN + 1), g0C = col(lay, L_GAIN + 2);
-  const g1V = col(lay, L_GAIN + 3), g1D = col(lay, L_GAIN + 4), g1C = col(lay, L_GAIN + 5);
-  const g2V = col(lay, L_GAIN + 6), g2D = col(lay, L_GAIN + 7), g2C = col(lay, L_GAIN + 8);
-  const g3V = col(lay, L_GAIN + 9), g3D = col(lay, L_GAIN + 10), g3C = col(lay, L_GAIN + 11);
-  const shV = col(lay, L_SHUNT), shD = col(lay, L_SHUNT + 1), shC = col(lay, L_SHUNT + 2);
+  const g0V = L_GAIN, g0D = L_GAIN + 1, g0C = L_GAIN + 2;
+  const g1V = L_GAIN + 3, g1D = L_GAIN + 4, g1C = L_GAIN + 5;
+  const g2V = L_GAIN + 6, g2D = L_GAIN + 7, g2C = L_GAIN + 8;
+  const g3V = L_GAIN + 9, g3D = L_GAIN + 10, g3C = L_GAIN + 11;
+  const shV = L_SHUNT, shD = L_SHUNT + 1, shC = L_SHUNT + 2;
   const selfHeating = load<i32>(lay, L_SELF_HEATING << 2);
   const commonMode = kept(0, load<f64>(par, P_COMMON_MODE << 3));
   const theta = kept(1, load<f64>(par, P_THETA << 3));
