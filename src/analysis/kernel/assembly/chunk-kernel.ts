@@ -633,10 +633,32 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
 
 /** pass[j] &= lo ≤ x[j] ≤ hi (a NaN fails). */
 export function markInside(x: usize, n: i32, lo: f64, hi: f64, pass: usize): void {
-  for (let j = 0; j < n; j++) {
+  // Sixteen units per step: eight f64x2 window tests (each lane all ones or zero) narrowed to sixteen bytes of
+  // 0xFF or 0, masked to 1 or 0 and anded into the flags; the rest one at a time.
+  const vLo = kept(0, lo);
+  const vHi = kept(1, hi);
+  const ones = keptI32(2, 0x01010101);
+  const steps = n & ~15;
+  for (let j = 0; j < steps; j += 16) {
+    const at = x + (<usize>j << 3);
+    const a = i16x8.narrow_i32x4_s(insideFour(at, 0, vLo, vHi), insideFour(at, 32, vLo, vHi));
+    const b = i16x8.narrow_i32x4_s(insideFour(at, 64, vLo, vHi), insideFour(at, 96, vLo, vHi));
+    const flags = v128.and(i8x16.narrow_i16x8_s(a, b), ones);
+    v128.store(pass + j, v128.and(v128.load(pass + j), flags));
+  }
+  for (let j = steps; j < n; j++) {
     const v = load<f64>(x + (<usize>j << 3));
     store<u8>(pass + j, load<u8>(pass + j) & <u8>(v >= lo && v <= hi));
   }
+}
+
+/** Four units' window tests from x at byte `off` on, as four i32 lanes of all ones (inside) or zero (a NaN is outside). */
+@inline function insideFour(x: usize, off: usize, lo: v128, hi: v128): v128 {
+  const v0 = v128.load(x + off);
+  const v1 = v128.load(x + off + 16);
+  const in0 = v128.and(f64x2.ge(v0, lo), f64x2.le(v0, hi));
+  const in1 = v128.and(f64x2.ge(v1, lo), f64x2.le(v1, hi));
+  return v128.shuffle<i32>(in0, in1, 0, 2, 4, 6);
 }
 
 /** all[j] = 1 when each of `count` flag rows (n bytes apart by rowStride) has a 1 at j. */
