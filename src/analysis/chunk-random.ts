@@ -19,8 +19,16 @@
 // from the same state, so it gives the same numbers as the library's generator given that state, call by call (a
 // test checks it).
 import { createHash } from 'node:crypto';
-import seedrandom from 'seedrandom';
+import { createRequire } from 'node:module';
+import type seedrandomLibrary from 'seedrandom';
 import type { UniformSource } from '../tolerance/uniform-source.js';
+
+// seedrandom is loaded on first use: only the one-call-per-draw reference below needs it, and loading its CommonJS
+// files cost about 30 ms of CPU time in every process and worker thread that imported this module (measured with
+// process.cpuUsage around the import, Node 20 on the development machine), while the engine's fill loops never
+// call it.
+const require = createRequire(import.meta.url);
+let seedrandom: typeof seedrandomLibrary | null = null;
 
 /** The text whose SHA-256 gives chunk k's state: a prefix of our own, the seed and k, separated by NUL. */
 export function chunkStreamName(seed: string, chunk: number): string {
@@ -38,6 +46,7 @@ export function chunkStateWords(seed: string, chunk: number): { x: number; y: nu
 
 /** seedrandom's xor128 for chunk k started from chunkStateWords, one call per draw (the reference). */
 export function chunkRandom(seed: string, chunk: number): UniformSource {
+  seedrandom ??= require('seedrandom') as typeof seedrandomLibrary;
   return seedrandom.xor128('', { state: chunkStateWords(seed, chunk) });
 }
 
