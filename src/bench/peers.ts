@@ -87,13 +87,21 @@ interface Runner {
   run: (round: number) => RunnerResult;
 }
 
+/**
+ * The NumPy peer's environment: its numerical libraries held to one thread, so the peer is the one-thread runner its
+ * label says. Left to themselves, OpenBLAS's threads ran beside it and its CPU time was 1.9× (quiet machine) to 4×
+ * (busy machine) its one-thread figure (measured: 11.3 s against 2.83 s of CPU time for 1e7 trials with the machine
+ * busy), which made trimfree look faster than it is against NumPy.
+ */
+const ONE_THREAD_ENV: NodeJS.ProcessEnv = { ...process.env, OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
+
 function toolVersion(command: string, args: string[]): string | null {
   const r = spawnSync(command, args, { encoding: 'utf8' });
   return r.status === 0 ? `${r.stdout}${r.stderr}`.trim().split('\n')[0]! : null;
 }
 
-function runJson(command: string, args: string[], input: string): RunnerResult {
-  const r = spawnSync(command, args, { input, encoding: 'utf8', maxBuffer: 1 << 20 });
+function runJson(command: string, args: string[], input: string, env: NodeJS.ProcessEnv = process.env): RunnerResult {
+  const r = spawnSync(command, args, { input, encoding: 'utf8', maxBuffer: 1 << 20, env });
   if (r.status !== 0) throw new Error(`${command} ${args.join(' ')} exited ${String(r.status)}: ${r.stderr.trim()}`);
   return JSON.parse(r.stdout) as RunnerResult;
 }
@@ -125,7 +133,7 @@ export async function runPeers(trials: number, rounds: number, threads: number, 
     }
     const numpy = toolVersion('python3', ['-c', 'import numpy, sys; print("numpy", numpy.__version__, "python", sys.version.split()[0])']);
     if (numpy === null) skipped.push('NumPy peer: no python3 with numpy on this machine');
-    else runners.push({ name: `vectorised NumPy (${numpy}, 1 thread)`, run: (round) => runJson('python3', [join(peersDir, 'supply_peer.py')], peerInput(trials, round + 1)) });
+    else runners.push({ name: `vectorised NumPy (${numpy}, 1 thread)`, run: (round) => runJson('python3', [join(peersDir, 'supply_peer.py')], peerInput(trials, round + 1), ONE_THREAD_ENV) });
 
     write(`peers: the bench model (examples/engine/bench-supply.json, 16 uncertain parts, 5 outputs, ${BINS}-bin histograms, worst case over every vertex), ${trials.toExponential(0)} trials, ${rounds} alternating rounds; CPU time is all threads' together, wall time from the runner's own clock around the same work\n`);
     for (const reason of skipped) write(`skipped: ${reason}\n`);
