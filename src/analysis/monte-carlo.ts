@@ -105,9 +105,24 @@ class Accumulator {
   counts: Float64Array;
   samples: Float64Array[] | null;
   sampleCount = 0;
-  constructor(bins: number, keep: boolean) {
+  /** The histogram's range: `lo` and scale = bins / (hi − lo), as the chunk runners bin with them. */
+  private readonly lo: number;
+  private readonly scale: number;
+  constructor(
+    private readonly bins: number,
+    keep: boolean,
+    range: { lo: number; hi: number },
+  ) {
     this.counts = new Float64Array(bins + 2);
     this.samples = keep ? [] : null;
+    this.lo = range.lo;
+    this.scale = bins / (range.hi - range.lo);
+  }
+  /** The bin a chunk runner counts v in (chunk.ts scanPass): monotone in v, so a chunk's values lie in the bins
+   *  from its min's to its max's. */
+  private binOf(v: number): number {
+    const t = (v - this.lo) * this.scale;
+    return t < 0 ? 0 : t >= this.bins ? this.bins + 1 : (t | 0) + 1;
   }
   add(c: OutputChunk): void {
     this.moments = mergeMoments(this.moments, { n: c.n, mean: c.mean, m2: c.m2 });
@@ -117,8 +132,15 @@ class Accumulator {
     this.unitInSpec += c.unitInSpec;
     this.belowSpec += c.belowSpec;
     this.nonFinite += c.nonFinite;
+    // Only the bins the chunk can have counted in: a chunk fills a narrow stretch of the 8192 bins, and adding its
+    // zeros elsewhere changed nothing but cost 3 ns per bin (40 % of a per-unit run's merging). With a NaN or an
+    // infinity among the values (the run then fails anyway) every bin is added.
     const counts = this.counts;
-    for (let b = 0; b < counts.length; b++) counts[b]! += c.counts[b]!;
+    const source = c.counts;
+    const whole = c.nonFinite > 0 || c.n === 0;
+    const first = whole ? 0 : this.binOf(c.min);
+    const last = whole ? counts.length - 1 : this.binOf(c.max);
+    for (let b = first; b <= last; b++) counts[b]! += source[b]!;
     if (this.samples && c.samples) {
       this.samples.push(c.samples);
       this.sampleCount += c.n;
@@ -233,8 +255,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
     kernel: chooseKernel(options.kernel ?? 'auto', options.source),
   };
   const gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
-  const accumulators = outputs.map(() => new Accumulator(bins, keepSamples));
-  const ambientAccumulators = (gridC ?? []).map(() => outputs.map(() => new Accumulator(bins, false)));
+  const accumulators = outputs.map((_, o) => new Accumulator(bins, keepSamples, ranges[o]!));
+  const ambientAccumulators = (gridC ?? []).map(() => outputs.map((_, o) => new Accumulator(bins, false, ranges[o]!)));
   let allInSpec = 0;
   const adaptiveTrack: AdaptiveState[] | null = adaptive ? outputs.map(() => adaptiveState()) : null;
   const digits = options.significantDigits ?? 2;
