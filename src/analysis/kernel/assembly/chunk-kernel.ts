@@ -541,7 +541,6 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
   const vSpecHi = kept(3, specHi);
   const vBins = kept(4, binsF);
   const minusOne = kept(5, -1);
-  const zero = kept(6, 0);
   const oneI = keptI32(7, 1);
   let sum: f64 = 0;
   const pairs = n & ~1;
@@ -551,11 +550,12 @@ export function reduce(x: usize, n: i32, lo: f64, scale: f64, bins: i32, counts:
     maxLanes = f64x2.pmax(maxLanes, v);
     sum += f64x2.extract_lane(v, 0);
     sum += f64x2.extract_lane(v, 1);
-    // countBin two lanes at once: t < 0 becomes −1 and t ≥ bins becomes bins (a NaN stays NaN: both tests false),
-    // so the saturating truncation plus one gives countBin's bin in each lane (−1 → 0, bins → bins + 1, NaN → 1).
+    // countBin two lanes at once: t held to [−1, bins] by pmin and pmax (a NaN passes both unchanged), then
+    // floored, so the saturating truncation plus one gives countBin's bin in each lane: t < 0 → 0 (−0 → 1, as
+    // `t | 0` + 1), t ≥ bins → bins + 1, NaN → 1, else ⌊t⌋ + 1.
     const t = f64x2.mul(f64x2.sub(v, vLo), vScale);
-    const clamped = v128.bitselect(minusOne, v128.bitselect(vBins, t, f64x2.ge(t, vBins)), f64x2.lt(t, zero));
-    const bin = i32x4.add(i32x4.trunc_sat_f64x2_s_zero(clamped), oneI);
+    const held = f64x2.floor(f64x2.pmax(f64x2.pmin(t, vBins), minusOne));
+    const bin = i32x4.add(i32x4.trunc_sat_f64x2_s_zero(held), oneI);
     const slot0 = counts + (<usize>i32x4.extract_lane(bin, 0) << 2);
     store<u32>(slot0, load<u32>(slot0) + 1);
     const slot1 = counts + (<usize>i32x4.extract_lane(bin, 1) << 2);
