@@ -138,7 +138,7 @@ const BINNED = 5;
 /**
  * In place, each part's column from its uniforms (left there by generate) to its values; a constant part's column
  * is filled (its stretch of the stream is skipped by the caller's jump, as skipXor128 does). `tails` is scratch
- * for the normal passes: 16·n + 32 bytes (32 per step of two values).
+ * for the normal passes: 16·(n + 2) bytes (16 per value).
  */
 export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n: i32, tails: usize): void {
   for (let i = 0; i < parts; i++) {
@@ -165,10 +165,10 @@ export function transform(desc: usize, parts: i32, cols: usize, stride: usize, n
 /**
  * u → clamp(mean + sigma·Φ⁻¹(pLo + span·u), lo, hi) in place (a plain normal: pLo 0, span 1, lo −∞, hi +∞, which
  * give u and no clamp, to the bit). Two values per SIMD step through the central rational function, for every
- * step; a step with a tail value (about one in ten) is listed in `tails` (its p and its index, 32 bytes, written at
- * every step and kept by advancing the count), and the second loop redoes the listed steps' two values with the
- * scalar normalQuantile, as the reference's tail pass redoes its tail draws. The first loop has no data-dependent
- * branch. clampBoth is the reference's `x < lo ? lo : x > hi ? hi : x`, lane by lane.
+ * value; a tail value (p outside [P_LOW, P_HIGH], about one in twenty) is listed in `tails` (its p and its index,
+ * 16 bytes, written for every value and kept by advancing the count), and the second loop redoes the listed values
+ * with the tail branch, as the reference's tail pass redoes its tail draws. Neither loop has a data-dependent
+ * branch. clampBoth and clamp are the reference's `x < lo ? lo : x > hi ? hi : x`.
  */
 function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f64, lo: f64, hi: f64, tails: usize): void {
   // Every constant of the loop read once from memory before it (see `kept`).
@@ -194,17 +194,19 @@ function normalPass(buf: usize, n: i32, pLo: f64, span: f64, mean: f64, sigma: f
     const num = f64x2.mul(poly6(r, a1, a2, a3, a4, a5, a6), q);
     const den = poly6(r, b1, b2, b3, b4, b5, one);
     v128.store(at, clampBoth(f64x2.add(vMean, f64x2.mul(vSigma, f64x2.div(num, den))), bandLo, bandHi));
-    const entry = tails + (count << 5);
-    v128.store(entry, p);
-    store<i32>(entry, j, 16);
-    count += <usize>!i64x2.all_true(central);
+    // Each lane's p and index go to the list; the count moves past them only for a tail lane.
+    const first = tails + (count << 4);
+    store<f64>(first, f64x2.extract_lane(p, 0));
+    store<i32>(first, j, 8);
+    count += <usize>(i64x2.extract_lane(central, 0) == 0);
+    const second = tails + (count << 4);
+    store<f64>(second, f64x2.extract_lane(p, 1));
+    store<i32>(second, j + 1, 8);
+    count += <usize>(i64x2.extract_lane(central, 1) == 0);
   }
   for (let t: usize = 0; t < count; t++) {
-    const entry = tails + (t << 5);
-    const p = v128.load(entry);
-    const at = buf + (<usize>load<i32>(entry, 16) << 3);
-    const x = f64x2(normalQuantile(f64x2.extract_lane(p, 0), mean, sigma), normalQuantile(f64x2.extract_lane(p, 1), mean, sigma));
-    v128.store(at, clampBoth(x, bandLo, bandHi));
+    const entry = tails + (t << 4);
+    store<f64>(buf + (<usize>load<i32>(entry, 8) << 3), clamp(mean + sigma * normalTail(load<f64>(entry)), lo, hi));
   }
 }
 
