@@ -9,7 +9,7 @@ import type { ModelSource } from './model-source.js';
 import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { PairedSample } from './paired-trials.js';
-import type { AnalysisResult, OutputResult } from './result.js';
+import type { AnalysisResult, AnalysisResultWithoutShares, OutputResult, OutputResultWithoutShares } from './result.js';
 import { rss } from './rss.js';
 import { outputBudget } from './variance-budget.js';
 import { varianceIndicesSteps, type VarianceIndicesResult } from './variance-indices.js';
@@ -33,7 +33,22 @@ function isModel(input: SupplySpec | Model): input is Model {
  * Analyses a supply (SupplySpec: Monte Carlo spreads over worker threads) or any Model (Monte Carlo on this
  * thread, since a Model's functions cannot cross to a worker).
  */
-export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Promise<AnalysisResult> {
+export function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Promise<AnalysisResult> {
+  return analyzeWith(input, options, true);
+}
+
+/**
+ * The same analysis without the variance-based shares (no contributions, no variance budget; the variance indices'
+ * N·(k + 2) model evaluations are not made): for a study that never shows them. Every other figure is analyze's,
+ * to the bit (the indices draw from a stream of their own, so leaving them out changes no other number).
+ */
+export function analyzeWithoutShares(input: SupplySpec | Model, options: Omit<AnalyzeOptions, 'varianceSample' | 'timeStage'>): Promise<AnalysisResultWithoutShares> {
+  return analyzeWith(input, options, false);
+}
+
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: true): Promise<AnalysisResult>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: false): Promise<AnalysisResultWithoutShares>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: boolean): Promise<AnalysisResult | AnalysisResultWithoutShares> {
   const model = isModel(input) ? input : buildSupplyModel(input);
   const source: ModelSource | undefined = isModel(input) ? undefined : { kind: 'supply', spec: input };
   // The Monte Carlo worker threads start up while this thread does the worst case and RSS.
@@ -44,7 +59,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const propagated = rss(model);
   // On this thread, while the workers start: its own sample, seeded from the run's seed, so independent of workers.
   const indicesRun = (): Promise<VarianceIndicesResult> => runVarianceIndices(model, String(options.seed), options.varianceSample);
-  const indices = await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun());
+  const indices = shares ? await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun()) : null;
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
   const { maxEnumerationVariables: _ignored, varianceSample: _sample, timeStage: _timer, ...mcOptions } = options;
@@ -52,14 +67,16 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
 
   const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
   const budgetOf = (o: number) => {
+    if (indices === null) return {};
     const { contributions, budget } = outputBudget(propagated[o]!, indices.outputs[o]!, indices.method, mc.outputs[o]!.sigma);
     return { contributions, varianceBudget: budget };
   };
-  const outputs: Record<string, OutputResult> = {};
+  // Every output has its shares when `shares` (and none otherwise): the type follows the flag.
+  const outputs: Record<string, OutputResult | OutputResultWithoutShares> = {};
   model.outputs.forEach((output, o) => {
     const m = mc.outputs[o]!;
     const { name: _wcName, ...worstCaseResult } = worst[o]!;
-    const result: OutputResult = {
+    const result: OutputResultWithoutShares & Partial<OutputResult> = {
       name: output.name,
       unit: output.unit,
       nominal: nominal[output.name]!,
@@ -99,7 +116,11 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       ? 'Worst case: too many varying parts to enumerate; the vertex from the sensitivity signs, checked by single-part flips.'
       : `Worst case: every combination of band ends (${worst[0]?.evaluations ?? 0} vertices).`,
     'RSS: law of propagation of uncertainty, first order, sensitivities by central differences at the parts\' means (JCGM 100:2008 5.1.2); expanded uncertainty U = k·u(y) with k = 2 (JCGM 100:2008 6.2.1, 6.3.3).',
-    `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
+    ...(indices === null
+      ? []
+      : [
+          `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
+        ]),
     ...mc.notes,
     // Worst case bounds Monte Carlo, or a note says which part and why (src/analysis/worst-case-bound.ts).
     ...unboundedPartsNote(model.parts),
@@ -111,7 +132,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       'Caution: at some tolerance corners the current limit falls to zero or below: the offsets or the common-mode error exceed the threshold there. Raise the shunt voltage at the limit or tighten the parts that lead the contributions.',
     );
   }
-  const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
+  const result: AnalysisResult | AnalysisResultWithoutShares = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
   assertFinite(result, 'analysis');
   return result;
 }

@@ -38,6 +38,20 @@ export interface PairedSampleOptions {
   seed: string;
   trials: number;
   chunkSize?: number;
+  /**
+   * What checks the units in count: by default UnitChecker over evaluateOutputs (the JavaScript model); given, this
+   * one, which must give the same flags (the WebAssembly evaluator, src/analysis/kernel/wasm-evaluator.ts).
+   */
+  blockChecker?: BlockChecker;
+}
+
+/** Another implementation of the per-unit check for count: the flags UnitChecker.all gives, for blocks of units. */
+export interface BlockChecker {
+  /** The most units one call takes (at least PAIRED_BLOCK). */
+  readonly capacity: number;
+  /** all[0..n): 1 where unit j of the part columns p meets every window at every ambient of `model`'s grid (at its
+   *  drawn values without a grid). Valid until the next call. */
+  check(model: Model, p: readonly Float64Array[], n: number): Uint8Array;
 }
 
 export interface PairedCount {
@@ -77,10 +91,13 @@ export class PairedSample {
   private hard: number[] = [];
   private readonly isHard: Uint8Array;
   private scratchU: Float64Array[] | null = null;
+  private readonly blockChecker: BlockChecker | null;
 
   constructor(partCount: number, options: PairedSampleOptions) {
     const chunkSize = options.chunkSize ?? DEFAULT_CHUNK_SIZE;
     if (!Number.isInteger(options.trials) || options.trials < 1) throw new Error(`paired sample: ${options.trials} trials is not a whole number ≥ 1`);
+    this.blockChecker = options.blockChecker ?? null;
+    if (this.blockChecker && this.blockChecker.capacity < PAIRED_BLOCK) throw new Error(`paired sample: a block checker of ${this.blockChecker.capacity} units (needs ${PAIRED_BLOCK})`);
     this.trials = options.trials;
     this.seed = options.seed;
     this.partCount = partCount;
@@ -164,7 +181,6 @@ export class PairedSample {
     if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
     const maxFailures = limits.maxFailures ?? Infinity;
     const maxUnits = limits.maxUnits ?? Infinity;
-    const { checker, drawn } = this.checkerFor(model);
     const perUnit = model.ambient ? model.ambient.gridC.length : 1;
     let evaluations = 0;
     // 1. Units that failed before, most recent first, in small blocks, when they alone can show the variant fails.
@@ -176,7 +192,7 @@ export class PairedSample {
         const trials = recent.slice(start, start + HARD_BLOCK);
         this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK));
         const p = model.parts.map((part, i) => this.gather(i, part, trials, this.gatherScratch![i]!));
-        failed += this.checkBlock(checker, model, p, trials.length, drawn, 0, null);
+        failed += this.checkBlock(model, p, trials.length, 0, null);
         seen += trials.length;
         evaluations += trials.length * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
@@ -196,7 +212,7 @@ export class PairedSample {
         if (checked >= maxUnits) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
         const n = Math.min(PAIRED_BLOCK, chunk.n - start);
         const p = columns.map((c) => c.subarray(start, start + n));
-        failures += this.checkBlock(checker, model, p, n, drawn, chunk.offset + start, this.hard);
+        failures += this.checkBlock(model, p, n, chunk.offset + start, this.hard);
         checked += n;
         evaluations += n * perUnit;
         if (failures > maxFailures) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
@@ -206,10 +222,8 @@ export class PairedSample {
   }
 
   /** Checks n units; returns how many failed, and (with `remember`) notes their trial indices as hard. */
-  private checkBlock(checker: UnitChecker, model: Model, p: Float64Array[], n: number, drawn: Float64Array[], offset: number, remember: number[] | null): number {
-    if (!model.ambient) evaluateOutputs(model, p, drawn, n);
-    checker.check(p, n, drawn);
-    const all = checker.all;
+  private checkBlock(model: Model, p: Float64Array[], n: number, offset: number, remember: number[] | null): number {
+    const all = this.flagsOf(model, p, n);
     let failed = 0;
     for (let j = 0; j < n; j++) {
       if (all[j] === 1) continue;
@@ -217,6 +231,15 @@ export class PairedSample {
       if (remember !== null) this.noteHard(offset + j);
     }
     return failed;
+  }
+
+  /** all[0..n) of the block: the block checker's, or UnitChecker's over the JavaScript model. */
+  private flagsOf(model: Model, p: Float64Array[], n: number): Uint8Array {
+    if (this.blockChecker) return this.blockChecker.check(model, p, n);
+    const { checker, drawn } = this.checkerFor(model);
+    if (!model.ambient) evaluateOutputs(model, p, drawn, n);
+    checker.check(p, n, drawn);
+    return checker.all;
   }
 
   private noteHard(trial: number): void {

@@ -188,6 +188,13 @@ export interface OutputResult extends MonteCarloOutput {
   varianceBudget: VarianceBudget;
 }
 
+/** An output's result without the variance-based shares (contributions and variance budget): what a study that
+ *  never shows them asks analyze for (analyzeWithoutShares; the grade study's side-by-side rows). */
+export type OutputResultWithoutShares = Omit<OutputResult, 'contributions' | 'varianceBudget'>;
+
+/** AnalysisResult whose outputs leave the variance-based shares out (analyzeWithoutShares). */
+export type AnalysisResultWithoutShares = Omit<AnalysisResult, 'outputs'> & { outputs: Record<string, OutputResultWithoutShares> };
+
 export interface AnalysisResult {
   seed: string;
   trials: number;
