@@ -33,6 +33,8 @@ export const PAIRED_BLOCK = 4096;
 /** At most this many earlier failures are kept to be checked first, HARD_BLOCK at a time (our choice). */
 const HARD_UNITS = 2048;
 const HARD_BLOCK = 64;
+/** The hard units' gathered columns kept up to this many bytes (our choice: every grade of 26 parts is about 3 MB). */
+const HARD_CACHE_BYTES = 32 * 2 ** 20;
 
 export interface PairedSampleOptions {
   seed: string;
@@ -74,6 +76,15 @@ interface SampleChunk {
   u: Float64Array[] | null;
 }
 
+interface HardSnapshot {
+  version: number;
+  /** The hard units, most recent first. */
+  recent: number[];
+  /** columns[i].get(part): part i's values at those units, in that order. */
+  columns: Array<Map<Part, Float64Array>>;
+  bytes: number;
+}
+
 /** One drawn sample of `trials` units of a model with `partCount` parts; see the header. */
 export class PairedSample {
   readonly trials: number;
@@ -89,6 +100,9 @@ export class PairedSample {
   private gatherScratch: Float64Array[] | null = null;
   /** Trial indices that failed in some variant, checked first (at most HARD_UNITS, most recent kept). */
   private hard: number[] = [];
+  /** Changes whenever `hard` does; the snapshot of the hard units and their gathered columns for one version. */
+  private hardVersion = 0;
+  private hardCache: HardSnapshot | null = null;
   private readonly isHard: Uint8Array;
   private scratchU: Float64Array[] | null = null;
   private readonly blockChecker: BlockChecker | null;
@@ -185,16 +199,21 @@ export class PairedSample {
     let evaluations = 0;
     // 1. Units that failed before, most recent first, in small blocks, when they alone can show the variant fails.
     if (Number.isFinite(maxFailures) && this.hard.length > maxFailures) {
-      const recent = this.hard.slice().reverse();
+      const snapshot = this.hardSnapshot();
+      const recent = snapshot.recent;
+      const p = (this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK)));
       let failed = 0;
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
-        const trials = recent.slice(start, start + HARD_BLOCK);
-        this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK));
-        const p = model.parts.map((part, i) => this.gather(i, part, trials, this.gatherScratch![i]!));
-        failed += this.checkBlock(model, p, trials.length, 0, null);
-        seen += trials.length;
-        evaluations += trials.length * perUnit;
+        const size = Math.min(HARD_BLOCK, recent.length - start);
+        for (let i = 0; i < this.partCount; i++) {
+          const values = this.hardColumn(snapshot, i, model.parts[i]!);
+          const block = p[i]!;
+          for (let j = 0; j < size; j++) block[j] = values[start + j]!;
+        }
+        failed += this.checkBlock(model, p, size, 0, null);
+        seen += size;
+        evaluations += size * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
         // Stop looking here once the rest of the hard units cannot reach the limit, or, at the rate they have failed
         // so far, would not (a guess that only saves time: the count below decides).
@@ -242,8 +261,35 @@ export class PairedSample {
     return checker.all;
   }
 
+  /** The hard units, most recent first, and their gathered part columns, kept while the list does not change
+   *  (a search's counts mostly see the same list: the gathers, random reads across the sample, are done once). */
+  private hardSnapshot(): HardSnapshot {
+    if (this.hardCache === null || this.hardCache.version !== this.hardVersion) {
+      this.hardCache = { version: this.hardVersion, recent: this.hard.slice().reverse(), columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
+    }
+    return this.hardCache;
+  }
+
+  /** Part i's values (in `part`'s band) at the snapshot's units, in its order. */
+  private hardColumn(snapshot: HardSnapshot, i: number, part: Part): Float64Array {
+    const byPart = snapshot.columns[i]!;
+    let values = byPart.get(part);
+    if (values === undefined) {
+      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length));
+      // Bounded like the column cache (variants built in full bring new Part objects with every model).
+      if (snapshot.bytes + values.byteLength > HARD_CACHE_BYTES) {
+        for (const m of snapshot.columns) m.clear();
+        snapshot.bytes = 0;
+      }
+      byPart.set(part, values);
+      snapshot.bytes += values.byteLength;
+    }
+    return values;
+  }
+
   private noteHard(trial: number): void {
     if (this.isHard[trial] === 1) return;
+    this.hardVersion += 1;
     if (this.hard.length >= HARD_UNITS) this.isHard[this.hard.shift()!] = 0;
     this.hard.push(trial);
     this.isHard[trial] = 1;

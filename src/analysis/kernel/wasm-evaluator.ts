@@ -126,21 +126,17 @@ export class WasmUnitEvaluator {
     this.load(model, p, n);
     const kernel = this.k;
     const rowBytes = this.capacity;
-    new Uint8Array(kernel.memory.buffer, this.passRows, rowBytes * this.checked.length).fill(1);
-    const mark = (): void => this.checked.forEach((c, i) => kernel.markInside(this.outs + c.index * this.stride, n, c.lo, c.hi, this.passRows + i * rowBytes));
-    if (this.gridC === null) {
-      this.evaluateInto(n, 0);
-      mark();
-    } else {
-      this.gridC.forEach((t, g) => {
-        new Float64Array(kernel.memory.buffer, this.par + 8 * P_FIXED_T, 1)[0] = t;
-        const buffer = this.evaluateInto(n, 1);
-        mark();
-        if (onAmbient) onAmbient(g, Array.from({ length: this.outputCount }, (_, o) => new Float64Array(buffer, this.outs + o * this.stride, n)));
-      });
+    const checked = this.checked;
+    this.bytes().fill(1, this.passRows, this.passRows + rowBytes * checked.length);
+    const grid = this.gridC;
+    for (let g = 0; g < (grid === null ? 1 : grid.length); g++) {
+      if (grid !== null) this.heap()[this.par / 8 + P_FIXED_T] = grid[g]!;
+      const buffer = this.evaluateInto(n, grid === null ? 0 : 1);
+      for (let i = 0; i < checked.length; i++) kernel.markInside(this.outs + checked[i]!.index * this.stride, n, checked[i]!.lo, checked[i]!.hi, this.passRows + i * rowBytes);
+      if (grid !== null && onAmbient) onAmbient(g, Array.from({ length: this.outputCount }, (_, o) => new Float64Array(buffer, this.outs + o * this.stride, n)));
     }
-    kernel.markAll(this.passRows, this.checked.length, rowBytes, n, this.all);
-    return new Uint8Array(kernel.memory.buffer, this.all, n);
+    kernel.markAll(this.passRows, checked.length, rowBytes, n, this.all);
+    return this.bytes().subarray(this.all, this.all + n);
   }
 
   /** pass[c][0..n) of the last check: 1 where the unit met checked output c at every ambient (a view, as check's). */
@@ -181,6 +177,15 @@ export class WasmUnitEvaluator {
   }
 
   private f64: Float64Array | null = null;
+
+  /** The kernel's memory as bytes (as heap). */
+  private bytes(): Uint8Array {
+    const buffer = this.k.memory.buffer;
+    if (this.u8 === null || this.u8.buffer !== buffer) this.u8 = new Uint8Array(buffer);
+    return this.u8;
+  }
+
+  private u8: Uint8Array | null = null;
 
   /** Throws unless `model` has the evaluator's parts (by name, in order), output windows and ambient grid. */
   private assertVariant(model: Model): void {
