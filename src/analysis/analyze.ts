@@ -9,7 +9,7 @@ import type { ModelSource } from './model-source.js';
 import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { PairedSample } from './paired-trials.js';
-import type { AnalysisResult, AnalysisResultWithoutShares, OutputResult, OutputResultWithoutShares } from './result.js';
+import type { AnalysisResult, AnalysisSummary, OutputResult, OutputSummary } from './result.js';
 import { rss } from './rss.js';
 import { outputBudget } from './variance-budget.js';
 import { varianceIndicesSteps, type VarianceIndicesResult } from './variance-indices.js';
@@ -38,17 +38,20 @@ export function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Pro
 }
 
 /**
- * The same analysis without the variance-based shares (no contributions, no variance budget; the variance indices'
- * N·(k + 2) model evaluations are not made): for a study that never shows them. Every other figure is analyze's,
- * to the bit (the indices draw from a stream of their own, so leaving them out changes no other number).
+ * The same analysis for a side-by-side comparison that shows less (AnalysisSummary): no variance-based shares (the
+ * variance indices' N·(k + 2) model evaluations are not made), no shortest coverage intervals (the exact quantiles
+ * sort only the bins of the ranks still reported), no per-ambient sweep (its worst case at each grid ambient is not
+ * enumerated). Every figure it does give is analyze's, to the bit: the indices draw from a stream of their own, an
+ * order statistic does not depend on which other ranks are gathered, and the sweep feeds no other figure (Cpk comes
+ * from the Monte Carlo's own per-ambient moments).
  */
-export function analyzeWithoutShares(input: SupplySpec | Model, options: Omit<AnalyzeOptions, 'varianceSample' | 'timeStage'>): Promise<AnalysisResultWithoutShares> {
+export function analyzeSummary(input: SupplySpec | Model, options: Omit<AnalyzeOptions, 'varianceSample' | 'timeStage'>): Promise<AnalysisSummary> {
   return analyzeWith(input, options, false);
 }
 
-async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: true): Promise<AnalysisResult>;
-async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: false): Promise<AnalysisResultWithoutShares>;
-async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, shares: boolean): Promise<AnalysisResult | AnalysisResultWithoutShares> {
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: true): Promise<AnalysisResult>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: false): Promise<AnalysisSummary>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: boolean): Promise<AnalysisResult | AnalysisSummary> {
   const model = isModel(input) ? input : buildSupplyModel(input);
   const source: ModelSource | undefined = isModel(input) ? undefined : { kind: 'supply', spec: input };
   // The Monte Carlo worker threads start up while this thread does the worst case and RSS.
@@ -59,24 +62,25 @@ async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, s
   const propagated = rss(model);
   // On this thread, while the workers start: its own sample, seeded from the run's seed, so independent of workers.
   const indicesRun = (): Promise<VarianceIndicesResult> => runVarianceIndices(model, String(options.seed), options.varianceSample);
-  const indices = shares ? await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun()) : null;
+  const indices = full ? await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun()) : null;
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
   const { maxEnumerationVariables: _ignored, varianceSample: _sample, timeStage: _timer, ...mcOptions } = options;
-  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}) });
+  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}), ...(full ? {} : { shortestIntervals: false }) });
 
-  const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
+  const atAmbient = full ? (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions)) : [];
   const budgetOf = (o: number) => {
     if (indices === null) return {};
     const { contributions, budget } = outputBudget(propagated[o]!, indices.outputs[o]!, indices.method, mc.outputs[o]!.sigma);
     return { contributions, varianceBudget: budget };
   };
-  // Every output has its shares when `shares` (and none otherwise): the type follows the flag.
-  const outputs: Record<string, OutputResult | OutputResultWithoutShares> = {};
+  // A full analysis gives every output all of OutputResult, a summary none of what OutputSummary leaves out.
+  const outputs: Record<string, OutputResult | OutputSummary> = {};
   model.outputs.forEach((output, o) => {
     const m = mc.outputs[o]!;
     const { name: _wcName, ...worstCaseResult } = worst[o]!;
-    const result: OutputResultWithoutShares & Partial<OutputResult> = {
+    if (full && (m.shortest95 === undefined || m.shortest9973 === undefined)) throw new Error(`analysis: the Monte Carlo gave no shortest intervals for ${output.name}`);
+    const result: OutputSummary & Partial<OutputResult> = {
       name: output.name,
       unit: output.unit,
       nominal: nominal[output.name]!,
@@ -87,8 +91,7 @@ async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, s
       percentiles: m.percentiles,
       interval95: m.interval95,
       interval9973: m.interval9973,
-      shortest95: m.shortest95,
-      shortest9973: m.shortest9973,
+      ...(full ? { shortest95: m.shortest95!, shortest9973: m.shortest9973! } : {}),
       quantileMethod: m.quantileMethod,
       quantileBound: m.quantileBound,
       worstCase: worstCaseResult,
@@ -99,7 +102,7 @@ async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, s
     if (m.spec) result.spec = m.spec;
     if (m.yield) result.yield = m.yield;
     if (m.yieldAtRandomAmbient) result.yieldAtRandomAmbient = m.yieldAtRandomAmbient;
-    if (m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
+    if (full && m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
     if (m.capabilityAmbientC !== undefined) result.capabilityAmbientC = m.capabilityAmbientC;
     if (m.capabilitySides) result.capabilitySides = m.capabilitySides;
     if (m.numericalTolerance !== undefined) result.numericalTolerance = m.numericalTolerance;
@@ -132,7 +135,7 @@ async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, s
       'Caution: at some tolerance corners the current limit falls to zero or below: the offsets or the common-mode error exceed the threshold there. Raise the shunt voltage at the limit or tighten the parts that lead the contributions.',
     );
   }
-  const result: AnalysisResult | AnalysisResultWithoutShares = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
+  const result: AnalysisResult | AnalysisSummary = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
   assertFinite(result, 'analysis');
   return result;
 }

@@ -17,7 +17,7 @@ import { checkedOutputs } from './unit-check.js';
 
 export type { MonteCarloOutput } from './result.js';
 import { oneSidedCapability, processCapability } from './statistics/capability.js';
-import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
+import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf, symmetricStartRank } from './statistics/coverage.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
 import {
   coarseHistogram,
@@ -71,6 +71,13 @@ export interface MonteCarloOptions {
    * and the JavaScript reference otherwise, or either one by name. Both give the same numbers; the notes say which ran.
    */
   kernel?: KernelChoice;
+  /**
+   * Compute the shortest coverage intervals (default true). Off (for a caller that never shows them), the exact
+   * quantiles gather and sort only the bins of the ranks still asked for (the percentiles and the symmetric
+   * intervals' ends) rather than the two tails the shortest intervals search; every other figure is the same, since
+   * an order statistic is the same value whichever other ranks are gathered with it.
+   */
+  shortestIntervals?: boolean;
 }
 
 export interface MonteCarloResult {
@@ -286,7 +293,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
         : `Adaptive run (JCGM 101:2008 7.9): NOT stable to ${digits} significant digits within the cap of ${maxTrials} trials; the figures are those of ${trialsDone} trials.`,
     );
   }
-  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! }))));
+  const shortest = options.shortestIntervals ?? true;
+  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! })), shortest));
   const exact = results.every((r) => r.quantileMethod === 'exact');
   notes.push(
     exact
@@ -465,6 +473,7 @@ function finishOutput(
   range: { lo: number; hi: number },
   bins: number,
   grid: Array<{ ambientC: number; accumulator: Accumulator }> | null,
+  shortest: boolean,
 ): MonteCarloOutput {
   if (a.nonFinite > 0) {
     throw new ImpossibleError(
@@ -480,8 +489,8 @@ function finishOutput(
   let percentiles: Percentile[];
   let interval95: Interval;
   let interval9973: Interval;
-  let shortest95: Interval;
-  let shortest9973: Interval;
+  let shortest95: Interval | undefined;
+  let shortest9973: Interval | undefined;
   let quantileMethod: 'exact' | 'histogram';
   let quantileBound: number;
   if (a.samples && a.sampleCount === n) {
@@ -490,21 +499,32 @@ function finishOutput(
     const q9973 = coverageCount(0.9973, n);
     const tail = Math.max(1, n - Math.min(q95, q9973));
     const percentileRanks = REPORTED_PERCENTILES.map((pct) => nearestRank(pct, n));
-    const order = new OrderStatistics(a.samples, fine, [[1, tail], [n - tail + 1, n], ...percentileRanks.map((r) => [r, r] as [number, number])]);
+    // The symmetric intervals' ends (symmetricIntervalOf's ranks): inside the tails, and all that is needed of them
+    // without the shortest intervals.
+    const symmetricEnds = [0.95, 0.9973].flatMap((p) => {
+      const r = symmetricStartRank(p, n);
+      return [r, Math.min(n, r + coverageCount(p, n))];
+    });
+    const ranks = [...percentileRanks, ...(shortest ? [] : symmetricEnds)].map((r) => [r, r] as [number, number]);
+    const order = new OrderStatistics(a.samples, fine, shortest ? [[1, tail], [n - tail + 1, n], ...ranks] : ranks);
     a.samples = null;
     percentiles = REPORTED_PERCENTILES.map((pct, i) => ({ pct, value: order.at(percentileRanks[i]!) }));
     interval95 = symmetricIntervalOf((r) => order.at(r), n, 0.95);
     interval9973 = symmetricIntervalOf((r) => order.at(r), n, 0.9973);
-    shortest95 = shortestIntervalOf((r) => order.at(r), n, 0.95);
-    shortest9973 = shortestIntervalOf((r) => order.at(r), n, 0.9973);
+    if (shortest) {
+      shortest95 = shortestIntervalOf((r) => order.at(r), n, 0.95);
+      shortest9973 = shortestIntervalOf((r) => order.at(r), n, 0.9973);
+    }
     quantileMethod = 'exact';
     quantileBound = 0;
   } else {
     percentiles = REPORTED_PERCENTILES.map((pct) => ({ pct, value: histogramPercentile(fine, pct) }));
     interval95 = histogramSymmetricInterval(fine, 0.95);
     interval9973 = histogramSymmetricInterval(fine, 0.9973);
-    shortest95 = histogramShortestInterval(fine, 0.95);
-    shortest9973 = histogramShortestInterval(fine, 0.9973);
+    if (shortest) {
+      shortest95 = histogramShortestInterval(fine, 0.95);
+      shortest9973 = histogramShortestInterval(fine, 0.9973);
+    }
     quantileMethod = 'histogram';
     quantileBound = histogramQuantileBound(fine);
   }
@@ -518,8 +538,7 @@ function finishOutput(
     percentiles,
     interval95,
     interval9973,
-    shortest95,
-    shortest9973,
+    ...(shortest95 && shortest9973 ? { shortest95, shortest9973 } : {}),
     quantileMethod,
     quantileBound,
     histogram: coarseHistogram(fine),

@@ -5,13 +5,13 @@
 // src/report renders it.
 import { gradableResistors, type GradableResistor } from '../analysis/graded-spec.js';
 import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
-import type { AnalysisResultWithoutShares } from '../analysis/result.js';
+import type { AnalysisSummary } from '../analysis/result.js';
 import { jointYieldAsync } from '../analysis/joint-yield-async.js';
 import { PAIRED_BLOCK, PairedSample, type BlockChecker } from '../analysis/paired-trials.js';
 import { variantEvaluator } from '../analysis/kernel/wasm-evaluator.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
-import { analyzeWithoutSharesAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { analyzeSummaryAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { DEFAULT_GRADE_NAMES, GRADES, gradeSoldAt, type Grade, type GradeName } from './grades.js';
 import { gradedModels, specWithGrades, type GradedModels } from './graded-models.js';
 import type { ResolvedDesign } from './resolve.js';
@@ -74,8 +74,9 @@ export interface GradeRow {
    * comparison, but the search never gives them this grade. */
   notSold: string[];
   cost: number;
-  /** The row's engine run; without the variance-based shares, which no grade report shows. */
-  result: AnalysisResultWithoutShares;
+  /** The row's engine run, as a summary (no variance-based shares, shortest intervals or per-ambient sweep, which
+   *  no grade report shows: the type lets a report read only what the row has). */
+  result: AnalysisSummary;
   joint: JointYield;
 }
 
@@ -174,7 +175,7 @@ function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: bool
 
 /** A row's all-specs yield: the engine's own count over the row's trials (the same units, the same test in
  *  unit-check.ts, the same formulas as jointCounter), so it is not counted a second time. */
-function jointFromResult(result: AnalysisResultWithoutShares): JointYield | null {
+function jointFromResult(result: AnalysisSummary): JointYield | null {
   const all = result.allSpecs;
   if (all === null) return null;
   const inSpec = Math.round((all.pct * result.trials) / 100);
@@ -204,12 +205,12 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     return o.offered;
   });
 
-  // Side by side: every resistor in one grade. No grade report shows a row's variance-based shares (contributions,
-  // variance budget), so the rows leave them out.
+  // Side by side: every resistor in one grade. No grade report shows a row's variance-based shares, shortest
+  // intervals or per-ambient sweep, so the rows are summaries that leave them out (analyzeSummary).
   const rows: GradeRow[] = [];
   for (const grade of allowed) {
     const graded = specWithGrades(spec, parts, parts.map(() => grade));
-    const result = await analyzeWithoutSharesAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
+    const result = await analyzeSummaryAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
     const notSold = parts.filter((_, i) => !offeredPerPart[i]!.includes(grade)).map((p) => p.name);
     const joint = jointFromResult(result) ?? (await jointOf(graded, result.seed, result.trials, choice.trials === 'auto'));
     rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint });
