@@ -66,7 +66,7 @@ async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, f
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
   const { maxEnumerationVariables: _ignored, varianceSample: _sample, timeStage: _timer, ...mcOptions } = options;
-  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}), ...(full ? {} : { shortestIntervals: false }) });
+  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}), ...(full ? {} : { summary: true }) });
 
   const atAmbient = full ? (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions)) : [];
   const budgetOf = (o: number) => {

@@ -72,12 +72,14 @@ export interface MonteCarloOptions {
    */
   kernel?: KernelChoice;
   /**
-   * Compute the shortest coverage intervals (default true). Off (for a caller that never shows them), the exact
-   * quantiles gather and sort only the bins of the ranks still asked for (the percentiles and the symmetric
-   * intervals' ends) rather than the two tails the shortest intervals search; every other figure is the same, since
-   * an order statistic is the same value whichever other ranks are gathered with it.
+   * A summary for a caller that never shows the shortest coverage intervals or the per-ambient sweep (default false):
+   * outputs without shortest95, shortest9973 and ambientSweep. The exact quantiles then gather and sort only the bins
+   * of the ranks still reported (percentiles and the symmetric intervals' ends) rather than the two tails the shortest
+   * intervals search, and the per-ambient histograms (which feed only the sweep's bands) are not merged. Every figure
+   * a summary gives is the full run's: an order statistic is the same value whichever other ranks are gathered with
+   * it, and Cp/Cpk come from the per-ambient moments, which are merged as before.
    */
-  shortestIntervals?: boolean;
+  summary?: boolean;
 }
 
 export interface MonteCarloResult {
@@ -112,8 +114,9 @@ class Accumulator {
   counts: Float64Array;
   samples: Float64Array[] | null;
   sampleCount = 0;
-  constructor(bins: number, keep: boolean) {
-    this.counts = new Float64Array(bins + 2);
+  /** Without `histogram`, no counts are kept (add then merges none). */
+  constructor(bins: number, keep: boolean, histogram = true) {
+    this.counts = new Float64Array(histogram ? bins + 2 : 0);
     this.samples = keep ? [] : null;
   }
   add(c: OutputChunk): void {
@@ -241,7 +244,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   };
   const gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
   const accumulators = outputs.map(() => new Accumulator(bins, keepSamples));
-  const ambientAccumulators = (gridC ?? []).map(() => outputs.map(() => new Accumulator(bins, false)));
+  const summaryOnly = options.summary ?? false;
+  const ambientAccumulators = (gridC ?? []).map(() => outputs.map(() => new Accumulator(bins, false, !summaryOnly)));
   let allInSpec = 0;
   const adaptiveTrack: AdaptiveState[] | null = adaptive ? outputs.map(() => adaptiveState()) : null;
   const digits = options.significantDigits ?? 2;
@@ -293,8 +297,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
         : `Adaptive run (JCGM 101:2008 7.9): NOT stable to ${digits} significant digits within the cap of ${maxTrials} trials; the figures are those of ${trialsDone} trials.`,
     );
   }
-  const shortest = options.shortestIntervals ?? true;
-  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! })), shortest));
+  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! })), summaryOnly));
   const exact = results.every((r) => r.quantileMethod === 'exact');
   notes.push(
     exact
@@ -443,18 +446,23 @@ function capabilityOf(spec: [number, number], sides: 'both' | 'low' | 'high', me
   return cpk === null ? null : { cpk };
 }
 
+/** An ambient point without the band read from its histogram (a summary's, which merges no per-ambient histogram). */
+type AmbientMoments = Omit<AmbientPoint, 'band9973' | 'bandBound'>;
+
 function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi: number }, bins: number, spec: [number, number] | undefined, sides: 'both' | 'low' | 'high'): AmbientPoint {
   const fine: FineHistogram = { lo: range.lo, hi: range.hi, bins, counts: a.counts, min: a.min, max: a.max };
+  return { ...ambientMoments(ambientC, a, spec, sides), band9973: { low: histogramPercentile(fine, 0.135), high: histogramPercentile(fine, 99.865) }, bandBound: histogramQuantileBound(fine) };
+}
+
+function ambientMoments(ambientC: number, a: Accumulator, spec: [number, number] | undefined, sides: 'both' | 'low' | 'high'): AmbientMoments {
   const mean = a.moments.mean;
   const sigma = momentsSigma(a.moments);
-  const point: AmbientPoint = {
+  const point: AmbientMoments = {
     ambientC,
     mean,
     sigma,
     min: a.min,
     max: a.max,
-    band9973: { low: histogramPercentile(fine, 0.135), high: histogramPercentile(fine, 99.865) },
-    bandBound: histogramQuantileBound(fine),
   };
   if (spec) {
     point.yield = yieldOf(a.inSpec, a.moments.n);
@@ -473,8 +481,9 @@ function finishOutput(
   range: { lo: number; hi: number },
   bins: number,
   grid: Array<{ ambientC: number; accumulator: Accumulator }> | null,
-  shortest: boolean,
+  summaryOnly: boolean,
 ): MonteCarloOutput {
+  const shortest = !summaryOnly;
   if (a.nonFinite > 0) {
     throw new ImpossibleError(
       `output ${output.name}`,
@@ -544,7 +553,9 @@ function finishOutput(
     histogram: coarseHistogram(fine),
   };
   const sides = output.specSides ?? 'both';
-  if (grid) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec, sides));
+  if (grid && !summaryOnly) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec, sides));
+  // The points Cp and Cpk are read from: the sweep's, or (a summary) the same points without their bands.
+  const points: AmbientMoments[] | null = grid ? (result.ambientSweep ?? grid.map((g) => ambientMoments(g.ambientC, g.accumulator, output.spec, sides))) : null;
   if (output.spec) {
     const [lsl, usl] = output.spec;
     result.spec = [lsl, usl];
@@ -553,10 +564,10 @@ function finishOutput(
     result.histogram.aboveSpec = n - a.inSpec - a.belowSpec;
     result.yieldAtRandomAmbient = yieldOf(a.inSpec, n);
     result.ppmOut = (1e6 * (n - a.unitInSpec)) / n;
-    if (result.ambientSweep) {
+    if (points) {
       // Cp and Cpk of the units at the grid ambient where Cpk is lowest.
-      let worst: AmbientPoint | null = null;
-      for (const point of result.ambientSweep) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
+      let worst: AmbientMoments | null = null;
+      for (const point of points) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
       if (worst) {
         if (worst.cp !== undefined) result.cp = worst.cp;
         result.cpk = worst.cpk!;

@@ -206,11 +206,7 @@ export class PairedSample {
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
         const size = Math.min(HARD_BLOCK, recent.length - start);
-        for (let i = 0; i < this.partCount; i++) {
-          const values = this.hardColumn(snapshot, i, model.parts[i]!);
-          const block = p[i]!;
-          for (let j = 0; j < size; j++) block[j] = values[start + j]!;
-        }
+        for (let i = 0; i < this.partCount; i++) copyRange(this.hardColumn(snapshot, i, model.parts[i]!), start, p[i]!, size);
         failed += this.checkBlock(model, p, size, 0, null);
         seen += size;
         evaluations += size * perUnit;
@@ -337,6 +333,11 @@ function drawUnits(partCount: number, seed: string, k: number, n: number): Float
     u.push(column);
   }
   return u;
+}
+
+/** to[j] = from[start + j] for j < n. */
+function copyRange(from: Float64Array, start: number, to: Float64Array, n: number): void {
+  for (let j = 0; j < n; j++) to[j] = from[start + j]!;
 }
 
 /** values[j] = lo + width·u[j]: the operations of fillXor128Affine (and uniformFromUnit) on each draw. */
