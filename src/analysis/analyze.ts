@@ -9,7 +9,7 @@ import type { ModelSource } from './model-source.js';
 import { buildSupplyModel, type SupplySpec } from './models/supply.js';
 import { monteCarlo, startMonteCarloWorkers, widenRange, type MonteCarloOptions } from './monte-carlo.js';
 import type { PairedSample } from './paired-trials.js';
-import type { AnalysisResult, OutputResult } from './result.js';
+import type { AnalysisResult, AnalysisSummary, OutputResult, OutputSummary } from './result.js';
 import { rss } from './rss.js';
 import { outputBudget } from './variance-budget.js';
 import { varianceIndicesSteps, type VarianceIndicesResult } from './variance-indices.js';
@@ -33,7 +33,25 @@ function isModel(input: SupplySpec | Model): input is Model {
  * Analyses a supply (SupplySpec: Monte Carlo spreads over worker threads) or any Model (Monte Carlo on this
  * thread, since a Model's functions cannot cross to a worker).
  */
-export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Promise<AnalysisResult> {
+export function analyze(input: SupplySpec | Model, options: AnalyzeOptions): Promise<AnalysisResult> {
+  return analyzeWith(input, options, true);
+}
+
+/**
+ * The same analysis for a side-by-side comparison that shows less (AnalysisSummary): no variance-based shares (the
+ * variance indices' N·(k + 2) model evaluations are not made), no shortest coverage intervals (the exact quantiles
+ * sort only the bins of the ranks still reported), no per-ambient sweep (its worst case at each grid ambient is not
+ * enumerated). Every figure it does give is analyze's, to the bit: the indices draw from a stream of their own, an
+ * order statistic does not depend on which other ranks are gathered, and the sweep feeds no other figure (Cpk comes
+ * from the Monte Carlo's own per-ambient moments).
+ */
+export function analyzeSummary(input: SupplySpec | Model, options: Omit<AnalyzeOptions, 'varianceSample' | 'timeStage'>): Promise<AnalysisSummary> {
+  return analyzeWith(input, options, false);
+}
+
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: true): Promise<AnalysisResult>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: false): Promise<AnalysisSummary>;
+async function analyzeWith(input: SupplySpec | Model, options: AnalyzeOptions, full: boolean): Promise<AnalysisResult | AnalysisSummary> {
   const model = isModel(input) ? input : buildSupplyModel(input);
   const source: ModelSource | undefined = isModel(input) ? undefined : { kind: 'supply', spec: input };
   // The Monte Carlo worker threads start up while this thread does the worst case and RSS.
@@ -44,22 +62,25 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
   const propagated = rss(model);
   // On this thread, while the workers start: its own sample, seeded from the run's seed, so independent of workers.
   const indicesRun = (): Promise<VarianceIndicesResult> => runVarianceIndices(model, String(options.seed), options.varianceSample);
-  const indices = await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun());
+  const indices = full ? await (options.timeStage ? options.timeStage('variance indices', indicesRun) : indicesRun()) : null;
   const ranges: Record<string, { lo: number; hi: number }> = {};
   for (const w of worst) ranges[w.name] = widenRange(w.min, w.max);
   const { maxEnumerationVariables: _ignored, varianceSample: _sample, timeStage: _timer, ...mcOptions } = options;
-  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}) });
+  const mc = await monteCarlo(model, { ...mcOptions, ranges, ...(source ? { source } : {}), ...(full ? {} : { summary: true }) });
 
-  const atAmbient = (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions));
+  const atAmbient = full ? (mc.ambientGridC ?? []).map((t) => nominalAndWorstAt(model, t, wcOptions)) : [];
   const budgetOf = (o: number) => {
+    if (indices === null) return {};
     const { contributions, budget } = outputBudget(propagated[o]!, indices.outputs[o]!, indices.method, mc.outputs[o]!.sigma);
     return { contributions, varianceBudget: budget };
   };
-  const outputs: Record<string, OutputResult> = {};
+  // A full analysis gives every output all of OutputResult, a summary none of what OutputSummary leaves out.
+  const outputs: Record<string, OutputResult | OutputSummary> = {};
   model.outputs.forEach((output, o) => {
     const m = mc.outputs[o]!;
     const { name: _wcName, ...worstCaseResult } = worst[o]!;
-    const result: OutputResult = {
+    if (full && (m.shortest95 === undefined || m.shortest9973 === undefined)) throw new Error(`analysis: the Monte Carlo gave no shortest intervals for ${output.name}`);
+    const result: OutputSummary & Partial<OutputResult> = {
       name: output.name,
       unit: output.unit,
       nominal: nominal[output.name]!,
@@ -70,8 +91,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       percentiles: m.percentiles,
       interval95: m.interval95,
       interval9973: m.interval9973,
-      shortest95: m.shortest95,
-      shortest9973: m.shortest9973,
+      ...(full ? { shortest95: m.shortest95!, shortest9973: m.shortest9973! } : {}),
       quantileMethod: m.quantileMethod,
       quantileBound: m.quantileBound,
       worstCase: worstCaseResult,
@@ -82,7 +102,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
     if (m.spec) result.spec = m.spec;
     if (m.yield) result.yield = m.yield;
     if (m.yieldAtRandomAmbient) result.yieldAtRandomAmbient = m.yieldAtRandomAmbient;
-    if (m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
+    if (full && m.ambientSweep) result.ambientSweep = m.ambientSweep.map((point, g) => ({ ...point, ...atAmbient[g]![o]! }));
     if (m.capabilityAmbientC !== undefined) result.capabilityAmbientC = m.capabilityAmbientC;
     if (m.capabilitySides) result.capabilitySides = m.capabilitySides;
     if (m.numericalTolerance !== undefined) result.numericalTolerance = m.numericalTolerance;
@@ -99,7 +119,11 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       ? 'Worst case: too many varying parts to enumerate; the vertex from the sensitivity signs, checked by single-part flips.'
       : `Worst case: every combination of band ends (${worst[0]?.evaluations ?? 0} vertices).`,
     'RSS: law of propagation of uncertainty, first order, sensitivities by central differences at the parts\' means (JCGM 100:2008 5.1.2); expanded uncertainty U = k·u(y) with k = 2 (JCGM 100:2008 6.2.1, 6.3.3).',
-    `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
+    ...(indices === null
+      ? []
+      : [
+          `Shares of the variance: total-effect indices (Jansen 1999) and first-order indices (Saltelli et al. 2010) on a sample of their own, N = ${indices.method.baseSamples.toLocaleString('en-US')} units in each of two matrices, ${indices.method.evaluations.toLocaleString('en-US')} model evaluations, drawn from a stream of their own seeded "${indices.method.seed}:0"; each share with its standard error.`,
+        ]),
     ...mc.notes,
     // Worst case bounds Monte Carlo, or a note says which part and why (src/analysis/worst-case-bound.ts).
     ...unboundedPartsNote(model.parts),
@@ -111,7 +135,7 @@ export async function analyze(input: SupplySpec | Model, options: AnalyzeOptions
       'Caution: at some tolerance corners the current limit falls to zero or below: the offsets or the common-mode error exceed the threshold there. Raise the shunt voltage at the limit or tighten the parts that lead the contributions.',
     );
   }
-  const result: AnalysisResult = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
+  const result: AnalysisResult | AnalysisSummary = { seed: mc.seed, trials: mc.trials, workers: mc.workers, chunkSize: mc.chunkSize, notes, outputs, ambientGridC: mc.ambientGridC, allSpecs: mc.allSpecs };
   assertFinite(result, 'analysis');
   return result;
 }

@@ -17,7 +17,7 @@ import { checkedOutputs } from './unit-check.js';
 
 export type { MonteCarloOutput } from './result.js';
 import { oneSidedCapability, processCapability } from './statistics/capability.js';
-import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf } from './statistics/coverage.js';
+import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf, symmetricStartRank } from './statistics/coverage.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
 import {
   coarseHistogram,
@@ -71,6 +71,15 @@ export interface MonteCarloOptions {
    * and the JavaScript reference otherwise, or either one by name. Both give the same numbers; the notes say which ran.
    */
   kernel?: KernelChoice;
+  /**
+   * A summary for a caller that never shows the shortest coverage intervals or the per-ambient sweep (default false):
+   * outputs without shortest95, shortest9973 and ambientSweep. The exact quantiles then gather and sort only the bins
+   * of the ranks still reported (percentiles and the symmetric intervals' ends) rather than the two tails the shortest
+   * intervals search, and the per-ambient histograms (which feed only the sweep's bands) are not merged. Every figure
+   * a summary gives is the full run's: an order statistic is the same value whichever other ranks are gathered with
+   * it, and Cp/Cpk come from the per-ambient moments, which are merged as before.
+   */
+  summary?: boolean;
 }
 
 export interface MonteCarloResult {
@@ -105,15 +114,17 @@ class Accumulator {
   counts: Float64Array;
   samples: Float64Array[] | null;
   sampleCount = 0;
-  /** The histogram's range: `lo` and scale = bins / (hi − lo), as the chunk runners bin with them. */
+  /** The histogram's range: `lo` and scale = bins / (hi − lo), as the chunk runners bin with them. Without
+   *  `histogram`, no counts are kept (add then merges none). */
   private readonly lo: number;
   private readonly scale: number;
   constructor(
     private readonly bins: number,
     keep: boolean,
     range: { lo: number; hi: number },
+    histogram = true,
   ) {
-    this.counts = new Float64Array(bins + 2);
+    this.counts = new Float64Array(histogram ? bins + 2 : 0);
     this.samples = keep ? [] : null;
     this.lo = range.lo;
     this.scale = bins / (range.hi - range.lo);
@@ -137,7 +148,7 @@ class Accumulator {
     // infinity among the values (the run then fails anyway) every bin is added.
     const counts = this.counts;
     const source = c.counts;
-    const whole = c.nonFinite > 0 || c.n === 0;
+    const whole = c.nonFinite > 0 || c.n === 0 || counts.length === 0;
     const first = whole ? 0 : this.binOf(c.min);
     const last = whole ? counts.length - 1 : this.binOf(c.max);
     for (let b = first; b <= last; b++) counts[b]! += source[b]!;
@@ -256,7 +267,8 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   };
   const gridC = config.perUnit && model.ambient ? model.ambient.gridC.slice() : null;
   const accumulators = outputs.map((_, o) => new Accumulator(bins, keepSamples, ranges[o]!));
-  const ambientAccumulators = (gridC ?? []).map(() => outputs.map((_, o) => new Accumulator(bins, false, ranges[o]!)));
+  const summaryOnly = options.summary ?? false;
+  const ambientAccumulators = (gridC ?? []).map(() => outputs.map((_, o) => new Accumulator(bins, false, ranges[o]!, !summaryOnly)));
   let allInSpec = 0;
   const adaptiveTrack: AdaptiveState[] | null = adaptive ? outputs.map(() => adaptiveState()) : null;
   const digits = options.significantDigits ?? 2;
@@ -308,7 +320,7 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
         : `Adaptive run (JCGM 101:2008 7.9): NOT stable to ${digits} significant digits within the cap of ${maxTrials} trials; the figures are those of ${trialsDone} trials.`,
     );
   }
-  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! }))));
+  const results = outputs.map((o, i) => finishOutput(o, accumulators[i]!, ranges[i]!, bins, gridC === null ? null : gridC.map((t, g) => ({ ambientC: t, accumulator: ambientAccumulators[g]![i]! })), summaryOnly));
   const exact = results.every((r) => r.quantileMethod === 'exact');
   notes.push(
     exact
@@ -457,18 +469,23 @@ function capabilityOf(spec: [number, number], sides: 'both' | 'low' | 'high', me
   return cpk === null ? null : { cpk };
 }
 
+/** An ambient point without the band read from its histogram (a summary's, which merges no per-ambient histogram). */
+type AmbientMoments = Omit<AmbientPoint, 'band9973' | 'bandBound'>;
+
 function ambientPoint(ambientC: number, a: Accumulator, range: { lo: number; hi: number }, bins: number, spec: [number, number] | undefined, sides: 'both' | 'low' | 'high'): AmbientPoint {
   const fine: FineHistogram = { lo: range.lo, hi: range.hi, bins, counts: a.counts, min: a.min, max: a.max };
+  return { ...ambientMoments(ambientC, a, spec, sides), band9973: { low: histogramPercentile(fine, 0.135), high: histogramPercentile(fine, 99.865) }, bandBound: histogramQuantileBound(fine) };
+}
+
+function ambientMoments(ambientC: number, a: Accumulator, spec: [number, number] | undefined, sides: 'both' | 'low' | 'high'): AmbientMoments {
   const mean = a.moments.mean;
   const sigma = momentsSigma(a.moments);
-  const point: AmbientPoint = {
+  const point: AmbientMoments = {
     ambientC,
     mean,
     sigma,
     min: a.min,
     max: a.max,
-    band9973: { low: histogramPercentile(fine, 0.135), high: histogramPercentile(fine, 99.865) },
-    bandBound: histogramQuantileBound(fine),
   };
   if (spec) {
     point.yield = yieldOf(a.inSpec, a.moments.n);
@@ -487,7 +504,9 @@ function finishOutput(
   range: { lo: number; hi: number },
   bins: number,
   grid: Array<{ ambientC: number; accumulator: Accumulator }> | null,
+  summaryOnly: boolean,
 ): MonteCarloOutput {
+  const shortest = !summaryOnly;
   if (a.nonFinite > 0) {
     throw new ImpossibleError(
       `output ${output.name}`,
@@ -502,8 +521,8 @@ function finishOutput(
   let percentiles: Percentile[];
   let interval95: Interval;
   let interval9973: Interval;
-  let shortest95: Interval;
-  let shortest9973: Interval;
+  let shortest95: Interval | undefined;
+  let shortest9973: Interval | undefined;
   let quantileMethod: 'exact' | 'histogram';
   let quantileBound: number;
   if (a.samples && a.sampleCount === n) {
@@ -512,21 +531,32 @@ function finishOutput(
     const q9973 = coverageCount(0.9973, n);
     const tail = Math.max(1, n - Math.min(q95, q9973));
     const percentileRanks = REPORTED_PERCENTILES.map((pct) => nearestRank(pct, n));
-    const order = new OrderStatistics(a.samples, fine, [[1, tail], [n - tail + 1, n], ...percentileRanks.map((r) => [r, r] as [number, number])]);
+    // The symmetric intervals' ends (symmetricIntervalOf's ranks): inside the tails, and all that is needed of them
+    // without the shortest intervals.
+    const symmetricEnds = [0.95, 0.9973].flatMap((p) => {
+      const r = symmetricStartRank(p, n);
+      return [r, Math.min(n, r + coverageCount(p, n))];
+    });
+    const ranks = [...percentileRanks, ...(shortest ? [] : symmetricEnds)].map((r) => [r, r] as [number, number]);
+    const order = new OrderStatistics(a.samples, fine, shortest ? [[1, tail], [n - tail + 1, n], ...ranks] : ranks);
     a.samples = null;
     percentiles = REPORTED_PERCENTILES.map((pct, i) => ({ pct, value: order.at(percentileRanks[i]!) }));
     interval95 = symmetricIntervalOf((r) => order.at(r), n, 0.95);
     interval9973 = symmetricIntervalOf((r) => order.at(r), n, 0.9973);
-    shortest95 = shortestIntervalOf((r) => order.at(r), n, 0.95);
-    shortest9973 = shortestIntervalOf((r) => order.at(r), n, 0.9973);
+    if (shortest) {
+      shortest95 = shortestIntervalOf((r) => order.at(r), n, 0.95);
+      shortest9973 = shortestIntervalOf((r) => order.at(r), n, 0.9973);
+    }
     quantileMethod = 'exact';
     quantileBound = 0;
   } else {
     percentiles = REPORTED_PERCENTILES.map((pct) => ({ pct, value: histogramPercentile(fine, pct) }));
     interval95 = histogramSymmetricInterval(fine, 0.95);
     interval9973 = histogramSymmetricInterval(fine, 0.9973);
-    shortest95 = histogramShortestInterval(fine, 0.95);
-    shortest9973 = histogramShortestInterval(fine, 0.9973);
+    if (shortest) {
+      shortest95 = histogramShortestInterval(fine, 0.95);
+      shortest9973 = histogramShortestInterval(fine, 0.9973);
+    }
     quantileMethod = 'histogram';
     quantileBound = histogramQuantileBound(fine);
   }
@@ -540,14 +570,15 @@ function finishOutput(
     percentiles,
     interval95,
     interval9973,
-    shortest95,
-    shortest9973,
+    ...(shortest95 && shortest9973 ? { shortest95, shortest9973 } : {}),
     quantileMethod,
     quantileBound,
     histogram: coarseHistogram(fine),
   };
   const sides = output.specSides ?? 'both';
-  if (grid) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec, sides));
+  if (grid && !summaryOnly) result.ambientSweep = grid.map((g) => ambientPoint(g.ambientC, g.accumulator, range, bins, output.spec, sides));
+  // The points Cp and Cpk are read from: the sweep's, or (a summary) the same points without their bands.
+  const points: AmbientMoments[] | null = grid ? (result.ambientSweep ?? grid.map((g) => ambientMoments(g.ambientC, g.accumulator, output.spec, sides))) : null;
   if (output.spec) {
     const [lsl, usl] = output.spec;
     result.spec = [lsl, usl];
@@ -556,10 +587,10 @@ function finishOutput(
     result.histogram.aboveSpec = n - a.inSpec - a.belowSpec;
     result.yieldAtRandomAmbient = yieldOf(a.inSpec, n);
     result.ppmOut = (1e6 * (n - a.unitInSpec)) / n;
-    if (result.ambientSweep) {
+    if (points) {
       // Cp and Cpk of the units at the grid ambient where Cpk is lowest.
-      let worst: AmbientPoint | null = null;
-      for (const point of result.ambientSweep) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
+      let worst: AmbientMoments | null = null;
+      for (const point of points) if (point.cpk !== undefined && (worst === null || point.cpk < worst.cpk!)) worst = point;
       if (worst) {
         if (worst.cp !== undefined) result.cp = worst.cp;
         result.cpk = worst.cpk!;

@@ -33,11 +33,27 @@ export const PAIRED_BLOCK = 4096;
 /** At most this many earlier failures are kept to be checked first, HARD_BLOCK at a time (our choice). */
 const HARD_UNITS = 2048;
 const HARD_BLOCK = 64;
+/** The hard units' gathered columns kept up to this many bytes (our choice: every grade of 26 parts is about 3 MB). */
+const HARD_CACHE_BYTES = 32 * 2 ** 20;
 
 export interface PairedSampleOptions {
   seed: string;
   trials: number;
   chunkSize?: number;
+  /**
+   * What checks the units in count: by default UnitChecker over evaluateOutputs (the JavaScript model); given, this
+   * one, which must give the same flags (the WebAssembly evaluator, src/analysis/kernel/wasm-evaluator.ts).
+   */
+  blockChecker?: BlockChecker;
+}
+
+/** Another implementation of the per-unit check for count: the flags UnitChecker.all gives, for blocks of units. */
+export interface BlockChecker {
+  /** The most units one call takes (at least PAIRED_BLOCK). */
+  readonly capacity: number;
+  /** all[0..n): 1 where unit j of the part columns p meets every window at every ambient of `model`'s grid (at its
+   *  drawn values without a grid). Valid until the next call. */
+  check(model: Model, p: readonly Float64Array[], n: number): Uint8Array;
 }
 
 export interface PairedCount {
@@ -60,6 +76,15 @@ interface SampleChunk {
   u: Float64Array[] | null;
 }
 
+interface HardSnapshot {
+  version: number;
+  /** The hard units, most recent first. */
+  recent: number[];
+  /** columns[i].get(part): part i's values at those units, in that order. */
+  columns: Array<Map<Part, Float64Array>>;
+  bytes: number;
+}
+
 /** One drawn sample of `trials` units of a model with `partCount` parts; see the header. */
 export class PairedSample {
   readonly trials: number;
@@ -75,12 +100,18 @@ export class PairedSample {
   private gatherScratch: Float64Array[] | null = null;
   /** Trial indices that failed in some variant, checked first (at most HARD_UNITS, most recent kept). */
   private hard: number[] = [];
+  /** Changes whenever `hard` does; the snapshot of the hard units and their gathered columns for one version. */
+  private hardVersion = 0;
+  private hardCache: HardSnapshot | null = null;
   private readonly isHard: Uint8Array;
   private scratchU: Float64Array[] | null = null;
+  private readonly blockChecker: BlockChecker | null;
 
   constructor(partCount: number, options: PairedSampleOptions) {
     const chunkSize = options.chunkSize ?? DEFAULT_CHUNK_SIZE;
     if (!Number.isInteger(options.trials) || options.trials < 1) throw new Error(`paired sample: ${options.trials} trials is not a whole number ≥ 1`);
+    this.blockChecker = options.blockChecker ?? null;
+    if (this.blockChecker && this.blockChecker.capacity < PAIRED_BLOCK) throw new Error(`paired sample: a block checker of ${this.blockChecker.capacity} units (needs ${PAIRED_BLOCK})`);
     this.trials = options.trials;
     this.seed = options.seed;
     this.partCount = partCount;
@@ -164,21 +195,21 @@ export class PairedSample {
     if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
     const maxFailures = limits.maxFailures ?? Infinity;
     const maxUnits = limits.maxUnits ?? Infinity;
-    const { checker, drawn } = this.checkerFor(model);
     const perUnit = model.ambient ? model.ambient.gridC.length : 1;
     let evaluations = 0;
     // 1. Units that failed before, most recent first, in small blocks, when they alone can show the variant fails.
     if (Number.isFinite(maxFailures) && this.hard.length > maxFailures) {
-      const recent = this.hard.slice().reverse();
+      const snapshot = this.hardSnapshot();
+      const recent = snapshot.recent;
+      const p = (this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK)));
       let failed = 0;
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
-        const trials = recent.slice(start, start + HARD_BLOCK);
-        this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK));
-        const p = model.parts.map((part, i) => this.gather(i, part, trials, this.gatherScratch![i]!));
-        failed += this.checkBlock(checker, model, p, trials.length, drawn, 0, null);
-        seen += trials.length;
-        evaluations += trials.length * perUnit;
+        const size = Math.min(HARD_BLOCK, recent.length - start);
+        for (let i = 0; i < this.partCount; i++) copyRange(this.hardColumn(snapshot, i, model.parts[i]!), start, p[i]!, size);
+        failed += this.checkBlock(model, p, size, 0, null);
+        seen += size;
+        evaluations += size * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
         // Stop looking here once the rest of the hard units cannot reach the limit, or, at the rate they have failed
         // so far, would not (a guess that only saves time: the count below decides).
@@ -196,7 +227,7 @@ export class PairedSample {
         if (checked >= maxUnits) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
         const n = Math.min(PAIRED_BLOCK, chunk.n - start);
         const p = columns.map((c) => c.subarray(start, start + n));
-        failures += this.checkBlock(checker, model, p, n, drawn, chunk.offset + start, this.hard);
+        failures += this.checkBlock(model, p, n, chunk.offset + start, this.hard);
         checked += n;
         evaluations += n * perUnit;
         if (failures > maxFailures) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
@@ -206,10 +237,8 @@ export class PairedSample {
   }
 
   /** Checks n units; returns how many failed, and (with `remember`) notes their trial indices as hard. */
-  private checkBlock(checker: UnitChecker, model: Model, p: Float64Array[], n: number, drawn: Float64Array[], offset: number, remember: number[] | null): number {
-    if (!model.ambient) evaluateOutputs(model, p, drawn, n);
-    checker.check(p, n, drawn);
-    const all = checker.all;
+  private checkBlock(model: Model, p: Float64Array[], n: number, offset: number, remember: number[] | null): number {
+    const all = this.flagsOf(model, p, n);
     let failed = 0;
     for (let j = 0; j < n; j++) {
       if (all[j] === 1) continue;
@@ -219,8 +248,44 @@ export class PairedSample {
     return failed;
   }
 
+  /** all[0..n) of the block: the block checker's, or UnitChecker's over the JavaScript model. */
+  private flagsOf(model: Model, p: Float64Array[], n: number): Uint8Array {
+    if (this.blockChecker) return this.blockChecker.check(model, p, n);
+    const { checker, drawn } = this.checkerFor(model);
+    if (!model.ambient) evaluateOutputs(model, p, drawn, n);
+    checker.check(p, n, drawn);
+    return checker.all;
+  }
+
+  /** The hard units, most recent first, and their gathered part columns, kept while the list does not change
+   *  (a search's counts mostly see the same list: the gathers, random reads across the sample, are done once). */
+  private hardSnapshot(): HardSnapshot {
+    if (this.hardCache === null || this.hardCache.version !== this.hardVersion) {
+      this.hardCache = { version: this.hardVersion, recent: this.hard.slice().reverse(), columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
+    }
+    return this.hardCache;
+  }
+
+  /** Part i's values (in `part`'s band) at the snapshot's units, in its order. */
+  private hardColumn(snapshot: HardSnapshot, i: number, part: Part): Float64Array {
+    const byPart = snapshot.columns[i]!;
+    let values = byPart.get(part);
+    if (values === undefined) {
+      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length));
+      // Bounded like the column cache (variants built in full bring new Part objects with every model).
+      if (snapshot.bytes + values.byteLength > HARD_CACHE_BYTES) {
+        for (const m of snapshot.columns) m.clear();
+        snapshot.bytes = 0;
+      }
+      byPart.set(part, values);
+      snapshot.bytes += values.byteLength;
+    }
+    return values;
+  }
+
   private noteHard(trial: number): void {
     if (this.isHard[trial] === 1) return;
+    this.hardVersion += 1;
     if (this.hard.length >= HARD_UNITS) this.isHard[this.hard.shift()!] = 0;
     this.hard.push(trial);
     this.isHard[trial] = 1;
@@ -268,6 +333,11 @@ function drawUnits(partCount: number, seed: string, k: number, n: number): Float
     u.push(column);
   }
   return u;
+}
+
+/** to[j] = from[start + j] for j < n. */
+function copyRange(from: Float64Array, start: number, to: Float64Array, n: number): void {
+  for (let j = 0; j < n; j++) to[j] = from[start + j]!;
 }
 
 /** values[j] = lo + width·u[j]: the operations of fillXor128Affine (and uniformFromUnit) on each draw. */

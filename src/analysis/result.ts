@@ -146,9 +146,10 @@ export interface MonteCarloOutput {
   /** Probabilistically symmetric coverage intervals (JCGM 101:2008, 7.7.1). */
   interval95: Interval;
   interval9973: Interval;
-  /** Shortest coverage intervals (JCGM 101:2008, 7.7.2). */
-  shortest95: Interval;
-  shortest9973: Interval;
+  /** Shortest coverage intervals (JCGM 101:2008, 7.7.2); absent only from a run asked to leave them out
+   *  (MonteCarloOptions.shortestIntervals: false). */
+  shortest95?: Interval;
+  shortest9973?: Interval;
   /** 'exact' (from every sample, sorted) or 'histogram' (± quantileBound, one fine bin). */
   quantileMethod: 'exact' | 'histogram';
   /** Largest possible error of each quantile and interval end (0 when exact), output unit. */
@@ -180,6 +181,9 @@ export interface MonteCarloOutput {
 
 /** One output's full result: Monte Carlo plus the nominal, worst case, RSS and contributions. */
 export interface OutputResult extends MonteCarloOutput {
+  /** Shortest coverage intervals (JCGM 101:2008, 7.7.2): always in a full analysis. */
+  shortest95: Interval;
+  shortest9973: Interval;
   nominal: number;
   worstCase: WorstCaseResult;
   rss: RssResult;
@@ -187,6 +191,14 @@ export interface OutputResult extends MonteCarloOutput {
   contributions: Contribution[];
   varianceBudget: VarianceBudget;
 }
+
+/** An output's result in a side-by-side comparison (analyzeSummary; the grade study's rows): OutputResult without
+ *  what such a comparison never shows: the variance-based shares (contributions, variance budget), the shortest
+ *  coverage intervals and the per-ambient sweep. */
+export type OutputSummary = Omit<OutputResult, 'contributions' | 'varianceBudget' | 'shortest95' | 'shortest9973' | 'ambientSweep'>;
+
+/** AnalysisResult with OutputSummary outputs (analyzeSummary). */
+export type AnalysisSummary = Omit<AnalysisResult, 'outputs'> & { outputs: Record<string, OutputSummary> };
 
 export interface AnalysisResult {
   seed: string;

@@ -108,14 +108,19 @@ export function jointCounter(model: Model): { add(parts: Float64Array[], outputs
       inSpec += countPassing(checker.all, n);
     },
     result(trials) {
-      const w = wilsonInterval(inSpec, trials);
-      return {
-        outputs: checkedOutputs(model).map((c) => model.outputs[c.index]!.name),
-        trials,
-        inSpec,
-        pct: trials > 0 ? (100 * inSpec) / trials : 0,
-        interval: { low: 100 * w.low, high: 100 * w.high },
-      };
+      return jointYieldOf(model, inSpec, trials);
     },
+  };
+}
+
+/** The joint yield of `inSpec` units out of `trials`, with its 95 % Wilson interval (jointCounter's result). */
+export function jointYieldOf(model: Model, inSpec: number, trials: number): JointYield {
+  const w = wilsonInterval(inSpec, trials);
+  return {
+    outputs: checkedOutputs(model).map((c) => model.outputs[c.index]!.name),
+    trials,
+    inSpec,
+    pct: trials > 0 ? (100 * inSpec) / trials : 0,
+    interval: { low: 100 * w.low, high: 100 * w.high },
   };
 }

@@ -13,7 +13,7 @@ import { SEARCH_METHOD } from '../report/grades-notes.js';
 import { renderGradesText } from '../report/grades-text.js';
 import { stringifyReport } from '../report/json.js';
 import { wrapText } from '../report/wrap-text.js';
-import { commandLineAnalysis, progressToTerminal, seedFlag, trialsFlag, workersFlag, conditionFlag, type AnalysisCliOptions } from './analysis-options.js';
+import { commandLineAnalysis, progressToTerminal, kernelFlag, seedFlag, trialsFlag, workersFlag, conditionFlag, type AnalysisCliOptions } from './analysis-options.js';
 import { refuseUnreachableTarget, searchTrialsFlag, targetYieldFlag } from './target-yield.js';
 import { VERSION } from './version.js';
 import { startWork } from './work-budget.js';
@@ -60,6 +60,7 @@ export function gradesCommand(): Command {
     .addOption(trialsFlag("Monte Carlo trials per grade (default: the file's, else 100000)"))
     .addOption(workersFlag())
     .addOption(conditionFlag())
+    .addOption(kernelFlag())
     .addOption(failUnderYieldOptionWith(FAIL_UNDER_YIELD_HELP.replace("any output's yield", 'the all-specs yield of the design as it stands')))
     .option('--json', 'print JSON: grades[] (per output sigma, interval95, yieldPct per unit, yieldAtRandomAmbientPct, cpk; allSpecsYieldPct), cheapest, bestUpgrade')
     .addHelpText(

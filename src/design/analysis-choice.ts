@@ -1,11 +1,11 @@
 // How a study runs the engine: the trial count, seed and workers chosen (the command line over the design file's
 // `analysis` section over the defaults), and one engine run with that choice, reporting progress to whatever sink
 // the caller passes in (the CLI draws it on a terminal; tests and library callers pass nothing).
-import { analyze } from '../analysis/analyze.js';
+import { analyze, analyzeSummary, type AnalyzeOptions } from '../analysis/analyze.js';
 import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study.js';
 import type { KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
-import type { AnalysisResult } from '../analysis/result.js';
+import type { AnalysisResult, AnalysisSummary } from '../analysis/result.js';
 import type { PairedSample } from '../analysis/paired-trials.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
 import { DEFAULT_LIFE_CONDITION, lifeConditionOr, type LifeCondition } from '../tolerance/life-allowances.js';
@@ -109,6 +109,22 @@ export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, 
     const result = await analyze(spec, options);
     if (indicesSeconds !== undefined) for (const output of Object.values(result.outputs)) output.varianceBudget.method.seconds = indicesSeconds;
     return result;
+  } finally {
+    progress.finish();
+  }
+}
+
+/** One engine run as analyzeAsChosen makes it, as a summary (analyzeSummary: no variance-based shares, shortest
+ *  intervals or per-ambient sweep) for a comparison that never shows those (the grade study's side-by-side rows).
+ *  Every figure it gives is the same. */
+export async function analyzeSummaryAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory): Promise<AnalysisSummary> {
+  const progress = progressFor(label);
+  try {
+    const options: Omit<AnalyzeOptions, 'varianceSample' | 'timeStage'> = { trials: choice.trials, seed: choice.seed };
+    if (choice.workers !== undefined) options.workers = choice.workers;
+    if (choice.kernel !== undefined) options.kernel = choice.kernel;
+    if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
+    return await analyzeSummary(spec, options);
   } finally {
     progress.finish();
   }

@@ -5,13 +5,13 @@
 // src/report renders it.
 import { gradableResistors, type GradableResistor } from '../analysis/graded-spec.js';
 import { buildSupplyModel, type SupplySpec } from '../analysis/models/supply.js';
-import type { AnalysisResult } from '../analysis/result.js';
+import type { AnalysisSummary } from '../analysis/result.js';
 import { jointYieldAsync } from '../analysis/joint-yield-async.js';
-import { PairedSample } from '../analysis/paired-trials.js';
-import { varianceSample } from '../analysis/variance-indices.js';
+import { PAIRED_BLOCK, PairedSample, type BlockChecker } from '../analysis/paired-trials.js';
+import { variantEvaluator } from '../analysis/kernel/wasm-evaluator.js';
 import type { JointYield } from '../analysis/trial-values.js';
 import { bestSingleUpgrade, cheapestGradeMix, type GradeOption } from '../pick/grade-mix.js';
-import { analyzeAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
+import { analyzeSummaryAsChosen, resolvedForCondition, silentProgress, type AnalysisChoice, type ProgressFactory } from './analysis-choice.js';
 import { DEFAULT_GRADE_NAMES, GRADES, gradeSoldAt, type Grade, type GradeName } from './grades.js';
 import { gradedModels, specWithGrades, type GradedModels } from './graded-models.js';
 import type { ResolvedDesign } from './resolve.js';
@@ -74,7 +74,9 @@ export interface GradeRow {
    * comparison, but the search never gives them this grade. */
   notSold: string[];
   cost: number;
-  result: AnalysisResult;
+  /** The row's engine run, as a summary (no variance-based shares, shortest intervals or per-ambient sweep, which
+   *  no grade report shows: the type lets a report read only what the row has). */
+  result: AnalysisSummary;
   joint: JointYield;
 }
 
@@ -167,13 +169,13 @@ function costOf(grades: readonly Grade[], costs: Record<GradeName, number>): num
 
 /** Joint yield of a spec over the same trials an engine run with this seed and trial count uses (pausing for the
  * event loop between chunks, so Ctrl-C stops a long search at once). */
-function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean): Promise<JointYield> {
-  return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials);
+function jointOf(spec: SupplySpec, seed: string, trials: number, openEnded: boolean, checker: BlockChecker | null = null): Promise<JointYield> {
+  return jointYieldAsync(buildSupplyModel(spec), { seed, runTrials: openEnded ? 0 : trials }, trials, checker);
 }
 
 /** A row's all-specs yield: the engine's own count over the row's trials (the same units, the same test in
  *  unit-check.ts, the same formulas as jointCounter), so it is not counted a second time. */
-function jointFromResult(result: AnalysisResult): JointYield | null {
+function jointFromResult(result: AnalysisSummary): JointYield | null {
   const all = result.allSpecs;
   if (all === null) return null;
   const inSpec = Math.round((all.pct * result.trials) / 100);
@@ -203,14 +205,12 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     return o.offered;
   });
 
-  // Side by side: every resistor in one grade. The rows' variance indices share one drawn sample of units.
+  // Side by side: every resistor in one grade. No grade report shows a row's variance-based shares, shortest
+  // intervals or per-ambient sweep, so the rows are summaries that leave them out (analyzeSummary).
   const rows: GradeRow[] = [];
-  let varianceRows: PairedSample | null = null;
   for (const grade of allowed) {
     const graded = specWithGrades(spec, parts, parts.map(() => grade));
-    const partCount = buildSupplyModel(graded).parts.length;
-    if (varianceRows === null || varianceRows.partCount !== partCount) varianceRows = varianceSample(seed, partCount);
-    const result = await analyzeAsChosen(graded, choice, `grades ${grade.name}`, progressFor, { varianceSample: varianceRows });
+    const result = await analyzeSummaryAsChosen(graded, choice, `grades ${grade.name}`, progressFor);
     const notSold = parts.filter((_, i) => !offeredPerPart[i]!.includes(grade)).map((p) => p.name);
     const joint = jointFromResult(result) ?? (await jointOf(graded, result.seed, result.trials, choice.trials === 'auto'));
     rows.push({ grade, notSold, cost: costOf(parts.map(() => grade), costs), result, joint });
@@ -238,11 +238,14 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
   const upgradeLists = parts.map((_, i) => GRADES.filter((g) => searchLists[i]!.includes(g) || g === designedGrades[i]));
   const candidates = GRADES.filter((g) => upgradeLists.some((list) => list.includes(g)));
   const models = gradedModels(spec, parts, candidates);
+  // The units are checked by the run's kernel: the WebAssembly evaluator where the kernel implements the design and
+  // every candidate grade gives it the same layout (wasm-evaluator.ts), the JavaScript model otherwise; the same flags.
+  const evaluator = variantEvaluator(candidates.map((g) => specWithGrades(spec, parts, parts.map(() => g))), choice.kernel ?? 'auto', PAIRED_BLOCK);
   const searchTrials = options.searchTrials;
   const target = options.targetYieldPct / 100;
   const maxFailures = allowedFailures(searchTrials, target);
   let sample: PairedSample | null = null;
-  const sampleFor = (partCount: number): PairedSample => (sample ??= new PairedSample(partCount, { seed, trials: searchTrials }));
+  const sampleFor = (partCount: number): PairedSample => (sample ??= new PairedSample(partCount, { seed, trials: searchTrials, ...(evaluator ? { blockChecker: evaluator } : {}) }));
   let evaluations = 0;
   let assignments = 0;
   let screenedCount = 0;
@@ -319,7 +322,7 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
       mix.cost = found.cost!;
       mix.searchYieldPct = found.yield! * 100;
       const verifyTrials = typeof choice.trials === 'number' ? choice.trials : DEFAULT_GRADES_TRIALS;
-      const verified = await jointOf(specWithGrades(spec, parts, chosen), seed, verifyTrials, false);
+      const verified = await jointOf(specWithGrades(spec, parts, chosen), seed, verifyTrials, false, evaluator);
       evaluations += verifyTrials * (models.modelFor(chosen).ambient?.gridC.length ?? 1);
       mix.verified = verified;
     }

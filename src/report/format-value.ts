@@ -7,7 +7,7 @@ import type { OutputResult } from '../analysis/result.js';
 export const MISSING = '—';
 
 /** Significant digits that resolve about a tenth of the output's spread, between 3 and 7. */
-export function outputDigits(output: OutputResult): number {
+export function outputDigits(output: Pick<OutputResult, 'nominal' | 'mean' | 'worstCase' | 'sigma' | 'rss'>): number {
   const scale = Math.max(Math.abs(output.nominal), Math.abs(output.mean), Math.abs(output.worstCase.min), Math.abs(output.worstCase.max));
   const spreads = [output.sigma, output.rss.sigma, (output.worstCase.max - output.worstCase.min) / 6].filter((s) => Number.isFinite(s) && s > 0);
   if (!(scale > 0) || spreads.length === 0) return 3;
