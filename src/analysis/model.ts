@@ -55,6 +55,10 @@ export function nominalOutputs(model: Model): Record<string, number> {
   return result;
 }
 
+/** What evaluates a model's outputs over n trials: evaluateOutputs, or the same to the bit elsewhere (the
+ *  WebAssembly kernel's evaluator, src/analysis/kernel/wasm-evaluator.ts). */
+export type OutputsEvaluator = (model: Model, p: Float64Array[], outs: Float64Array[], n: number) => void;
+
 /** Evaluates every output over n trials, through `evaluateAll` when the model has it. */
 export function evaluateOutputs(model: Model, p: Float64Array[], outs: Float64Array[], n: number): void {
   if (model.evaluateAll) {

@@ -32,7 +32,7 @@
 import { partUnitMap } from '../tolerance/sample.js';
 import { partVaries } from '../tolerance/part.js';
 import { drawChunkParts } from './chunk.js';
-import { evaluateOutputs, type Model } from './model.js';
+import { evaluateOutputs, type Model, type OutputsEvaluator } from './model.js';
 import { PairedSample } from './paired-trials.js';
 import type { VarianceIndicesMethod } from './result.js';
 
@@ -41,7 +41,9 @@ import type { VarianceIndicesMethod } from './result.js';
 export const DEFAULT_BASE_SAMPLES = 8192;
 
 /** The most rows evaluated in one call of the model (bounds the scratch memory whatever N is). */
-const BLOCK = 8192;
+/** Rows evaluated per call (a WebAssembly evaluator for these models takes blocks up to this size). */
+export const VARIANCE_BLOCK = 8192;
+const BLOCK = VARIANCE_BLOCK;
 
 /** The estimator's name, as reports print it. */
 export const VARIANCE_INDICES_ESTIMATOR =
@@ -62,6 +64,8 @@ export interface VarianceIndicesOptions {
    * this function would draw, and a study of several variants draws them once (paired-trials.ts).
    */
   sample?: PairedSample;
+  /** What evaluates the model (default evaluateOutputs; the kernel's evaluator gives the same bits). */
+  evaluate?: OutputsEvaluator;
 }
 
 /** The A and B rows of varianceIndices drawn once, for every variant of a model with `partCount` parts. */
@@ -129,8 +133,9 @@ export function* varianceIndicesSteps(model: Model, options: VarianceIndicesOpti
   const fA = model.outputs.map(() => new Float64Array(n));
   const fB = model.outputs.map(() => new Float64Array(n));
   const fAB = model.outputs.map(() => new Float64Array(n));
-  evaluateInBlocks(model, a, fA, n);
-  evaluateInBlocks(model, b, fB, n);
+  const evaluate = options.evaluate ?? evaluateOutputs;
+  evaluateInBlocks(evaluate, model, a, fA, n);
+  evaluateInBlocks(evaluate, model, b, fB, n);
   let evaluations = 2 * n;
   const means = fA.map((ya, o) => meanOfBoth(ya, fB[o]!, n));
   const variances = fA.map((ya, o) => varianceSummands(ya, fB[o]!, means[o]!, n));
@@ -148,7 +153,7 @@ export function* varianceIndicesSteps(model: Model, options: VarianceIndicesOpti
     // A_B^i: A's columns with column i taken from B (no copy: the column arrays are shared).
     const mixed = a.slice();
     mixed[i] = b[i]!;
-    evaluateInBlocks(model, mixed, fAB, n);
+    evaluateInBlocks(evaluate, model, mixed, fAB, n);
     evaluations += n;
     for (let o = 0; o < outputCount; o++) {
       perOutput[o]!.push(partIndices(part.name, fA[o]!, fB[o]!, fAB[o]!, means[o]!, variances[o]!, n));
@@ -166,14 +171,14 @@ function zeroIndices(part: string): PartIndices {
 }
 
 /** Evaluates every output over rows [0, n) of the part columns p, BLOCK rows per call. */
-function evaluateInBlocks(model: Model, p: Float64Array[], outs: Float64Array[], n: number): void {
+function evaluateInBlocks(evaluate: OutputsEvaluator, model: Model, p: Float64Array[], outs: Float64Array[], n: number): void {
   for (let start = 0; start < n; start += BLOCK) {
     const end = Math.min(n, start + BLOCK);
     if (start === 0 && end === n) {
-      evaluateOutputs(model, p, outs, n);
+      evaluate(model, p, outs, n);
       continue;
     }
-    evaluateOutputs(
+    evaluate(
       model,
       p.map((column) => column.subarray(start, end)),
       outs.map((column) => column.subarray(start, end)),

@@ -8,15 +8,20 @@
 // gave it.
 import { partHigh, partLow, partVaries } from '../tolerance/part.js';
 import { partMean } from '../tolerance/sample.js';
-import { evaluateOutputs, type Model } from './model.js';
+import { evaluateOutputs, type Model, type OutputsEvaluator } from './model.js';
 import type { WorstCaseResult } from './result.js';
 import { sensitivities } from './sensitivity.js';
 
 export const DEFAULT_MAX_ENUMERATION_VARIABLES = 20;
-const BLOCK = 4096;
+/** Vertices evaluated per call. */
+export const WORST_CASE_BLOCK = 4096;
+const BLOCK = WORST_CASE_BLOCK;
 
 export interface WorstCaseOptions {
   maxVariables?: number;
+  /** What evaluates the model over a block of vertices (default evaluateOutputs; the kernel's evaluator gives the
+   *  same bits). */
+  evaluate?: OutputsEvaluator;
 }
 
 export interface WorstCaseOutput extends WorstCaseResult {
@@ -34,10 +39,10 @@ function describeVertex(model: Model, varying: number[], bits: ArrayLike<number>
 export function worstCase(model: Model, options: WorstCaseOptions = {}): WorstCaseOutput[] {
   const maxVariables = options.maxVariables ?? DEFAULT_MAX_ENUMERATION_VARIABLES;
   const varying = model.parts.map((part, i) => (partVaries(part) ? i : -1)).filter((i) => i >= 0);
-  return varying.length <= maxVariables ? enumerate(model, varying) : bySensitivitySigns(model, varying);
+  return varying.length <= maxVariables ? enumerate(model, varying, options.evaluate ?? evaluateOutputs) : bySensitivitySigns(model, varying);
 }
 
-function enumerate(model: Model, varying: number[]): WorstCaseOutput[] {
+function enumerate(model: Model, varying: number[], evaluate: OutputsEvaluator): WorstCaseOutput[] {
   const parts = model.parts;
   const count = 2 ** varying.length;
   const block = Math.min(BLOCK, count);
@@ -54,7 +59,7 @@ function enumerate(model: Model, varying: number[]): WorstCaseOutput[] {
       const h = hi[v]!;
       fillVertexColumn(column, start, n, v, l, h);
     }
-    evaluateOutputs(model, p, outs, n);
+    evaluate(model, p, outs, n);
     model.outputs.forEach((_output, o) => {
       const out = outs[o]!;
       const b = best[o]!;
