@@ -80,6 +80,8 @@ interface HardSnapshot {
   version: number;
   /** The hard units, most recent first. */
   recent: number[];
+  /** Positions in `recent` by ascending trial. */
+  ascending: Int32Array;
   /** columns[i].get(part): part i's values at those units, in that order. */
   columns: Array<Map<Part, Float64Array>>;
   bytes: number;
@@ -261,7 +263,11 @@ export class PairedSample {
    *  (a search's counts mostly see the same list: the gathers, random reads across the sample, are done once). */
   private hardSnapshot(): HardSnapshot {
     if (this.hardCache === null || this.hardCache.version !== this.hardVersion) {
-      this.hardCache = { version: this.hardVersion, recent: this.hard.slice().reverse(), columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
+      const recent = this.hard.slice().reverse();
+      // Gathered in ascending trial order (reads that run forward through each column), stored in the list's order.
+      const keys = Float64Array.from(recent, (trial, position) => trial * HARD_UNITS + position).sort();
+      const ascending = Int32Array.from(keys, (key) => key % HARD_UNITS);
+      this.hardCache = { version: this.hardVersion, recent, ascending, columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
     }
     return this.hardCache;
   }
@@ -271,7 +277,7 @@ export class PairedSample {
     const byPart = snapshot.columns[i]!;
     let values = byPart.get(part);
     if (values === undefined) {
-      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length));
+      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length), snapshot.ascending);
       // Bounded like the column cache (variants built in full bring new Part objects with every model).
       if (snapshot.bytes + values.byteLength > HARD_CACHE_BYTES) {
         for (const m of snapshot.columns) m.clear();
@@ -305,12 +311,14 @@ export class PairedSample {
   }
 
   /** Part i's values at the given trials, in that order, into `out`. */
-  private gather(i: number, part: Part, trials: readonly number[], out: Float64Array): Float64Array {
+  private gather(i: number, part: Part, trials: readonly number[], out: Float64Array, order: Int32Array | null = null): Float64Array {
     let c = 0;
     let chunk = this.chunks[0]!;
     let values = this.column(chunk, i, part);
-    // Trials are visited in the order given; look the chunk up when a trial leaves the current one.
-    for (let t = 0; t < trials.length; t++) {
+    // Trials are visited in the order given (by `order`, when given: out[order[k]] for k = 0, 1, …); look the chunk
+    // up when a trial leaves the current one.
+    for (let k = 0; k < trials.length; k++) {
+      const t = order === null ? k : order[k]!;
       const trial = trials[t]!;
       if (trial < chunk.offset || trial >= chunk.offset + chunk.n) {
         c = this.chunks.findIndex((ch) => trial >= ch.offset && trial < ch.offset + ch.n);
