@@ -19,10 +19,17 @@ import { instantiateKernel, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
 
-/** Bytes of a column of `capacity` f64, rounded up to 16 (the kernel evaluates two trials per SIMD step, so an odd
- *  block computes one value past its end: a column has room for it). */
+/** Bytes added to every column past its values: three cache lines (64 bytes each, common practice for x86-64 and
+ *  ARM64), so the kernel's 30-odd column streams do not start a whole number of 4 KB pages apart and fall into the
+ *  same cache sets (with a block of 4096 values, a power-of-two column size, they did: the evaluation of the LED
+ *  example took about 70 ns a unit and ambient unpadded, 50 to 60 ns with this padding, measured on the 2-core
+ *  development machine). Layout only: no value depends on it. */
+const COLUMN_PAD_BYTES = 3 * 64;
+
+/** Bytes of a column of `capacity` f64: rounded up to 16 (the kernel evaluates two trials per SIMD step, so an odd
+ *  block computes one value past its end: a column has room for it), plus COLUMN_PAD_BYTES. */
 function columnBytes(capacity: number): number {
-  return Math.ceil((capacity * 8) / 16) * 16;
+  return Math.ceil((capacity * 8) / 16) * 16 + COLUMN_PAD_BYTES;
 }
 
 /** True when both specs (with the models built from them) give the kernel the same wiring and parameter tables and
