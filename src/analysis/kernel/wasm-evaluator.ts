@@ -1,6 +1,7 @@
 // The supply model and the per-unit check evaluated in the WebAssembly kernel for part values the caller already
 // has (a paired sample's columns, the variance indices' rows), block by block: the kernel's `evaluate` at the values
-// drawn or at each ambient of the model's grid, then `markInside`, `markAll` and `countOnes`. The same results as
+// drawn or at each ambient of the model's grid, then `markWindows` (markInside for every window of the block, sixteen
+// units per SIMD step: an export of its own at the end of the kernel), `markAll` and `countOnes`. The same results as
 // evaluateOutputs and UnitChecker (src/analysis/model.ts, src/analysis/unit-check.ts), to the bit: the kernel's
 // evaluate is the JavaScript model's operations in the same order per trial (test/wasm-kernel.test.ts), and holding
 // the ambient at t (fixedT) gives the dT = t − 25 that the reference gets by filling the ambient column with t.
@@ -71,6 +72,8 @@ export class WasmUnitEvaluator {
   private readonly cols: number;
   private readonly outs: number;
   private readonly passRows: number;
+  /** markWindows' table: each checked output's column address and window. */
+  private readonly windowRows: number;
   private readonly all: number;
 
   /**
@@ -99,12 +102,19 @@ export class WasmUnitEvaluator {
     this.cols = take(this.stride * (this.names.length + 1));
     this.outs = take(this.stride * this.outputCount);
     this.passRows = take(capacity * this.checked.length);
+    this.windowRows = take(24 * this.checked.length);
     this.all = take(capacity);
     const memory = this.k.memory;
     if (top > memory.buffer.byteLength) memory.grow(Math.ceil((top - memory.buffer.byteLength) / PAGE));
     const buffer = memory.buffer;
     new Int32Array(buffer, this.lay, tables.layout.length).set(tables.layout);
     new Float64Array(buffer, this.par, tables.parameters.length).set(tables.parameters);
+    const rows = new DataView(buffer, this.windowRows, 24 * this.checked.length);
+    this.checked.forEach((c, i) => {
+      rows.setUint32(24 * i, this.outs + c.index * this.stride, true);
+      rows.setFloat64(24 * i + 8, c.lo, true);
+      rows.setFloat64(24 * i + 16, c.hi, true);
+    });
     // The column of zeros (absent parts) is never written: a fresh memory is zero.
   }
 
@@ -139,7 +149,7 @@ export class WasmUnitEvaluator {
     for (let g = 0; g < (grid === null ? 1 : grid.length); g++) {
       if (grid !== null) this.heap()[this.par / 8 + P_FIXED_T] = grid[g]!;
       const buffer = this.evaluateInto(n, grid === null ? 0 : 1);
-      for (let i = 0; i < checked.length; i++) kernel.markInside(this.outs + checked[i]!.index * this.stride, n, checked[i]!.lo, checked[i]!.hi, this.passRows + i * rowBytes);
+      kernel.markWindows(this.windowRows, checked.length, n, this.passRows, rowBytes);
       if (grid !== null && onAmbient) onAmbient(g, Array.from({ length: this.outputCount }, (_, o) => new Float64Array(buffer, this.outs + o * this.stride, n)));
     }
     kernel.markAll(this.passRows, checked.length, rowBytes, n, this.all);
