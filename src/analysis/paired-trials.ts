@@ -54,6 +54,9 @@ export interface BlockChecker {
   /** all[0..n): 1 where unit j of the part columns p meets every window at every ambient of `model`'s grid (at its
    *  drawn values without a grid). Valid until the next call. */
   check(model: Model, p: readonly Float64Array[], n: number): Uint8Array;
+  /** The same for units start..start + n − 1 of whole columns, which never change once handed over (the sample's
+   *  cached columns): a checker may keep its own copy of a column and copy it again only for another array. */
+  checkRange?(model: Model, columns: readonly Float64Array[], start: number, n: number): Uint8Array;
 }
 
 export interface PairedCount {
@@ -99,7 +102,6 @@ export class PairedSample {
   private byPart = new WeakMap<Part, Float64Array[][]>();
   /** Reused between variants that share outputs, ambient grid and evaluation (variants put together from parts). */
   private checker: { model: Model; checker: UnitChecker; drawn: Float64Array[] } | null = null;
-  private gatherScratch: Float64Array[] | null = null;
   /** Trial indices that failed in some variant, checked first (at most HARD_UNITS, most recent kept). */
   private hard: number[] = [];
   /** Changes whenever `hard` does; the snapshot of the hard units and their gathered columns for one version. */
@@ -203,13 +205,12 @@ export class PairedSample {
     if (Number.isFinite(maxFailures) && this.hard.length > maxFailures) {
       const snapshot = this.hardSnapshot();
       const recent = snapshot.recent;
-      const p = (this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK)));
+      const columns = model.parts.map((part, i) => this.hardColumn(snapshot, i, part));
       let failed = 0;
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
         const size = Math.min(HARD_BLOCK, recent.length - start);
-        for (let i = 0; i < this.partCount; i++) copyRange(this.hardColumn(snapshot, i, model.parts[i]!), start, p[i]!, size);
-        failed += this.checkBlock(model, p, size, 0, null);
+        failed += this.checkBlock(model, columns, start, size, 0, null);
         seen += size;
         evaluations += size * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
@@ -228,8 +229,7 @@ export class PairedSample {
       for (let start = 0; start < chunk.n; start += PAIRED_BLOCK) {
         if (checked >= maxUnits) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
         const n = Math.min(PAIRED_BLOCK, chunk.n - start);
-        const p = columns.map((c) => c.subarray(start, start + n));
-        failures += this.checkBlock(model, p, n, chunk.offset + start, this.hard);
+        failures += this.checkBlock(model, columns, start, n, chunk.offset + start, this.hard);
         checked += n;
         evaluations += n * perUnit;
         if (failures > maxFailures) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
@@ -238,9 +238,10 @@ export class PairedSample {
     return { checked, inSpec: checked - failures, failures, complete: true, evaluations };
   }
 
-  /** Checks n units; returns how many failed, and (with `remember`) notes their trial indices as hard. */
-  private checkBlock(model: Model, p: Float64Array[], n: number, offset: number, remember: number[] | null): number {
-    const all = this.flagsOf(model, p, n);
+  /** Checks units start..start + n − 1 of the columns; returns how many failed, and (with `remember`) notes their
+   *  trial indices (offset + j for the block's unit j) as hard. */
+  private checkBlock(model: Model, columns: Float64Array[], start: number, n: number, offset: number, remember: number[] | null): number {
+    const all = this.flagsOf(model, columns, start, n);
     let failed = 0;
     for (let j = 0; j < n; j++) {
       if (all[j] === 1) continue;
@@ -251,7 +252,10 @@ export class PairedSample {
   }
 
   /** all[0..n) of the block: the block checker's, or UnitChecker's over the JavaScript model. */
-  private flagsOf(model: Model, p: Float64Array[], n: number): Uint8Array {
+  private flagsOf(model: Model, columns: Float64Array[], start: number, n: number): Uint8Array {
+    const checkRange = this.blockChecker?.checkRange;
+    if (checkRange) return checkRange.call(this.blockChecker, model, columns, start, n);
+    const p = columns.map((c) => c.subarray(start, start + n));
     if (this.blockChecker) return this.blockChecker.check(model, p, n);
     const { checker, drawn } = this.checkerFor(model);
     if (!model.ambient) evaluateOutputs(model, p, drawn, n);
@@ -265,8 +269,11 @@ export class PairedSample {
     if (this.hardCache === null || this.hardCache.version !== this.hardVersion) {
       const recent = this.hard.slice().reverse();
       // Gathered in ascending trial order (reads that run forward through each column), stored in the list's order.
-      const keys = Float64Array.from(recent, (trial, position) => trial * HARD_UNITS + position).sort();
-      const ascending = Int32Array.from(keys, (key) => key % HARD_UNITS);
+      const keys = new Float64Array(recent.length);
+      for (let k = 0; k < recent.length; k++) keys[k] = recent[k]! * HARD_UNITS + k;
+      keys.sort();
+      const ascending = new Int32Array(recent.length);
+      for (let k = 0; k < recent.length; k++) ascending[k] = keys[k]! % HARD_UNITS;
       this.hardCache = { version: this.hardVersion, recent, ascending, columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
     }
     return this.hardCache;
@@ -341,11 +348,6 @@ function drawUnits(partCount: number, seed: string, k: number, n: number): Float
     u.push(column);
   }
   return u;
-}
-
-/** to[j] = from[start + j] for j < n. */
-function copyRange(from: Float64Array, start: number, to: Float64Array, n: number): void {
-  for (let j = 0; j < n; j++) to[j] = from[start + j]!;
 }
 
 /** values[j] = lo + width·u[j]: the operations of fillXor128Affine (and uniformFromUnit) on each draw. */
