@@ -220,10 +220,11 @@ describe('the paired sample and the re-run with the evaluator: the same counts a
   const models = gradedModels(spec, resistors, candidates);
   const evaluator = variantEvaluator(candidates.map((g) => specWithGrades(spec, resistors, resistors.map(() => g))), 'auto', PAIRED_BLOCK)!;
 
-  it('every count, complete or stopped, on a sample of two chunks', () => {
+  it('every count, complete or stopped, on a sample of two chunks (count and countAsync alike)', async () => {
     const trials = 70_000; // 65536 + 4464: a chunk boundary inside the sample
     const js = new PairedSample(models.modelFor(resistors.map(() => candidates[0]!)).parts.length, { seed: 'paired', trials });
     const wasm = new PairedSample(js.partCount, { seed: 'paired', trials, blockChecker: evaluator });
+    const paused = new PairedSample(js.partCount, { seed: 'paired', trials, blockChecker: evaluator });
     const assignments = [
       resistors.map(() => grade('10%')),
       resistors.map(() => grade('1%')),
@@ -240,6 +241,7 @@ describe('the paired sample and the re-run with the evaluator: the same counts a
         const a = js.count(model, limits);
         const b = wasm.count(model, limits);
         expect(b, `${chosen.map((g) => g.name).join(' ')} ${JSON.stringify(limits)}`).toEqual(a);
+        expect(await paused.countAsync(model, limits)).toEqual(a);
         if (!a.complete) stopped++;
         if (a.failures > 0) failing++;
       }

@@ -59,6 +59,12 @@ export interface BlockChecker {
   checkRange?(model: Model, columns: readonly Float64Array[], start: number, n: number): Uint8Array;
 }
 
+/** count's limits: stop once more than maxFailures units have failed, or after about maxUnits units. */
+export interface PairedLimits {
+  maxFailures?: number;
+  maxUnits?: number;
+}
+
 export interface PairedCount {
   /** Units checked, and those of them that met every window at every ambient. */
   checked: number;
@@ -172,11 +178,18 @@ export class PairedSample {
 
   /** A chunk's uniforms drawn again from its stream (only past SAMPLE_BYTES_CAP). */
   private unitsOf(chunk: SampleChunk): Float64Array[] {
+    // Every part's column of a chunk asks for the chunk's uniforms: they are drawn once and kept until another chunk's
+    // are needed (the same numbers: each chunk's stream starts from (seed, k)).
+    if (this.scratchU !== null && this.scratchK === chunk.k) return this.scratchU;
     if (this.scratchU === null || this.scratchU[0]!.length < chunk.n) this.scratchU = Array.from({ length: this.partCount }, () => new Float64Array(chunk.n));
     const state = chunkState(this.seed, chunk.k);
     for (let i = 0; i < this.partCount; i++) fillXor128(state, this.scratchU[i]!, chunk.n);
+    this.scratchK = chunk.k;
     return this.scratchU;
   }
+
+  /** The chunk whose uniforms scratchU holds (−1: none). */
+  private scratchK = -1;
 
   /**
    * Every part's values over the whole sample in `model`'s bands (the numbers drawChunkParts gives for chunk 0), for a
@@ -195,7 +208,27 @@ export class PairedSample {
    * `maxUnits`, stops after about that many units (a screen: complete false, nothing proven unless failures >
    * maxFailures). Units that failed in earlier variants are checked first when they alone can decide.
    */
-  count(model: Model, limits: { maxFailures?: number; maxUnits?: number } = {}): PairedCount {
+  count(model: Model, limits: PairedLimits = {}): PairedCount {
+    const steps = this.countSteps(model, limits);
+    for (;;) {
+      const step = steps.next();
+      if (step.done) return step.value;
+    }
+  }
+
+  /** count, pausing for the event loop between the chunks of the sample (a long count still answers Ctrl-C at once);
+   *  the same result, however it is driven. Run one count of a sample at a time. */
+  async countAsync(model: Model, limits: PairedLimits = {}): Promise<PairedCount> {
+    const steps = this.countSteps(model, limits);
+    for (;;) {
+      const step = steps.next();
+      if (step.done) return step.value;
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+  }
+
+  /** count's computation, yielding between the chunks of the sample. */
+  private *countSteps(model: Model, limits: PairedLimits): Generator<void, PairedCount> {
     if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
     const maxFailures = limits.maxFailures ?? Infinity;
     const maxUnits = limits.maxUnits ?? Infinity;
@@ -234,6 +267,7 @@ export class PairedSample {
         evaluations += n * perUnit;
         if (failures > maxFailures) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
       }
+      if (chunk !== this.chunks[this.chunks.length - 1]) yield;
     }
     return { checked, inSpec: checked - failures, failures, complete: true, evaluations };
   }
