@@ -178,6 +178,30 @@ describe('one evaluator for the variants of a design', () => {
     expect(variantEvaluator([spec, moved], 'auto', PAIRED_BLOCK)).toBeNull();
   });
 
+  it('checkRange (columns kept in the kernel while the same arrays come back) gives check\'s flags, across variants and lengths', () => {
+    const models = GRADES.filter((g) => ['10%', '1%', '0.1%'].includes(g.name)).map((g) => buildSupplyModel(specWithGrades(spec, resistors, resistors.map(() => g))));
+    const evaluator = variantEvaluator(everyGrade, 'auto', PAIRED_BLOCK)!;
+    const variant = (m: number): Model => ({ ...models[0]!, parts: models[m]!.parts });
+    for (const length of [100, 1500, 3001, 20_000]) {
+      // Each variant's columns, drawn once (arrays that never change, as the paired sample's).
+      const columns = models.map((m) => {
+        const p = m.parts.map(() => new Float64Array(length));
+        drawChunkParts(m.parts, `range ${length}`, 0, p, length);
+        return p;
+      });
+      let failing = 0;
+      // Variants and blocks interleaved, so kept columns are replaced and reused, at starts that are not block-aligned.
+      for (const [m, start, n] of [[0, 0, 64], [1, 0, 64], [0, 37, 63], [2, length - 64, 64], [1, 5, Math.min(4096, length - 5)], [0, 0, Math.min(4096, length)], [2, 1, 1]] as const) {
+        const model = variant(m);
+        const expected = Array.from(evaluator.check(model, columns[m]!.map((c) => c.subarray(start, start + n)), n));
+        const got = Array.from(evaluator.checkRange(model, columns[m]!, start, n));
+        expect(got, `length ${length}, variant ${m}, units ${start}..${start + n}`).toEqual(expected);
+        failing += expected.filter((f) => f === 0).length;
+      }
+      expect(failing, `length ${length}: some units fail`).toBeGreaterThan(0);
+    }
+  });
+
   it('throws for a model with other parts, other windows, or a block past its capacity', () => {
     const model = buildSupplyModel(spec);
     const evaluator = new WasmUnitEvaluator(spec, model, 64);
@@ -196,10 +220,11 @@ describe('the paired sample and the re-run with the evaluator: the same counts a
   const models = gradedModels(spec, resistors, candidates);
   const evaluator = variantEvaluator(candidates.map((g) => specWithGrades(spec, resistors, resistors.map(() => g))), 'auto', PAIRED_BLOCK)!;
 
-  it('every count, complete or stopped, on a sample of two chunks', () => {
+  it('every count, complete or stopped, on a sample of two chunks (count and countAsync alike)', async () => {
     const trials = 70_000; // 65536 + 4464: a chunk boundary inside the sample
     const js = new PairedSample(models.modelFor(resistors.map(() => candidates[0]!)).parts.length, { seed: 'paired', trials });
     const wasm = new PairedSample(js.partCount, { seed: 'paired', trials, blockChecker: evaluator });
+    const paused = new PairedSample(js.partCount, { seed: 'paired', trials, blockChecker: evaluator });
     const assignments = [
       resistors.map(() => grade('10%')),
       resistors.map(() => grade('1%')),
@@ -216,6 +241,7 @@ describe('the paired sample and the re-run with the evaluator: the same counts a
         const a = js.count(model, limits);
         const b = wasm.count(model, limits);
         expect(b, `${chosen.map((g) => g.name).join(' ')} ${JSON.stringify(limits)}`).toEqual(a);
+        expect(await paused.countAsync(model, limits)).toEqual(a);
         if (!a.complete) stopped++;
         if (a.failures > 0) failing++;
       }

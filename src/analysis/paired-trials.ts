@@ -54,6 +54,15 @@ export interface BlockChecker {
   /** all[0..n): 1 where unit j of the part columns p meets every window at every ambient of `model`'s grid (at its
    *  drawn values without a grid). Valid until the next call. */
   check(model: Model, p: readonly Float64Array[], n: number): Uint8Array;
+  /** The same for units start..start + n − 1 of whole columns, which never change once handed over (the sample's
+   *  cached columns): a checker may keep its own copy of a column and copy it again only for another array. */
+  checkRange?(model: Model, columns: readonly Float64Array[], start: number, n: number): Uint8Array;
+}
+
+/** count's limits: stop once more than maxFailures units have failed, or after about maxUnits units. */
+export interface PairedLimits {
+  maxFailures?: number;
+  maxUnits?: number;
 }
 
 export interface PairedCount {
@@ -80,6 +89,8 @@ interface HardSnapshot {
   version: number;
   /** The hard units, most recent first. */
   recent: number[];
+  /** Positions in `recent` by ascending trial. */
+  ascending: Int32Array;
   /** columns[i].get(part): part i's values at those units, in that order. */
   columns: Array<Map<Part, Float64Array>>;
   bytes: number;
@@ -97,7 +108,6 @@ export class PairedSample {
   private byPart = new WeakMap<Part, Float64Array[][]>();
   /** Reused between variants that share outputs, ambient grid and evaluation (variants put together from parts). */
   private checker: { model: Model; checker: UnitChecker; drawn: Float64Array[] } | null = null;
-  private gatherScratch: Float64Array[] | null = null;
   /** Trial indices that failed in some variant, checked first (at most HARD_UNITS, most recent kept). */
   private hard: number[] = [];
   /** Changes whenever `hard` does; the snapshot of the hard units and their gathered columns for one version. */
@@ -168,11 +178,18 @@ export class PairedSample {
 
   /** A chunk's uniforms drawn again from its stream (only past SAMPLE_BYTES_CAP). */
   private unitsOf(chunk: SampleChunk): Float64Array[] {
+    // Every part's column of a chunk asks for the chunk's uniforms: they are drawn once and kept until another chunk's
+    // are needed (the same numbers: each chunk's stream starts from (seed, k)).
+    if (this.scratchU !== null && this.scratchK === chunk.k) return this.scratchU;
     if (this.scratchU === null || this.scratchU[0]!.length < chunk.n) this.scratchU = Array.from({ length: this.partCount }, () => new Float64Array(chunk.n));
     const state = chunkState(this.seed, chunk.k);
     for (let i = 0; i < this.partCount; i++) fillXor128(state, this.scratchU[i]!, chunk.n);
+    this.scratchK = chunk.k;
     return this.scratchU;
   }
+
+  /** The chunk whose uniforms scratchU holds (−1: none). */
+  private scratchK = -1;
 
   /**
    * Every part's values over the whole sample in `model`'s bands (the numbers drawChunkParts gives for chunk 0), for a
@@ -191,7 +208,27 @@ export class PairedSample {
    * `maxUnits`, stops after about that many units (a screen: complete false, nothing proven unless failures >
    * maxFailures). Units that failed in earlier variants are checked first when they alone can decide.
    */
-  count(model: Model, limits: { maxFailures?: number; maxUnits?: number } = {}): PairedCount {
+  count(model: Model, limits: PairedLimits = {}): PairedCount {
+    const steps = this.countSteps(model, limits);
+    for (;;) {
+      const step = steps.next();
+      if (step.done) return step.value;
+    }
+  }
+
+  /** count, pausing for the event loop between the chunks of the sample (a long count still answers Ctrl-C at once);
+   *  the same result, however it is driven. Run one count of a sample at a time. */
+  async countAsync(model: Model, limits: PairedLimits = {}): Promise<PairedCount> {
+    const steps = this.countSteps(model, limits);
+    for (;;) {
+      const step = steps.next();
+      if (step.done) return step.value;
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+  }
+
+  /** count's computation, yielding between the chunks of the sample. */
+  private *countSteps(model: Model, limits: PairedLimits): Generator<void, PairedCount> {
     if (model.parts.length !== this.partCount) throw new Error(`paired sample of ${this.partCount} parts given a model of ${model.parts.length}`);
     const maxFailures = limits.maxFailures ?? Infinity;
     const maxUnits = limits.maxUnits ?? Infinity;
@@ -201,13 +238,12 @@ export class PairedSample {
     if (Number.isFinite(maxFailures) && this.hard.length > maxFailures) {
       const snapshot = this.hardSnapshot();
       const recent = snapshot.recent;
-      const p = (this.gatherScratch ??= Array.from({ length: this.partCount }, () => new Float64Array(HARD_BLOCK)));
+      const columns = model.parts.map((part, i) => this.hardColumn(snapshot, i, part));
       let failed = 0;
       let seen = 0;
       for (let start = 0; start < recent.length && seen < maxUnits; start += HARD_BLOCK) {
         const size = Math.min(HARD_BLOCK, recent.length - start);
-        for (let i = 0; i < this.partCount; i++) copyRange(this.hardColumn(snapshot, i, model.parts[i]!), start, p[i]!, size);
-        failed += this.checkBlock(model, p, size, 0, null);
+        failed += this.checkBlock(model, columns, start, size, 0, null);
         seen += size;
         evaluations += size * perUnit;
         if (failed > maxFailures) return { checked: seen, inSpec: seen - failed, failures: failed, complete: false, evaluations };
@@ -226,19 +262,20 @@ export class PairedSample {
       for (let start = 0; start < chunk.n; start += PAIRED_BLOCK) {
         if (checked >= maxUnits) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
         const n = Math.min(PAIRED_BLOCK, chunk.n - start);
-        const p = columns.map((c) => c.subarray(start, start + n));
-        failures += this.checkBlock(model, p, n, chunk.offset + start, this.hard);
+        failures += this.checkBlock(model, columns, start, n, chunk.offset + start, this.hard);
         checked += n;
         evaluations += n * perUnit;
         if (failures > maxFailures) return { checked, inSpec: checked - failures, failures, complete: false, evaluations };
       }
+      if (chunk !== this.chunks[this.chunks.length - 1]) yield;
     }
     return { checked, inSpec: checked - failures, failures, complete: true, evaluations };
   }
 
-  /** Checks n units; returns how many failed, and (with `remember`) notes their trial indices as hard. */
-  private checkBlock(model: Model, p: Float64Array[], n: number, offset: number, remember: number[] | null): number {
-    const all = this.flagsOf(model, p, n);
+  /** Checks units start..start + n − 1 of the columns; returns how many failed, and (with `remember`) notes their
+   *  trial indices (offset + j for the block's unit j) as hard. */
+  private checkBlock(model: Model, columns: Float64Array[], start: number, n: number, offset: number, remember: number[] | null): number {
+    const all = this.flagsOf(model, columns, start, n);
     let failed = 0;
     for (let j = 0; j < n; j++) {
       if (all[j] === 1) continue;
@@ -249,7 +286,10 @@ export class PairedSample {
   }
 
   /** all[0..n) of the block: the block checker's, or UnitChecker's over the JavaScript model. */
-  private flagsOf(model: Model, p: Float64Array[], n: number): Uint8Array {
+  private flagsOf(model: Model, columns: Float64Array[], start: number, n: number): Uint8Array {
+    const checkRange = this.blockChecker?.checkRange;
+    if (checkRange) return checkRange.call(this.blockChecker, model, columns, start, n);
+    const p = columns.map((c) => c.subarray(start, start + n));
     if (this.blockChecker) return this.blockChecker.check(model, p, n);
     const { checker, drawn } = this.checkerFor(model);
     if (!model.ambient) evaluateOutputs(model, p, drawn, n);
@@ -261,7 +301,14 @@ export class PairedSample {
    *  (a search's counts mostly see the same list: the gathers, random reads across the sample, are done once). */
   private hardSnapshot(): HardSnapshot {
     if (this.hardCache === null || this.hardCache.version !== this.hardVersion) {
-      this.hardCache = { version: this.hardVersion, recent: this.hard.slice().reverse(), columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
+      const recent = this.hard.slice().reverse();
+      // Gathered in ascending trial order (reads that run forward through each column), stored in the list's order.
+      const keys = new Float64Array(recent.length);
+      for (let k = 0; k < recent.length; k++) keys[k] = recent[k]! * HARD_UNITS + k;
+      keys.sort();
+      const ascending = new Int32Array(recent.length);
+      for (let k = 0; k < recent.length; k++) ascending[k] = keys[k]! % HARD_UNITS;
+      this.hardCache = { version: this.hardVersion, recent, ascending, columns: Array.from({ length: this.partCount }, () => new Map()), bytes: 0 };
     }
     return this.hardCache;
   }
@@ -271,7 +318,7 @@ export class PairedSample {
     const byPart = snapshot.columns[i]!;
     let values = byPart.get(part);
     if (values === undefined) {
-      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length));
+      values = this.gather(i, part, snapshot.recent, new Float64Array(snapshot.recent.length), snapshot.ascending);
       // Bounded like the column cache (variants built in full bring new Part objects with every model).
       if (snapshot.bytes + values.byteLength > HARD_CACHE_BYTES) {
         for (const m of snapshot.columns) m.clear();
@@ -305,12 +352,14 @@ export class PairedSample {
   }
 
   /** Part i's values at the given trials, in that order, into `out`. */
-  private gather(i: number, part: Part, trials: readonly number[], out: Float64Array): Float64Array {
+  private gather(i: number, part: Part, trials: readonly number[], out: Float64Array, order: Int32Array | null = null): Float64Array {
     let c = 0;
     let chunk = this.chunks[0]!;
     let values = this.column(chunk, i, part);
-    // Trials are visited in the order given; look the chunk up when a trial leaves the current one.
-    for (let t = 0; t < trials.length; t++) {
+    // Trials are visited in the order given (by `order`, when given: out[order[k]] for k = 0, 1, …); look the chunk
+    // up when a trial leaves the current one.
+    for (let k = 0; k < trials.length; k++) {
+      const t = order === null ? k : order[k]!;
       const trial = trials[t]!;
       if (trial < chunk.offset || trial >= chunk.offset + chunk.n) {
         c = this.chunks.findIndex((ch) => trial >= ch.offset && trial < ch.offset + ch.n);
@@ -333,11 +382,6 @@ function drawUnits(partCount: number, seed: string, k: number, n: number): Float
     u.push(column);
   }
   return u;
-}
-
-/** to[j] = from[start + j] for j < n. */
-function copyRange(from: Float64Array, start: number, to: Float64Array, n: number): void {
-  for (let j = 0; j < n; j++) to[j] = from[start + j]!;
 }
 
 /** values[j] = lo + width·u[j]: the operations of fillXor128Affine (and uniformFromUnit) on each draw. */

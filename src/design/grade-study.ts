@@ -267,7 +267,7 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     if (cached !== undefined && (cached.exact || cached.y < floor)) return cached.y;
     await pause();
     const limit = floor === -Infinity ? Infinity : allowedFailures(searchTrials, floor);
-    const counted = sampleFor(model.parts.length).count(model, { maxFailures: limit });
+    const counted = await sampleFor(model.parts.length).countAsync(model, { maxFailures: limit });
     evaluations += counted.evaluations;
     assignments += 1;
     // Stopped early: more failures than the target allows among the units counted, so the yield is below
@@ -286,7 +286,7 @@ export async function runGrades(asResolved: ResolvedDesign, choice: AnalysisChoi
     // The screens share a budget as large as the evaluations' (MAX_SEARCH_EVALUATIONS × the search trials, in
     // units); past it a screen says nothing, which only leaves more to the evaluations and their limit.
     if (screenUnits >= MAX_SEARCH_EVALUATIONS * searchTrials) return false;
-    const counted = sampleFor(model.parts.length).count(model, { maxFailures, maxUnits: SCREEN_UNITS });
+    const counted = await sampleFor(model.parts.length).countAsync(model, { maxFailures, maxUnits: SCREEN_UNITS });
     evaluations += counted.evaluations;
     screenUnits += counted.evaluations / (model.ambient?.gridC.length ?? 1);
     screenedCount += 1;

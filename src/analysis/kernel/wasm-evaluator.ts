@@ -1,6 +1,7 @@
 // The supply model and the per-unit check evaluated in the WebAssembly kernel for part values the caller already
 // has (a paired sample's columns, the variance indices' rows), block by block: the kernel's `evaluate` at the values
-// drawn or at each ambient of the model's grid, then `markInside`, `markAll` and `countOnes`. The same results as
+// drawn or at each ambient of the model's grid, then `markWindows` (markInside for every window of the block, sixteen
+// units per SIMD step: an export of its own at the end of the kernel), `markAll` and `countOnes`. The same results as
 // evaluateOutputs and UnitChecker (src/analysis/model.ts, src/analysis/unit-check.ts), to the bit: the kernel's
 // evaluate is the JavaScript model's operations in the same order per trial (test/wasm-kernel.test.ts), and holding
 // the ambient at t (fixedT) gives the dT = t − 25 that the reference gets by filling the ambient column with t.
@@ -19,10 +20,17 @@ import { instantiateKernel, KERNEL_SCRATCH_BYTES, type KernelExports } from './w
 
 const PAGE = 65536;
 
-/** Bytes of a column of `capacity` f64, rounded up to 16 (the kernel evaluates two trials per SIMD step, so an odd
- *  block computes one value past its end: a column has room for it). */
+/** Bytes added to every column past its values: three cache lines (64 bytes each, common practice for x86-64 and
+ *  ARM64), so the kernel's 30-odd column streams do not start a whole number of 4 KB pages apart and fall into the
+ *  same cache sets (with a block of 4096 values, a power-of-two column size, they did: the evaluation of the LED
+ *  example took about 70 ns a unit and ambient unpadded, 50 to 60 ns with this padding, measured on the 2-core
+ *  development machine). Layout only: no value depends on it. */
+const COLUMN_PAD_BYTES = 3 * 64;
+
+/** Bytes of a column of `capacity` f64: rounded up to 16 (the kernel evaluates two trials per SIMD step, so an odd
+ *  block computes one value past its end: a column has room for it), plus COLUMN_PAD_BYTES. */
 function columnBytes(capacity: number): number {
-  return Math.ceil((capacity * 8) / 16) * 16;
+  return Math.ceil((capacity * 8) / 16) * 16 + COLUMN_PAD_BYTES;
 }
 
 /** True when both specs (with the models built from them) give the kernel the same wiring and parameter tables and
@@ -51,6 +59,19 @@ export function variantEvaluator(variants: readonly SupplySpec[], choice: Kernel
   return new WasmUnitEvaluator(built[0]!.spec, built[0]!.model, capacity);
 }
 
+/** Where a check finds its part columns (cols + i·stride), writes its outputs (outs + o·stride) and its window table. */
+interface Placement {
+  cols: number;
+  stride: number;
+  outs: number;
+  windowRows: number;
+}
+
+/** Columns kept in the kernel's memory for checkRange, and which array each slot holds. */
+interface Region extends Placement {
+  resident: Array<Float64Array | null>;
+}
+
 export class WasmUnitEvaluator {
   readonly capacity: number;
   readonly checked: readonly CheckedOutput[];
@@ -64,6 +85,8 @@ export class WasmUnitEvaluator {
   private readonly cols: number;
   private readonly outs: number;
   private readonly passRows: number;
+  /** markWindows' table: each checked output's column address and window. */
+  private readonly windowRows: number;
   private readonly all: number;
 
   /**
@@ -93,12 +116,14 @@ export class WasmUnitEvaluator {
     this.cols = take(this.stride * (this.names.length + 1));
     this.outs = take(this.stride * this.outputCount);
     this.passRows = take(capacity * this.checked.length);
+    this.windowRows = take(24 * this.checked.length);
     this.all = take(capacity);
     const memory = this.k.memory;
     if (top > memory.buffer.byteLength) memory.grow(Math.ceil((top - memory.buffer.byteLength) / PAGE));
     const buffer = memory.buffer;
     new Int32Array(buffer, this.lay, tables.layout.length).set(tables.layout);
     new Float64Array(buffer, this.par, tables.parameters.length).set(tables.parameters);
+    this.writeWindowRows(this.windowRows, this.outs, this.stride);
     // The column of zeros (absent parts) is never written: a fresh memory is zero.
   }
 
@@ -125,16 +150,46 @@ export class WasmUnitEvaluator {
    */
   check(model: Model, p: readonly Float64Array[], n: number, onAmbient?: (g: number, outs: Float64Array[]) => void): Uint8Array {
     this.load(model, p, n);
+    return this.checkAt({ cols: this.cols, stride: this.stride, outs: this.outs, windowRows: this.windowRows }, n, onAmbient);
+  }
+
+  /**
+   * check for units start..start + n − 1 of whole columns (all of one length), which the caller never changes once
+   * handed over: each column is copied into the kernel's memory once and kept there while the same array comes back
+   * (variants share most of their parts' columns), and the kernel reads the block in place.
+   */
+  checkRange(model: Model, columns: readonly Float64Array[], start: number, n: number): Uint8Array {
+    if (!Number.isInteger(n) || n < 0 || n > this.capacity) throw new Error(`wasm evaluator: a block of ${n} units (capacity ${this.capacity})`);
+    this.assertVariant(model);
+    if (columns.length !== this.names.length) throw new Error(`wasm evaluator: ${columns.length} part columns for ${this.names.length} parts`);
+    const length = columns[0]?.length ?? 0;
+    if (!Number.isInteger(start) || start < 0 || start + n > length) throw new Error(`wasm evaluator: units ${start}..${start + n} of columns of ${length}`);
+    const region = this.regionFor(length);
+    for (let i = 0; i < columns.length; i++) {
+      const column = columns[i]!;
+      if (region.resident[i] === column) continue;
+      if (column.length !== length) throw new Error('wasm evaluator: part columns of different lengths');
+      this.heap().set(column, (region.cols + i * region.stride) / 8);
+      region.resident[i] = column;
+    }
+    return this.checkAt({ ...region, cols: region.cols + 8 * start }, n);
+  }
+
+  /** The per-unit check of n units whose part columns are at `at.cols`, `at.stride` bytes apart (the kernel writes the
+   *  outputs with the same stride: at `at.outs`, marked through the window table at `at.windowRows`). */
+  private checkAt(at: Placement, n: number, onAmbient?: (g: number, outs: Float64Array[]) => void): Uint8Array {
     const kernel = this.k;
+    const { cols, stride, outs } = at;
     const rowBytes = this.capacity;
     const checked = this.checked;
     this.bytes().fill(1, this.passRows, this.passRows + rowBytes * checked.length);
     const grid = this.gridC;
     for (let g = 0; g < (grid === null ? 1 : grid.length); g++) {
       if (grid !== null) this.heap()[this.par / 8 + P_FIXED_T] = grid[g]!;
-      const buffer = this.evaluateInto(n, grid === null ? 0 : 1);
-      for (let i = 0; i < checked.length; i++) kernel.markInside(this.outs + checked[i]!.index * this.stride, n, checked[i]!.lo, checked[i]!.hi, this.passRows + i * rowBytes);
-      if (grid !== null && onAmbient) onAmbient(g, Array.from({ length: this.outputCount }, (_, o) => new Float64Array(buffer, this.outs + o * this.stride, n)));
+      kernel.evaluate(this.lay, this.par, cols, stride, n, outs, grid === null ? 0 : 1);
+      const buffer = kernel.memory.buffer;
+      kernel.markWindows(at.windowRows, checked.length, n, this.passRows, rowBytes);
+      if (grid !== null && onAmbient) onAmbient(g, Array.from({ length: this.outputCount }, (_, o) => new Float64Array(buffer, outs + o * stride, n)));
     }
     kernel.markAll(this.passRows, checked.length, rowBytes, n, this.all);
     return this.bytes().subarray(this.all, this.all + n);
@@ -148,6 +203,42 @@ export class WasmUnitEvaluator {
   /** Ones in all[0..n) of the last check (countPassing of unit-check.ts). */
   countAll(n: number): number {
     return this.k.countOnes(this.all, n);
+  }
+
+  /**
+   * The region of kept columns for columns of `length` values: one per size class (a power of two, at least 1024), each
+   * with a slot per part and the column of zeros after them, made when first needed.
+   */
+  private regionFor(length: number): Region {
+    const size = Math.max(1024, 2 ** Math.ceil(Math.log2(Math.max(1, length))));
+    let region = this.regions.get(size);
+    if (region === undefined) {
+      const stride = columnBytes(size);
+      const memory = this.k.memory;
+      const at = Math.ceil(memory.buffer.byteLength / 16) * 16;
+      // Part columns and the column of zeros, the outputs (the kernel writes them with the columns' stride), the
+      // window table. Fresh pages past the arena: zero, so the column of zeros and every pad are zero.
+      const outs = at + stride * (this.names.length + 1);
+      const windowRows = outs + stride * this.outputCount;
+      const end = windowRows + 24 * this.checked.length;
+      memory.grow(Math.ceil((end - memory.buffer.byteLength) / PAGE));
+      region = { cols: at, stride, outs, windowRows, resident: this.names.map(() => null) };
+      this.writeWindowRows(windowRows, outs, stride);
+      this.regions.set(size, region);
+    }
+    return region;
+  }
+
+  private readonly regions = new Map<number, Region>();
+
+  /** markWindows' table at `rows` for outputs at `outs`, `stride` bytes apart. */
+  private writeWindowRows(rows: number, outs: number, stride: number): void {
+    const table = new DataView(this.k.memory.buffer, rows, 24 * this.checked.length);
+    this.checked.forEach((c, i) => {
+      table.setUint32(24 * i, outs + c.index * stride, true);
+      table.setFloat64(24 * i + 8, c.lo, true);
+      table.setFloat64(24 * i + 16, c.hi, true);
+    });
   }
 
   private evaluateInto(n: number, fixedT: number): ArrayBuffer {

@@ -23,6 +23,8 @@ export interface KernelExports {
   countOnes(flags: number, n: number): number;
   countAllInside(rows: number, count: number, n: number): number;
   exactLog(x: number): number;
+  /** The paired grade search's window marks (src/analysis/kernel/wasm-evaluator.ts), after the chunk kernel's exports. */
+  markWindows(rows: number, count: number, n: number, pass: number, rowStride: number): void;
 }
 
 // The few WebAssembly JavaScript API types used here (the project's lib setting, ES2022, does not declare them).
