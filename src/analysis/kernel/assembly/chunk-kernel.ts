@@ -713,45 +713,15 @@ export function countOnes(flags: usize, n: i32): i32 {
 
 // ---------------------------------------------------------------------------------------------------------------
 // The paired grade search's window marks (src/analysis/kernel/wasm-evaluator.ts): markInside for every window of a
-// block in one call, sixteen units per SIMD step. Added after the chunk kernel above and used only by the evaluator.
+// block in one call.
 
 /**
  * For each of `count` windows (a row of countAllInside's table: the output column's address as u32, 4 bytes unused,
- * then lo and hi as f64), pass row c (at pass + c·rowStride) &= lo ≤ x[j] ≤ hi for j < n: markInside's flags (a NaN
- * fails: every comparison with it is false, lane by lane as in the scalar test). Sixteen units per step: the
- * comparisons' all-ones or zero lanes are narrowed to bytes (saturating, so −1 stays −1 and 0 stays 0) and masked to
- * 1; the last n mod 16 units one at a time.
+ * then lo and hi as f64), pass row c (at pass + c·rowStride) &= lo ≤ x[j] ≤ hi for j < n: markInside on each.
  */
 export function markWindows(rows: usize, count: i32, n: i32, pass: usize, rowStride: usize): void {
-  const one = i8x16.splat(1);
-  const full = n & ~15;
   for (let c = 0; c < count; c++) {
     const row = rows + <usize>c * 24;
-    const x = <usize>load<u32>(row);
-    const lo = load<f64>(row, 8);
-    const hi = load<f64>(row, 16);
-    const vLo = f64x2.splat(lo);
-    const vHi = f64x2.splat(hi);
-    const flags = pass + <usize>c * rowStride;
-    for (let j = 0; j < full; j += 16) {
-      const at = x + (<usize>j << 3);
-      const q0 = v128.shuffle<i32>(inside(at, vLo, vHi), inside(at + 16, vLo, vHi), 0, 2, 4, 6);
-      const q1 = v128.shuffle<i32>(inside(at + 32, vLo, vHi), inside(at + 48, vLo, vHi), 0, 2, 4, 6);
-      const q2 = v128.shuffle<i32>(inside(at + 64, vLo, vHi), inside(at + 80, vLo, vHi), 0, 2, 4, 6);
-      const q3 = v128.shuffle<i32>(inside(at + 96, vLo, vHi), inside(at + 112, vLo, vHi), 0, 2, 4, 6);
-      const bytes = i8x16.narrow_i16x8_s(i16x8.narrow_i32x4_s(q0, q1), i16x8.narrow_i32x4_s(q2, q3));
-      const f = flags + <usize>j;
-      v128.store(f, v128.and(v128.load(f), v128.and(bytes, one)));
-    }
-    for (let j = full; j < n; j++) {
-      const v = load<f64>(x + (<usize>j << 3));
-      store<u8>(flags + j, load<u8>(flags + j) & <u8>(v >= lo && v <= hi));
-    }
+    markInside(<usize>load<u32>(row), n, load<f64>(row, 8), load<f64>(row, 16), pass + <usize>c * rowStride);
   }
-}
-
-/** Two units' lo ≤ x ≤ hi as all-ones or zero lanes. */
-@inline function inside(at: usize, lo: v128, hi: v128): v128 {
-  const v = v128.load(at);
-  return v128.and(f64x2.ge(v, lo), f64x2.le(v, hi));
 }
