@@ -6,7 +6,7 @@ import { partFromUnit, partUnitMap } from '../tolerance/sample.js';
 import { chunkState, fillXor128, fillXor128Affine, skipXor128 } from './chunk-random.js';
 import { evaluateOutputs, type Model } from './model.js';
 import { coverageCount, symmetricIntervalOf, symmetricStartRank } from './statistics/coverage.js';
-import type { FineHistogram } from './statistics/histogram.js';
+import { histogramBin, type FineHistogram } from './statistics/histogram.js';
 import { OrderStatistics } from './statistics/order-statistics.js';
 import { countPassing, UnitChecker } from './unit-check.js';
 
@@ -40,6 +40,9 @@ export interface OutputChunk {
   inSpec: number;
   nonFinite: number;
   counts: Uint32Array;
+  /** The histogram bin counts[0] stands for (absent: 0). A detached chunk keeps only the bins its values can be in,
+   *  from its min's to its max's (histogramBin), every bin when a value is not finite. */
+  countsFrom?: number;
   samples: Float64Array | null;
   /** This chunk's probabilistically symmetric 95 % interval (adaptive runs only). */
   low95: number;
@@ -85,15 +88,42 @@ export function drawChunkParts(parts: Part[], seed: string, k: number, p: Float6
   }
 }
 
+/**
+ * Replaces each output's counts (as drawn, then at each grid ambient) with a copy of only the bins its values can be
+ * in, from its min's to its max's (histogramBin; every bin when a value is not finite), all in one new buffer, with
+ * countsFrom saying where they start: a chunk fills a narrow stretch of the bins, and a full copy of every output
+ * at every ambient was about a megabyte of garbage a chunk. The summary then no longer shares the runner's memory.
+ */
+export function keepCountedBins(outputs: OutputChunk[], ambient: OutputChunk[][] | null, config: ChunkConfig): void {
+  const chunks = [...outputs, ...(ambient ?? []).flat()];
+  const spans = chunks.map((c, i) => {
+    const range = config.ranges[i % outputs.length]!;
+    if (c.nonFinite > 0 || c.n === 0) return { from: 0, to: config.bins + 1 };
+    const scale = config.bins / (range.hi - range.lo);
+    return { from: histogramBin(c.min, range.lo, scale, config.bins), to: histogramBin(c.max, range.lo, scale, config.bins) };
+  });
+  const all = new Uint32Array(spans.reduce((sum, span) => sum + span.to - span.from + 1, 0));
+  let at = 0;
+  chunks.forEach((c, i) => {
+    const { from, to } = spans[i]!;
+    const kept = all.subarray(at, at + to - from + 1);
+    kept.set(c.counts.subarray(from, to + 1));
+    at += to - from + 1;
+    c.counts = kept;
+    c.countsFrom = from;
+  });
+}
+
 export class ChunkRunner {
   private readonly p: Float64Array[];
   private outs: Float64Array[];
   private readonly units: UnitChecker;
 
-  /** With `reuse`, the counts buffer is reused for every chunk: only for a caller that consumes each summary
-   *  before asking for the next (the in-thread run), never when summaries are transferred to another thread. */
+  /** The histogram counts of every output, as drawn and at each grid ambient, reused for every chunk. With `reuse`
+   *  the summary's counts are views of them (for a caller that consumes each summary before asking for the next,
+   *  the in-thread run); without, the summary takes a compact copy (about 1 MB a chunk for 5 outputs at 6 ambients
+   *  in full). */
   private counts: Uint32Array | null = null;
-  /** The per-ambient histogram counts, reused like `counts` (about 1 MB a chunk for 5 outputs at 6 ambients). */
   private ambientCounts: Uint32Array | null = null;
 
   constructor(
@@ -113,21 +143,16 @@ export class ChunkRunner {
     const n = chunkLength(config, k);
     drawChunkParts(model.parts, config.seed, k, p, n);
     evaluateOutputs(model, p, this.outs, n);
-    // One buffer for every output's histogram counts (one allocation, one transfer).
+    // One buffer for every output's histogram counts, kept from chunk to chunk; a summary that leaves this runner
+    // (not `reuse`) takes a compact copy at the end (keepCountedBins).
     const stride = config.bins + 2;
-    let allCounts = this.counts;
-    if (allCounts === null || !this.reuse) allCounts = new Uint32Array(stride * model.outputs.length);
-    else allCounts.fill(0);
-    if (this.reuse) this.counts = allCounts;
+    const allCounts = this.counts === null ? (this.counts = new Uint32Array(stride * model.outputs.length)) : this.counts.fill(0);
     const outputs = this.outs.map((x, o) => this.reduce(o, x, n, allCounts.subarray(o * stride, (o + 1) * stride), config.keepSamples, config.chunkIntervals));
     // Each unit over the ambient grid: the pass flags, and each output's reduction at every grid ambient.
     const grid = this.units.gridC;
     const ambient: OutputChunk[][] | null = grid ? [] : null;
     let ambientCounts: Uint32Array | null = null;
-    if (grid) {
-      ambientCounts = this.reuse && this.ambientCounts !== null ? this.ambientCounts.fill(0) : new Uint32Array(stride * model.outputs.length * grid.length);
-      if (this.reuse) this.ambientCounts = ambientCounts;
-    }
+    if (grid) ambientCounts = this.ambientCounts === null ? (this.ambientCounts = new Uint32Array(stride * model.outputs.length * grid.length)) : this.ambientCounts.fill(0);
     this.units.check(p, n, this.outs, (g, outs) => {
       const base = g * stride * model.outputs.length;
       ambient!.push(outs.map((x, o) => this.reduce(o, x, n, ambientCounts!.subarray(base + o * stride, base + (o + 1) * stride), false, false)));
@@ -135,6 +160,7 @@ export class ChunkRunner {
     this.units.checked.forEach((c, i) => (outputs[c.index]!.unitInSpec = countPassing(this.units.pass[i]!, n)));
     const allInSpec = countPassing(this.units.all, n);
     if (config.keepSamples) this.outs = model.outputs.map(() => new Float64Array(config.chunkSize));
+    if (!this.reuse) keepCountedBins(outputs, ambient, config);
     return { k, outputs, allInSpec, ambient };
   }
 

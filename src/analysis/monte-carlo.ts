@@ -21,6 +21,7 @@ import { coverageCount, nearestRank, shortestIntervalOf, symmetricIntervalOf, sy
 import { OrderStatistics } from './statistics/order-statistics.js';
 import {
   coarseHistogram,
+  histogramBin,
   histogramPercentile,
   histogramQuantileBound,
   histogramShortestInterval,
@@ -129,12 +130,7 @@ class Accumulator {
     this.lo = range.lo;
     this.scale = bins / (range.hi - range.lo);
   }
-  /** The bin a chunk runner counts v in (chunk.ts scanPass): monotone in v, so a chunk's values lie in the bins
-   *  from its min's to its max's. */
-  private binOf(v: number): number {
-    const t = (v - this.lo) * this.scale;
-    return t < 0 ? 0 : t >= this.bins ? this.bins + 1 : (t | 0) + 1;
-  }
+
   add(c: OutputChunk): void {
     this.moments = mergeMoments(this.moments, { n: c.n, mean: c.mean, m2: c.m2 });
     if (c.min < this.min) this.min = c.min;
@@ -148,10 +144,11 @@ class Accumulator {
     // infinity among the values (the run then fails anyway) every bin is added.
     const counts = this.counts;
     const source = c.counts;
+    const from = c.countsFrom ?? 0;
     const whole = c.nonFinite > 0 || c.n === 0 || counts.length === 0;
-    const first = whole ? 0 : this.binOf(c.min);
-    const last = whole ? counts.length - 1 : this.binOf(c.max);
-    for (let b = first; b <= last; b++) counts[b]! += source[b]!;
+    const first = Math.max(from, whole ? 0 : histogramBin(c.min, this.lo, this.scale, this.bins));
+    const last = Math.min(from + source.length - 1, whole ? counts.length - 1 : histogramBin(c.max, this.lo, this.scale, this.bins));
+    for (let b = first; b <= last; b++) counts[b]! += source[b - from]!;
     if (this.samples && c.samples) {
       this.samples.push(c.samples);
       this.sampleCount += c.n;

@@ -2,7 +2,7 @@
 // chunk.ts) for the same chunk, to the bit (test/wasm-kernel.test.ts). The kernel draws, transforms, evaluates
 // and reduces; this file lays out the kernel's memory once, seeds each chunk (SHA-256 of (seed, k), chunk-random.ts)
 // and turns the kernel's results into the summary (the chunk's own 95 % interval, when asked, as ChunkRunner does).
-import { chunkLength, type ChunkConfig, type ChunkSummary, type OutputChunk } from '../chunk.js';
+import { chunkLength, keepCountedBins, type ChunkConfig, type ChunkSummary, type OutputChunk } from '../chunk.js';
 import { chunkState } from '../chunk-random.js';
 import type { Model } from '../model.js';
 import type { SupplySpec } from '../models/supply.js';
@@ -161,7 +161,7 @@ export class WasmChunkRunner {
       this.checked.forEach((c) => (outputs[c.index]!.unitInSpec = outputs[c.index]!.inSpec));
       allInSpec = kernel.countAllInside(this.windowRows, this.checked.length, n);
     }
-    if (!this.reuse) this.detachCounts(outputs, ambient);
+    if (!this.reuse) keepCountedBins(outputs, ambient, config);
     return { k, outputs, allInSpec, ambient };
   }
 
@@ -198,18 +198,6 @@ export class WasmChunkRunner {
       applyBitMatrix(jump, state, state);
     }
     for (let pad = next; pad % 4 !== 0; pad++) place(pad, this.spare, 0, 1);
-  }
-
-  /** Copies the counts out of the kernel's memory (one buffer for the drawn outputs, one for the grid), for transfer. */
-  private detachCounts(outputs: OutputChunk[], ambient: OutputChunk[][] | null): void {
-    const copy = (chunks: OutputChunk[]): void => {
-      if (chunks.length === 0) return;
-      const first = chunks[0]!.counts;
-      const all = new Uint32Array(first.buffer, first.byteOffset, this.countStride * chunks.length).slice();
-      chunks.forEach((c, i) => (c.counts = all.subarray(i * this.countStride, (i + 1) * this.countStride)));
-    };
-    copy(outputs);
-    if (ambient) copy(ambient.flat());
   }
 
   /** ChunkRunner.reduce over a column of the kernel's memory. */

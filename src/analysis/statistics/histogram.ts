@@ -26,6 +26,16 @@ export function countInto(counts: Uint32Array | Float64Array, bins: number, lo: 
   }
 }
 
+/**
+ * The bin the chunk runners count v in, with scale = bins / (hi − lo): 0 below the range, bins + 1 above it, else
+ * ⌊(v − lo)·scale⌋ + 1 (chunk.ts scanPass, the kernel's reduce). Monotone in v (a subtraction and a product by a
+ * positive number round monotonically), so a chunk's values all lie in the bins from its min's to its max's.
+ */
+export function histogramBin(v: number, lo: number, scale: number, bins: number): number {
+  const t = (v - lo) * scale;
+  return t < 0 ? 0 : t >= bins ? bins + 1 : (t | 0) + 1;
+}
+
 function binEdges(h: FineHistogram, b: number): [number, number] {
   const width = (h.hi - h.lo) / h.bins;
   if (b === 0) return [h.min, h.lo];
