@@ -5,7 +5,6 @@
 // with exact quantiles from the kept values, and with quantiles read from the histogram (a memory cap of one byte),
 // and on a model without an ambient grid. The reference is the full analysis, whose figures the other tests check
 // against closed forms and published values.
-import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyze, analyzeSummary } from '../src/analysis/analyze.js';
@@ -14,22 +13,10 @@ import type { Model } from '../src/analysis/model.js';
 import { loadDesignFile } from '../src/design/load.js';
 import { resolveDesign } from '../src/design/resolve.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
+import { exampleSpecs } from './example-specs.js';
 import { ensureKernelBuilt } from './kernel-build.js';
 
 beforeAll(() => ensureKernelBuilt(), 120_000);
-
-function exampleSpecs(): Array<{ name: string; spec: SupplySpec }> {
-  const specs: Array<{ name: string; spec: SupplySpec }> = [];
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples')).filter((f) => f.endsWith('.json')).sort()) {
-    const resolved = resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', file)));
-    specs.push({ name: file, spec: resolved.spec });
-    if (resolved.lowEnd) specs.push({ name: `${file} (low end)`, spec: resolved.lowEnd });
-  }
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples', 'engine')).filter((f) => f.endsWith('.json')).sort()) {
-    specs.push({ name: `engine/${file}`, spec: (JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples', 'engine', file), 'utf8')) as { spec: SupplySpec }).spec });
-  }
-  return specs;
-}
 
 /** What a summary's output leaves out of the full one. */
 const LEFT_OUT = ['ambientSweep', 'contributions', 'shortest95', 'shortest9973', 'varianceBudget'];

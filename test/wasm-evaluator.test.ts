@@ -8,7 +8,6 @@
 // and without the evaluator, the joint yield of the re-run, and `grades --json` with --kernel js and --kernel wasm.
 // Tolerance: none. The kernel's evaluate is the JavaScript model's operations in the same order per trial (see
 // test/wasm-kernel.test.ts), so outputs must match to the bit and flags exactly.
-import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { drawChunkParts } from '../src/analysis/chunk.js';
@@ -27,6 +26,7 @@ import { resolveDesign } from '../src/design/resolve.js';
 import { InputError } from '../src/errors.js';
 import { PROJECT_ROOT } from '../src/project-root.js';
 import { buildIfMissing, runTrimfree } from './cli-subprocess.js';
+import { exampleSpecs } from './example-specs.js';
 import { ensureKernelBuilt } from './kernel-build.js';
 import { withoutWallTime } from './wall-time.js';
 
@@ -34,20 +34,6 @@ beforeAll(() => {
   ensureKernelBuilt();
   buildIfMissing();
 }, 120_000);
-
-/** Every supply spec the examples give: design files resolved (both ends of a pot), engine files as they are. */
-function exampleSpecs(): Array<{ name: string; spec: SupplySpec }> {
-  const specs: Array<{ name: string; spec: SupplySpec }> = [];
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples')).filter((f) => f.endsWith('.json')).sort()) {
-    const resolved = resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', file)));
-    specs.push({ name: file, spec: resolved.spec });
-    if (resolved.lowEnd) specs.push({ name: `${file} (low end)`, spec: resolved.lowEnd });
-  }
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples', 'engine')).filter((f) => f.endsWith('.json')).sort()) {
-    specs.push({ name: `engine/${file}`, spec: (JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples', 'engine', file), 'utf8')) as { spec: SupplySpec }).spec });
-  }
-  return specs;
-}
 
 /** Examples the kernel declines (test/wasm-kernel.test.ts lists the same), with the field it does not implement. */
 const KERNEL_DECLINES: Record<string, string> = {

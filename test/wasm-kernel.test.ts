@@ -13,7 +13,7 @@
 // and √ are correctly rounded in JavaScript and in WebAssembly alike; the one logarithm is exactLog in both, see
 // test/exact-log.test.ts), and every sum runs in trial order, so there is no reordering to allow for: the figures
 // must match to the bit, and any difference is a defect of one of them.
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -24,28 +24,12 @@ import { kernelSupports } from '../src/analysis/kernel/supports.js';
 import { KERNEL_WASM } from '../src/analysis/kernel/wasm-module.js';
 import { WasmChunkRunner } from '../src/analysis/kernel/wasm-runner.js';
 import { buildSupplyModel, type SupplySpec } from '../src/analysis/models/supply.js';
-import { loadDesignFile } from '../src/design/load.js';
-import { resolveDesign } from '../src/design/resolve.js';
 import { InputError } from '../src/errors.js';
-import { PROJECT_ROOT } from '../src/project-root.js';
 import { stringifyReport } from '../src/report/json.js';
+import { exampleSpecs } from './example-specs.js';
 import { buildKernel, ensureKernelBuilt } from './kernel-build.js';
 
 beforeAll(() => ensureKernelBuilt(), 120_000);
-
-/** Every supply spec the examples give: design files resolved (both ends of a pot), engine files as they are. */
-function exampleSpecs(): Array<{ name: string; spec: SupplySpec }> {
-  const specs: Array<{ name: string; spec: SupplySpec }> = [];
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples')).filter((f) => f.endsWith('.json')).sort()) {
-    const resolved = resolveDesign(loadDesignFile(join(PROJECT_ROOT, 'examples', file)));
-    specs.push({ name: file, spec: resolved.spec });
-    if (resolved.lowEnd) specs.push({ name: `${file} (low end)`, spec: resolved.lowEnd });
-  }
-  for (const file of readdirSync(join(PROJECT_ROOT, 'examples', 'engine')).filter((f) => f.endsWith('.json')).sort()) {
-    specs.push({ name: `engine/${file}`, spec: (JSON.parse(readFileSync(join(PROJECT_ROOT, 'examples', 'engine', file), 'utf8')) as { spec: SupplySpec }).spec });
-  }
-  return specs;
-}
 
 /** The analysis as JSON with the kernel's own note blanked (the one line allowed to differ). */
 function withoutKernelNote(value: unknown): string {
