@@ -300,9 +300,13 @@ export async function monteCarlo(model: Model, options: MonteCarloOptions): Prom
   const workers = helperThreads(options, maxTrials, chunkCount) + 1;
   if (workers <= 1) {
     const runner = createChunkRunner(model, config, options.source, true);
-    for (let k = 0; !stopped; k++) {
-      mergeChunk(runner.run(k));
-      if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));
+    try {
+      for (let k = 0; !stopped; k++) {
+        mergeChunk(runner.run(k));
+        if (k % 8 === 7) await new Promise((resolve) => setImmediate(resolve));
+      }
+    } finally {
+      runner.release?.();
     }
   } else {
     await runOnWorkers(options.source!, config, workers - 1, chunkCount, mergeChunk, () => stopped);

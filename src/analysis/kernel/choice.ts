@@ -25,6 +25,8 @@ export function chooseKernel(choice: KernelChoice, source: ModelSource | undefin
 /** What computes one chunk: ChunkRunner or WasmChunkRunner. */
 export interface ChunkComputer {
   run(k: number): ChunkSummary;
+  /** Called once the runner is done with (its summaries consumed): gives back what it borrowed. */
+  release?(): void;
 }
 
 /** A chunk runner of the kernel config.kernel names (the reference without one). */

@@ -12,7 +12,7 @@ import { OrderStatistics } from '../statistics/order-statistics.js';
 import { checkedOutputs, type CheckedOutput } from '../unit-check.js';
 import { kernelLayout, P_FIXED_T } from './layout.js';
 import { applyBitMatrix, jumpMatrix } from './xor128-jump.js';
-import { instantiateKernel, KERNEL_SCRATCH_BYTES, type KernelExports } from './wasm-module.js';
+import { borrowKernel, giveBackKernel, KERNEL_SCRATCH_BYTES, type KernelExports } from './wasm-module.js';
 
 const PAGE = 65536;
 const RESULT_FIELDS = 9;
@@ -69,7 +69,7 @@ export class WasmChunkRunner {
     private readonly reuse = false,
   ) {
     const tables = kernelLayout(spec, model);
-    this.k = instantiateKernel();
+    this.k = borrowKernel();
     this.parts = model.parts.length;
     const outputs = model.outputs.length;
     const size = config.chunkSize;
@@ -102,13 +102,20 @@ export class WasmChunkRunner {
     new Float64Array(buffer, this.desc, tables.descriptors.length).set(tables.descriptors);
     new Int32Array(buffer, this.lay, tables.layout.length).set(tables.layout);
     new Float64Array(buffer, this.par, tables.parameters.length).set(tables.parameters);
-    // The column of zeros (absent parts) is never written: a fresh memory is zero.
+    // The column of zeros (absent parts): the kernel never writes it, but a borrowed instance's memory may hold
+    // anything there.
+    new Uint8Array(buffer, this.cols + this.parts * this.stride, this.stride).fill(0);
     const rows = new DataView(buffer, this.windowRows, 24 * this.checked.length);
     this.checked.forEach((c, i) => {
       rows.setUint32(24 * i, this.outs + c.index * this.stride, true);
       rows.setFloat64(24 * i + 8, c.lo, true);
       rows.setFloat64(24 * i + 16, c.hi, true);
     });
+  }
+
+  /** Gives the kernel instance back for the next runner; this runner is not used after. */
+  release(): void {
+    giveBackKernel(this.k);
   }
 
   run(k: number): ChunkSummary {
