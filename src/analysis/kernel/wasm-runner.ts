@@ -57,7 +57,7 @@ export class WasmChunkRunner {
   private readonly drawing: number[];
   private readonly groups: number;
   private readonly spare: number;
-  /** Scratch of transform's normal passes: the steps with a tail value, 32 bytes each. */
+  /** Scratch of transform's normal passes: the tail values of a block, 16 bytes each. */
   private readonly tails: number;
   private readonly descriptors: Float64Array;
 
