@@ -6,7 +6,6 @@ import { DEFAULT_LOT_SHARE, DEFAULT_TRIALS_PER_LOT } from '../analysis/lot-study
 import type { KernelChoice } from '../analysis/kernel/kernel-choices.js';
 import type { SupplySpec } from '../analysis/models/supply.js';
 import type { AnalysisResult, AnalysisSummary } from '../analysis/result.js';
-import type { PairedSample } from '../analysis/paired-trials.js';
 import { cappedWorkerCount } from '../analysis/worker-count.js';
 import { DEFAULT_LIFE_CONDITION, lifeConditionOr, type LifeCondition } from '../tolerance/life-allowances.js';
 import { specForCondition } from './life-condition.js';
@@ -85,8 +84,8 @@ export function analysisChoice(resolved: ResolvedDesign, cli: CommandLineAnalysi
 
 /** One engine run (worst case, RSS, Monte Carlo) of `spec` as `choice` says, with its progress sent to a new sink.
  *  The variance indices' wall time is measured here (the engine reads no clock) and set in each output's
- *  varianceBudget.method.seconds; `shared.varianceSample` lets several variants of one design draw those rows once. */
-export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory, shared: { varianceSample?: PairedSample } = {}): Promise<AnalysisResult> {
+ *  varianceBudget.method.seconds. */
+export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, label: string, progressFor: ProgressFactory): Promise<AnalysisResult> {
   const progress = progressFor(label);
   try {
     let indicesSeconds: number | undefined;
@@ -102,7 +101,6 @@ export async function analyzeAsChosen(spec: SupplySpec, choice: AnalysisChoice, 
         }
       },
     };
-    if (shared.varianceSample) options.varianceSample = shared.varianceSample;
     if (choice.workers !== undefined) options.workers = choice.workers;
     if (choice.kernel !== undefined) options.kernel = choice.kernel;
     if (choice.progress) options.onProgress = (p) => progress.update(p.trialsDone, p.trialsPlanned);
